@@ -1,0 +1,165 @@
+/**
+ * The case file: one release at one site, with its receptors and parameters. Versioned JSON,
+ * validated with zod. `CASE_VERSION` is the current version; older versions migrate forward in
+ * `migrate.ts`. Quantities carry their unit ({ value, unit }) so the unit a user chose per field
+ * survives saving; the engine converts to SI at the edge (see `toEngine.ts`).
+ *
+ * Positions are [x, y] pairs: in a geographic case [longitude, latitude] in degrees (WGS 84,
+ * the GeoJSON order of RFC 7946); in a local case [east, north] in metres from the site datum.
+ */
+import { z } from 'zod';
+import { UNITS, type Dimension } from '../core/units';
+
+export const CASE_FORMAT = 'downgradient-case';
+export const CASE_VERSION = 2;
+
+/** A quantity with a unit of the given dimension; the value must be finite. */
+export function quantity(dimension: Dimension) {
+  return z.object({
+    value: z.number().refine(Number.isFinite, { message: 'must be a finite number' }),
+    unit: z.string().refine((u) => UNITS[u]?.dimension === dimension, {
+      message: `must be a ${dimension} unit (${Object.values(UNITS)
+        .filter((d) => d.dimension === dimension)
+        .map((d) => d.id)
+        .join(', ')})`,
+    }),
+  });
+}
+export type Quantity = { value: number; unit: string };
+
+const finite = z.number().refine(Number.isFinite, { message: 'must be a finite number' });
+export const position = z.tuple([finite, finite]);
+export type Position = [number, number];
+
+const id = z.string().min(1).max(64);
+const name = z.string().max(200);
+
+export const headReading = z.object({
+  id,
+  name,
+  position,
+  head: quantity('length'),
+});
+export type HeadReading = z.infer<typeof headReading>;
+
+export const flow = z.discriminatedUnion('method', [
+  z.object({
+    method: z.literal('direction'),
+    /** direction groundwater flows towards, degrees clockwise from north */
+    azimuthDeg: finite,
+    gradient: z.number().nonnegative(),
+  }),
+  z.object({
+    method: z.literal('heads'),
+    readings: z.array(headReading).max(200),
+  }),
+]);
+export type Flow = z.infer<typeof flow>;
+
+export const receptorKind = z.enum(['well', 'spring', 'surface-water', 'property-line', 'other']);
+export type ReceptorKind = z.infer<typeof receptorKind>;
+
+export const receptor = z.object({
+  id,
+  name,
+  kind: receptorKind,
+  position,
+  /** depth below the water table of the top and bottom of the screen (or the point, when equal) */
+  screenTop: quantity('length'),
+  screenBottom: quantity('length'),
+  pumping: z.boolean().default(false),
+  /** pumping rate; only used once pumping wells are represented */
+  pumpingRate: quantity('velocity').nullable().default(null),
+});
+export type Receptor = z.infer<typeof receptor>;
+
+export const dispersivity = z.discriminatedUnion('mode', [
+  z.object({
+    mode: z.literal('estimate'),
+    /** scale relation for αL from the distance to the farthest receptor */
+    relation: z.enum(['xu-eckstein-1995', 'tenth-of-distance']),
+    /** αT/αL and αV/αL */
+    transverseRatio: z.number().positive().max(1),
+    verticalRatio: z.number().positive().max(1),
+  }),
+  z.object({
+    mode: z.literal('given'),
+    longitudinal: quantity('length'),
+    transverse: quantity('length'),
+    vertical: quantity('length'),
+  }),
+]);
+export type Dispersivity = z.infer<typeof dispersivity>;
+
+export const caseSchemaV2 = z.object({
+  format: z.literal(CASE_FORMAT),
+  version: z.literal(CASE_VERSION),
+  id,
+  name: z.string().min(1).max(200),
+  created: z.string().max(40),
+  modified: z.string().max(40),
+  /** id of the case this one was duplicated from as a what-if variant */
+  parentId: id.nullable().default(null),
+  notes: z.string().max(20000).default(''),
+  site: z.object({
+    frame: z.enum(['geographic', 'local']),
+    /** geographic: the map's reference point [lon, lat]; local: always [0, 0] */
+    datum: position,
+    source: z.object({
+      /** the release point (centre of the source plane) */
+      position,
+      /** traced footprint; when null the release is a point with `width` across the flow */
+      footprint: z.array(position).max(500).nullable(),
+      width: quantity('length'),
+    }),
+    flow,
+    receptors: z.array(receptor).max(200),
+  }),
+  aquifer: z.object({
+    hydraulicConductivity: quantity('conductivity'),
+    effectivePorosity: z.number(),
+    totalPorosity: z.number(),
+    /** null: estimated from total porosity as 2.65 (1 − n) g/cm³ (quartz grains; common practice) */
+    bulkDensity: quantity('density').nullable(),
+    fractionOrganicCarbon: z.number(),
+    dispersivity,
+    diffusion: z.object({
+      include: z.boolean(),
+      freeWater: quantity('diffusion'),
+      tortuosity: z.number(),
+    }),
+  }),
+  contaminant: z.object({
+    name: z.string().max(200),
+    /** id of the preset it came from, if any (presets carry the published sources) */
+    presetId: z.string().max(64).nullable(),
+    /** sorption: Koc (then Kd = Koc·foc) or Kd given directly */
+    sorption: z.discriminatedUnion('mode', [
+      z.object({ mode: z.literal('koc'), koc: quantity('partition') }),
+      z.object({ mode: z.literal('kd'), kd: quantity('partition') }),
+    ]),
+    /** null: no degradation */
+    halfLife: quantity('time').nullable(),
+    decayPhase: z.enum(['dissolved-and-sorbed', 'dissolved-only']),
+    limit: quantity('concentration'),
+    limitNote: z.string().max(500).default(''),
+  }),
+  source: z.object({
+    concentration: quantity('concentration'),
+    thickness: quantity('length'),
+    /** null: continuous release; otherwise the release stops after this long */
+    duration: quantity('time').nullable(),
+    /** null: constant source; otherwise the source concentration halves in this time */
+    sourceHalfLife: quantity('time').nullable(),
+  }),
+  evaluation: z.object({
+    solution: z.enum(['domenico', 'exact']),
+    horizon: quantity('time'),
+    /** the time shown on the map (≤ horizon); null: steady state */
+    viewTime: quantity('time').nullable(),
+    depth: quantity('length'),
+  }),
+});
+
+export type Case = z.infer<typeof caseSchemaV2>;
+export const caseSchema = caseSchemaV2;
