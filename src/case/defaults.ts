@@ -1,0 +1,74 @@
+/**
+ * A new, valid case to start from. The numbers are neutral starting values for a sandy aquifer
+ * and a fuel aromatic, each within the published ranges of shared field values (Bouwer 1978 for K,
+ * US EPA 1996 Soil Screening Guidance for benzene's Koc, US EPA MCL for benzene's limit). The user
+ * is expected to replace them with site values; the limit note says the local limit governs.
+ */
+import { CASE_FORMAT, CASE_VERSION, type Case, type Position } from './schema';
+
+export function newId(): string {
+  const c = (globalThis as { crypto?: { randomUUID?: () => string } }).crypto;
+  if (c?.randomUUID) return c.randomUUID();
+  return 'id-' + Date.now().toString(36) + '-' + Math.floor(Math.random() * 1e9).toString(36);
+}
+
+export interface NewCaseOptions {
+  name?: string;
+  frame?: 'geographic' | 'local';
+  /** geographic: [lon, lat] of the release; local: ignored (the release is at the datum) */
+  at?: Position;
+  now?: Date;
+}
+
+export function newCase(opts: NewCaseOptions = {}): Case {
+  const frame = opts.frame ?? 'local';
+  const at: Position = frame === 'geographic' ? (opts.at ?? [0, 0]) : [0, 0];
+  const stamp = (opts.now ?? new Date()).toISOString();
+  return {
+    format: CASE_FORMAT,
+    version: CASE_VERSION,
+    id: newId(),
+    name: opts.name ?? 'New screening',
+    created: stamp,
+    modified: stamp,
+    parentId: null,
+    notes: '',
+    site: {
+      frame,
+      datum: at,
+      source: { position: at, footprint: null, width: { value: 10, unit: 'm' } },
+      flow: { method: 'direction', azimuthDeg: 90, gradient: 0.005 },
+      receptors: [],
+    },
+    aquifer: {
+      hydraulicConductivity: { value: 10, unit: 'K:m/d' },
+      effectivePorosity: 0.25,
+      totalPorosity: 0.3,
+      bulkDensity: null,
+      fractionOrganicCarbon: 0.001,
+      dispersivity: { mode: 'estimate', relation: 'xu-eckstein-1995', transverseRatio: 0.1, verticalRatio: 0.01 },
+      diffusion: { include: false, freeWater: { value: 1e-9, unit: 'm2/s' }, tortuosity: 0.5 },
+    },
+    contaminant: {
+      name: 'benzene',
+      presetId: null,
+      sorption: { mode: 'koc', koc: { value: 61.7, unit: 'L/kg' } },
+      halfLife: null,
+      decayPhase: 'dissolved-and-sorbed',
+      limit: { value: 0.005, unit: 'mg/L' },
+      limitNote: 'Example only (US EPA MCL for benzene). The limit that applies at your site governs.',
+    },
+    source: {
+      concentration: { value: 10, unit: 'mg/L' },
+      thickness: { value: 3, unit: 'm' },
+      duration: null,
+      sourceHalfLife: null,
+    },
+    evaluation: {
+      solution: 'domenico',
+      horizon: { value: 30, unit: 'yr' },
+      viewTime: { value: 10, unit: 'yr' },
+      depth: { value: 0, unit: 'm' },
+    },
+  };
+}
