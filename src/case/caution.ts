@@ -1,0 +1,76 @@
+/**
+ * The screening caution and the list of assumptions behind every result. One text for the
+ * command line, the app and the printed report, so the three never drift apart. Shown wherever
+ * results appear.
+ */
+
+export const SCREENING_CAUTION =
+  'Screening-level estimates only. These figures assume a homogeneous aquifer, uniform steady ' +
+  'groundwater flow and contaminant in the dissolved phase only; no pumping is represented, ' +
+  'so a pumping well may draw the plume towards it faster than shown. They are not a site ' +
+  'investigation and must not be the sole basis for a decision about a drinking-water supply. ' +
+  'Local regulators and licensed hydrogeologists decide, and the limits that apply at your ' +
+  'site under local law govern over any example limit shown here.';
+
+export interface Assumption {
+  /** stable identifier, for reports and tests */
+  readonly id: string;
+  /** one line in plain words */
+  readonly text: string;
+}
+
+export const ASSUMPTIONS: readonly Assumption[] = Object.freeze([
+  {
+    id: 'aquifer',
+    text: 'The aquifer is homogeneous and isotropic in its transport properties and of unlimited extent; layering, fractures and preferential paths are not represented.',
+  },
+  {
+    id: 'flow',
+    text: 'Groundwater flow is uniform and steady: one seepage velocity v = K·i/nₑ in one direction for the whole time span; seasonal swings and flow towards pumping wells or streams are not represented.',
+  },
+  {
+    id: 'dissolved',
+    text: 'Only the dissolved phase is transported; free product (LNAPL/DNAPL), vapour and colloid transport are outside the model, and the source concentration stands in for them.',
+  },
+  {
+    id: 'source',
+    text: 'The source is a vertical rectangular plane across the flow at x = 0, its top at the water table, held at the source concentration (constant, declining first-order with the source half-life, or stopping after the release duration as the case says).',
+  },
+  {
+    id: 'sorption',
+    text: 'Sorption is linear, reversible and at equilibrium: R = 1 + ρb·Kd/n with Kd = Koc·foc unless Kd is given; retardation divides the seepage velocity and the dispersion coefficients.',
+  },
+  {
+    id: 'decay',
+    text: 'Biodegradation is first-order with one half-life (λ = ln 2 / t½); it acts on dissolved and sorbed mass alike unless the case says dissolved phase only, in which case the effective rate is λ/R. Daughter products are not generated.',
+  },
+  {
+    id: 'dispersion',
+    text: 'Dispersion is Fickian: Dᵢ = αᵢ·v (+ De). Dispersivity estimated from the travel distance is a scale relation with scatter of orders of magnitude in field data (Gelhar, Welty & Rehfeldt 1992); site values are better.',
+  },
+  {
+    id: 'diffusion',
+    text: 'Molecular diffusion, when included, is De = D0·τ; it is added exactly to the dispersion coefficients in Ogata–Banks and in the exact rectangular-source solution, and enters the Domenico approximation as an effective dispersivity αᵢ + De/v (an approximation).',
+  },
+  {
+    id: 'domenico',
+    text: 'Domenico (1987) is an approximation: along the flow it keeps only the leading term of the Ogata–Banks solution, and it evaluates transverse spreading at the travel distance x instead of the travel time; it departs from the exact solution most where longitudinal dispersivity is large, near the source and ahead of the front, so the exact rectangular-source solution is always available beside it.',
+  },
+  {
+    id: 'exact',
+    text: 'The exact rectangular-source solution integrates the point-source response over time by numerical quadrature; it is exact for the model above to the stated quadrature tolerance, not for the real aquifer.',
+  },
+  {
+    id: 'boundary',
+    text: 'The water table is a no-flux upper boundary (mirror image); the aquifer has no lower boundary, so a thin aquifer is diluted less than shown.',
+  },
+  {
+    id: 'receptor',
+    text: 'A receptor concentration is the average over its screen interval below the water table; a pumping well would mix in water from beyond that interval and its capture is not represented.',
+  },
+]);
+
+/** The caution and the assumptions as plain text lines (CLI and report footers). */
+export function cautionLines(): string[] {
+  return [SCREENING_CAUTION, '', 'Assumptions:', ...ASSUMPTIONS.map((a) => `- ${a.text}`)];
+}
