@@ -4,7 +4,24 @@
  * US EPA 1996 Soil Screening Guidance for benzene's Koc, US EPA MCL for benzene's limit). The user
  * is expected to replace them with site values; the limit note says the local limit governs.
  */
-import { CASE_FORMAT, CASE_VERSION, type Case, type Position } from './schema';
+import { CASE_FORMAT, CASE_VERSION, type Case, type Dispersivity, type Position } from './schema';
+
+/** Dispersivity estimated from the farthest receptor: Xu & Eckstein 1995 for αL, αT = αL/10
+ * (Gelhar et al. 1992 high-reliability data) and αV = αL/100 (αV ≈ αT/10, Gelhar et al. 1992). */
+export const DEFAULT_DISPERSIVITY: Dispersivity = Object.freeze({
+  mode: 'estimate',
+  relation: 'xu-eckstein-1995',
+  transverseRatio: 0.1,
+  verticalRatio: 0.01,
+});
+
+/** Molecular diffusion off by default; 1e-9 m²/s is a typical free-water value for small organic
+ * molecules (common practice), tortuosity factor 0.5 (common practice). */
+export const DEFAULT_DIFFUSION: Case['aquifer']['diffusion'] = Object.freeze({
+  include: false,
+  freeWater: Object.freeze({ value: 1e-9, unit: 'm2/s' }),
+  tortuosity: 0.5,
+});
 
 export function newId(): string {
   const c = (globalThis as { crypto?: { randomUUID?: () => string } }).crypto;
@@ -46,8 +63,8 @@ export function newCase(opts: NewCaseOptions = {}): Case {
       totalPorosity: 0.3,
       bulkDensity: null,
       fractionOrganicCarbon: 0.001,
-      dispersivity: { mode: 'estimate', relation: 'xu-eckstein-1995', transverseRatio: 0.1, verticalRatio: 0.01 },
-      diffusion: { include: false, freeWater: { value: 1e-9, unit: 'm2/s' }, tortuosity: 0.5 },
+      dispersivity: { ...DEFAULT_DISPERSIVITY },
+      diffusion: { ...DEFAULT_DIFFUSION, freeWater: { ...DEFAULT_DIFFUSION.freeWater } },
     },
     contaminant: {
       name: 'benzene',
