@@ -16,6 +16,7 @@
  * A closing vertex equal to the first, and repeated consecutive vertices, are dropped first.
  */
 import { toFlow, fromFlow } from './flowFrame';
+import { openRing, ringArea } from './rings';
 
 export interface SourcePlane {
   /** across-flow midpoint on the downgradient-most extent of the footprint, [e, n] m */
@@ -28,18 +29,14 @@ export interface SourcePlane {
   area: number;
 }
 
-/** Footprint vertices without repeated consecutive points or a closing duplicate. */
+/** Footprint vertices, checked finite, without repeated consecutive points or a closing duplicate. */
 function cleanRing(footprintEN: readonly (readonly [number, number])[]): [number, number][] {
   if (!Array.isArray(footprintEN)) throw new Error('source footprint must be a list of [east, north] vertices');
-  const out: [number, number][] = [];
   footprintEN.forEach((p, k) => {
     if (!Array.isArray(p) || p.length < 2 || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
       throw new Error(`source footprint vertex ${k + 1} must be a pair of finite [east, north] metres`);
-    const last = out[out.length - 1];
-    if (!last || last[0] !== p[0] || last[1] !== p[1]) out.push([p[0], p[1]]);
   });
-  while (out.length > 1 && out[0][0] === out[out.length - 1][0] && out[0][1] === out[out.length - 1][1]) out.pop();
-  return out;
+  return openRing(footprintEN.map((p): [number, number] => [p[0], p[1]]));
 }
 
 /** twice the signed area of triangle abc (> 0: counter-clockwise) */
@@ -64,16 +61,6 @@ export function segmentsIntersect(
     (o1 === 0 && onSegment(a, b, c)) || (o2 === 0 && onSegment(a, b, d)) ||
     (o3 === 0 && onSegment(c, d, a)) || (o4 === 0 && onSegment(c, d, b))
   );
-}
-
-/** shoelace area, signed (> 0: counter-clockwise), about the first vertex to limit cancellation */
-export function signedArea(ring: readonly (readonly [number, number])[]): number {
-  const [x0, y0] = ring[0];
-  let s = 0;
-  for (let k = 1; k + 1 < ring.length; k++) {
-    s += (ring[k][0] - x0) * (ring[k + 1][1] - y0) - (ring[k + 1][0] - x0) * (ring[k][1] - y0);
-  }
-  return s / 2;
 }
 
 /** The index of the first pair of non-adjacent edges that meet, or null for a simple polygon. O(n²). */
@@ -109,7 +96,7 @@ export function footprintSourcePlane(
   const ring = cleanRing(footprintEN);
   if (ring.length < 3)
     throw new Error(`source footprint needs at least 3 distinct vertices, got ${ring.length}`);
-  const area = signedArea(ring);
+  const area = ringArea(ring);
   let minE = Infinity, maxE = -Infinity, minN = Infinity, maxN = -Infinity;
   for (const [e, n] of ring) {
     minE = Math.min(minE, e); maxE = Math.max(maxE, e); minN = Math.min(minN, n); maxN = Math.max(maxN, n);

@@ -1,0 +1,163 @@
+/**
+ * Filled concentration bands on the flow-aligned lattice, and their GeoJSON for the map and export.
+ *
+ * contourBands: marching squares with linear interpolation along cell edges (d3-contour 4). Each
+ * band is the region where C ≥ threshold, as a MultiPolygon in the flow frame (x downgradient,
+ * y to the left, metres). The lattice is the core grid's: values[i·ys.length + j] is C at
+ * (xs[i], ys[j]); xs and ys strictly increasing, possibly non-uniform. d3-contour wants a
+ * row-major width × height array with sample (i, j) at pixel (i + ½, j + ½), so the values are
+ * transposed (width = xs.length) and each pixel coordinate p maps back by linear interpolation on
+ * xs (or ys) at fractional index p − ½. Outside the lattice counts as below every threshold, so a
+ * band reaching the lattice edge is closed along that edge (clamped to xs[0] … xs[n−1]).
+ * Approximation: the band boundary is piecewise linear between lattice lines; for a smooth field
+ * the boundary error is O(h²) in the spacing h (test/geo/contours.test.ts: level sets of a
+ * Gaussian: area error 5e-4 measured, 3e-3 held, at ≥ 23 samples per semi-axis).
+ * Rings come out counter-clockwise (exterior) and clockwise (holes), closed, without repeated
+ * consecutive vertices; slivers collapsed to zero area by the edge clamping are dropped.
+ *
+ * contoursToGeoJSON: maps each vertex with toMap(x, y) → [lon, lat] (or local metres) and writes
+ * an RFC 7946 FeatureCollection, one MultiPolygon Feature per non-empty band (empty bands are left
+ * out), with the winding re-checked after mapping (RFC 7946 §3.1.6: exterior counter-clockwise,
+ * holes clockwise) and properties { threshold, unit: 'mg/L', label, ...props }.
+ * Not handled: rings crossing the antimeridian are not cut (RFC 7946 §3.1.9); sites within a plume
+ * length of ±180° longitude will draw badly.
+ */
+import { contours } from 'd3-contour';
+import type { Feature, FeatureCollection, MultiPolygon, Position as GeoPosition } from 'geojson';
+import type { Position } from '../case/schema';
+import { openRing, ringArea } from './rings';
+
+export { ringArea };
+
+export type Ring = [number, number][];
+/** MultiPolygon coordinates: polygons, each [exterior, ...holes] */
+export type PolygonSet = Ring[][];
+
+export interface ContourBand {
+  /** concentration threshold, mg/L; the band covers C ≥ threshold */
+  threshold: number;
+  /** flow-frame MultiPolygon coordinates, metres */
+  polygons: PolygonSet;
+}
+
+export interface ContourInput {
+  values: ArrayLike<number>;
+  xs: ArrayLike<number>;
+  ys: ArrayLike<number>;
+  thresholds: ArrayLike<number>;
+}
+
+function checkAxis(a: ArrayLike<number>, name: string): void {
+  if (!a || typeof a.length !== 'number' || a.length < 2)
+    throw new RangeError(`${name} must hold at least 2 lattice coordinates`);
+  for (let k = 0; k < a.length; k++) {
+    if (!Number.isFinite(a[k])) throw new RangeError(`${name}[${k}] must be a finite number, got ${a[k]}`);
+    if (k > 0 && !(a[k] > a[k - 1]))
+      throw new RangeError(`${name} must be strictly increasing (${name}[${k}] = ${a[k]} after ${a[k - 1]})`);
+  }
+}
+
+/** linear interpolation on a strictly increasing axis at fractional index f, clamped to the ends */
+function axisAt(axis: ArrayLike<number>, f: number): number {
+  const last = axis.length - 1;
+  if (f <= 0) return axis[0];
+  if (f >= last) return axis[last];
+  const k = Math.floor(f);
+  const t = f - k;
+  return t === 0 ? axis[k] : axis[k] + t * (axis[k + 1] - axis[k]);
+}
+
+/** closed ring with the requested winding (ccw: counter-clockwise), or null for a zero-area ring */
+function orientRing<P extends readonly number[]>(ring: readonly P[], ccw: boolean): P[] | null {
+  const open = openRing(ring);
+  if (open.length < 3) return null;
+  const a = ringArea(open);
+  if (!(a !== 0) || !Number.isFinite(a)) return null;
+  if (a > 0 !== ccw) open.reverse();
+  open.push(open[0]);
+  return open;
+}
+
+/** Filled bands C ≥ threshold for each threshold, in the order given (see the module header). */
+export function contourBands({ values, xs, ys, thresholds }: ContourInput): ContourBand[] {
+  checkAxis(xs, 'xs');
+  checkAxis(ys, 'ys');
+  const nx = xs.length, ny = ys.length;
+  if (!values || values.length !== nx * ny)
+    throw new RangeError(`values must hold xs.length × ys.length = ${nx * ny} concentrations, got ${values?.length}`);
+  if (!thresholds || typeof thresholds.length !== 'number')
+    throw new RangeError('thresholds must be a list of concentrations');
+  for (let k = 0; k < thresholds.length; k++)
+    if (!Number.isFinite(thresholds[k])) throw new RangeError(`thresholds[${k}] must be a finite number, got ${thresholds[k]}`);
+  // transpose: core index i*ny + j (x-major) → d3 row-major index j*nx + i
+  const grid = new Float64Array(nx * ny);
+  for (let i = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      const v = values[i * ny + j];
+      if (!Number.isFinite(v))
+        throw new RangeError(`values[${i * ny + j}] (x = ${xs[i]}, y = ${ys[j]}) must be a finite concentration, got ${v}`);
+      grid[j * nx + i] = v;
+    }
+  }
+  const gen = contours().size([nx, ny]);
+  const bands: ContourBand[] = [];
+  for (let k = 0; k < thresholds.length; k++) {
+    const threshold = thresholds[k];
+    const mp = gen.contour(grid as unknown as number[], threshold);
+    const polygons: PolygonSet = [];
+    for (const poly of mp.coordinates) {
+      const rings: Ring[] = [];
+      for (let r = 0; r < poly.length; r++) {
+        const mapped = poly[r].map((p): [number, number] => [axisAt(xs, p[0] - 0.5), axisAt(ys, p[1] - 0.5)]);
+        const oriented = orientRing(mapped, r === 0);
+        if (oriented) rings.push(oriented);
+        else if (r === 0) break; // exterior collapsed: drop the polygon with its holes
+      }
+      if (rings.length > 0) polygons.push(rings);
+    }
+    bands.push({ threshold, polygons });
+  }
+  return bands;
+}
+
+/** default label: "≥ 0.005 mg/L" (four significant digits at most) */
+export function bandLabel(threshold: number): string {
+  return `≥ ${Number(threshold.toPrecision(4))} mg/L`;
+}
+
+export type BandProperties = Record<string, unknown>;
+
+/** RFC 7946 FeatureCollection of the bands (see the module header). */
+export function contoursToGeoJSON(
+  bands: readonly ContourBand[],
+  toMap: (x: number, y: number) => Position,
+  props?: BandProperties | ((band: ContourBand, index: number) => BandProperties),
+): FeatureCollection<MultiPolygon> {
+  const features: Feature<MultiPolygon>[] = [];
+  bands.forEach((band, index) => {
+    const coordinates: GeoPosition[][][] = [];
+    for (const poly of band.polygons) {
+      const rings: GeoPosition[][] = [];
+      for (let r = 0; r < poly.length; r++) {
+        const mapped = poly[r].map(([x, y]) => {
+          const p = toMap(x, y);
+          if (!Array.isArray(p) || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
+            throw new RangeError(`toMap(${x}, ${y}) must return a pair of finite numbers, got ${JSON.stringify(p)}`);
+          return [p[0], p[1]];
+        });
+        const oriented = orientRing(mapped, r === 0);
+        if (oriented) rings.push(oriented);
+        else if (r === 0) break;
+      }
+      if (rings.length > 0) coordinates.push(rings);
+    }
+    if (coordinates.length === 0) return;
+    const extra = typeof props === 'function' ? props(band, index) : props ?? {};
+    features.push({
+      type: 'Feature',
+      geometry: { type: 'MultiPolygon', coordinates },
+      properties: { threshold: band.threshold, unit: 'mg/L', label: bandLabel(band.threshold), ...extra },
+    });
+  });
+  return { type: 'FeatureCollection', features };
+}
