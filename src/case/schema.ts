@@ -2,7 +2,9 @@
  * The case file: one release at one site, with its receptors and parameters. Versioned JSON,
  * validated with zod. `CASE_VERSION` is the current version; older versions migrate forward in
  * `migrate.ts`. Quantities carry their unit ({ value, unit }) so the unit a user chose per field
- * survives saving; the engine converts to SI at the edge (see `toEngine.ts`).
+ * survives saving; the engine converts to SI at the edge (see `prepare.ts`). Physical ranges
+ * (porosity in (0, 1), K > 0, …) are checked there, not here, so a case being edited can always
+ * be stored and reopened; the schema checks shape, types, units and sizes.
  *
  * Positions are [x, y] pairs: in a geographic case [longitude, latitude] in degrees (WGS 84,
  * the GeoJSON order of RFC 7946); in a local case [east, north] in metres from the site datum.
