@@ -1,0 +1,50 @@
+/**
+ * The engine's public surface. The first block is the fixed contract for external checks; the
+ * rest is the richer API the case layer, CLI, workers and UI use. Units: any consistent set for
+ * the contract; metres, days and mg/L for the richer API.
+ */
+export {
+  ogataBanks,
+  domenico,
+  patchSourceExact,
+  domenicoGrid,
+  patchSourceExactGrid,
+} from './contract';
+export { seepageVelocity, retardationFactor } from './hydro';
+export { threePointGradient } from './headPlane';
+
+export {
+  darcyFlux,
+  kdFromKoc,
+  decayRateFromHalfLife,
+  effectiveDiffusion,
+  bulkDensityFromPorosity,
+  longitudinalDispersivity,
+  transverseDispersivities,
+  type DispersivityRelation,
+  type DispersivityEstimate,
+} from './hydro';
+export { fitHeadPlane, type HeadPoint, type HeadPlaneFit } from './headPlane';
+export { ValidationError, type Warning } from './validation';
+export { validateModel } from './validateModel';
+export {
+  concentration,
+  screenAverage,
+  breakthroughCurve,
+  firstTimeAtLimit,
+  peakConcentration,
+  plumeLength,
+  concentrationGrid,
+  evaluateReceptor,
+  modelWarnings,
+  sampleTimes,
+  relativeDifference,
+  type Receptor,
+  type ReceptorResult,
+  type ReceptorStatus,
+  type SolutionFigures,
+} from './results';
+export type { ScreeningModel, SolutionKind, DecayPhase, Point3 } from './model';
+export type { ExactOptions } from './solutions/patchSource';
+export { erf, erfc, erfcx } from './special/erf';
+export * from './units';

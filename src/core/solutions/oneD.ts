@@ -1,0 +1,143 @@
+/**
+ * One-dimensional advection–dispersion with first-order decay from a constant-concentration
+ * boundary at x = 0 switched on at t = 0, semi-infinite column (Ogata & Banks 1961, USGS Prof.
+ * Paper 411-A; with decay: van Genuchten & Alves 1982, USDA Tech. Bull. 1661, solution A1/B…):
+ *
+ *   F(x, t) = ½ [ e^{x(v−u)/2D} erfc((x − ut)/(2√(Dt))) + e^{x(v+u)/2D} erfc((x + ut)/(2√(Dt))) ],
+ *   u = √(v² + 4λD)
+ *
+ * F is also the cumulative distribution (with the decay weight e^{−λτ}) of the first-passage time
+ * of a particle to x, whose density is f(τ) = x/(2√(πDτ³))·exp(−(x − vτ)²/(4Dτ) − λτ). The exact
+ * three-dimensional solution integrates against that measure (see patchSource.ts).
+ *
+ * Stability: with a = (x − ut)/(2√(Dt)), b = (x + ut)/(2√(Dt)) and w = u − v = 4λD/(u + v),
+ * both terms share the factor e^{−a² − xw/2D}:  F = ½ e^{−xw/2D − a²} [erfcx(a) + erfcx(b)] for a ≥ 0,
+ * and F = ½ e^{−xw/2D} erfc(a) + ½ e^{−xw/2D − a²} erfcx(b) for a < 0. No exp(large)·erfc(large)
+ * product is ever formed, so the result is accurate at any Peclet number. Everything is also
+ * available in log space (lnCdf) for the exact solution's change of variables.
+ *
+ * Inputs here are already retarded (v/R, D/R) and λ is the effective rate; no validation
+ * (callers validate). λ may be negative (a declining source folded into the decay) provided
+ * v² + 4λD > 0; then w < 0.
+ */
+import { erfc, erfcx } from '../special/erf';
+
+const LN_HALF = -Math.LN2;
+
+export interface OneDParams {
+  readonly v: number;
+  readonly D: number;
+  readonly lam: number;
+}
+
+/** u − v computed without cancellation. Requires v² + 4λD ≥ 0. */
+export function uMinusV(v: number, D: number, lam: number): number {
+  if (lam === 0 || D === 0) return 0;
+  const u = Math.sqrt(v * v + 4 * lam * D);
+  return (4 * lam * D) / (u + v);
+}
+
+/**
+ * ln F(x, t) for x > 0, t > 0 (t may be Infinity), D > 0. Returns −Infinity where F = 0.
+ * `firstTermOnly` gives the Domenico x-term (the first term alone).
+ */
+export function lnCdf(x: number, t: number, v: number, D: number, lam: number, firstTermOnly = false): number {
+  const w = uMinusV(v, D, lam);
+  const u = v + w;
+  const decayLog = (-x * w) / (2 * D);
+  if (t === Infinity) {
+    // erfc(−∞) = 2 (when u > 0); second term → 0. With u = 0 (v = 0, λ = 0): ½·(1 + 1) = 1.
+    if (u > 0) return firstTermOnly ? decayLog : decayLog;
+    return 0;
+  }
+  const s = 2 * Math.sqrt(D * t);
+  const a = (x - u * t) / s;
+  const b = (x + u * t) / s;
+  if (a >= 0) {
+    const sum = firstTermOnly ? erfcx(a) : erfcx(a) + erfcx(b);
+    return LN_HALF + decayLog - a * a + Math.log(sum);
+  }
+  const first = erfc(a);
+  const second = firstTermOnly ? 0 : Math.exp(-a * a) * erfcx(b);
+  return LN_HALF + decayLog + Math.log(first + second);
+}
+
+/** F(x, t) itself (0 ≤ F; F ≤ 1 when λ ≥ 0), with the edge cases D = 0, x = 0, t = 0. */
+export function cdf(x: number, t: number, v: number, D: number, lam: number, firstTermOnly = false): number {
+  if (!(t > 0)) return x <= 0 ? 1 : 0;
+  if (x <= 0) return 1;
+  if (D === 0) return pistonCdf(x, t, v, lam);
+  return Math.exp(lnCdf(x, t, v, D, lam, firstTermOnly));
+}
+
+/** D = 0: a sharp front at x = v t carrying e^{−λx/v}; half height at the front itself. */
+export function pistonCdf(x: number, t: number, v: number, lam: number): number {
+  if (!(v > 0)) return 0;
+  const arrival = x / v;
+  const level = Math.exp((-lam * x) / v);
+  if (t > arrival) return level;
+  if (t === arrival) return 0.5 * level;
+  return 0;
+}
+
+/**
+ * ln(τ·f(τ)) − ln F(τ): the derivative of ln F with respect to ln τ, used by Newton's method in
+ * the inversion. Stable for all τ > 0 (D > 0, x > 0).
+ */
+export function dLnCdfDLnT(x: number, t: number, v: number, D: number, lam: number): number {
+  const w = uMinusV(v, D, lam);
+  const u = v + w;
+  const s = 2 * Math.sqrt(D * t);
+  const a = (x - u * t) / s;
+  const b = (x + u * t) / s;
+  // τ f(τ) = x/(2√(πDτ)) · e^{−a² − xw/2D}
+  const lead = x / (2 * Math.sqrt(Math.PI * D * t));
+  if (a >= 0) {
+    return (2 * lead) / (erfcx(a) + erfcx(b));
+  }
+  return (2 * lead * Math.exp(-a * a)) / (erfc(a) + Math.exp(-a * a) * erfcx(b));
+}
+
+/**
+ * Solve ln F(τ) = target for τ in (0, tMax] (tMax may be Infinity), target < ln F(tMax).
+ * Newton's method in s = ln τ, safeguarded by bisection; ln F is increasing in s.
+ * Converges to |Δs| < 1e-13 or 100 iterations. `guess` is a starting τ (e.g. the previous node).
+ */
+export function invertLnCdf(
+  target: number,
+  x: number,
+  v: number,
+  D: number,
+  lam: number,
+  tMax: number,
+  guess?: number,
+): number {
+  // Bracket [lo, hi] in s = ln τ.
+  let hi: number;
+  if (tMax === Infinity) {
+    const scale = v > 0 ? x / v : (x * x) / (2 * D);
+    hi = Math.log(Math.max(scale, 1e-300)) + 1;
+    let k = 0;
+    while (lnCdf(x, Math.exp(hi), v, D, lam) < target && k++ < 200) hi += 1 + k;
+  } else {
+    hi = Math.log(tMax);
+  }
+  let lo = hi - 1;
+  let k = 0;
+  while (lnCdf(x, Math.exp(lo), v, D, lam) > target && k++ < 400) lo -= 1 + k;
+  let s = guess !== undefined && guess > 0 ? Math.log(guess) : 0.5 * (lo + hi);
+  if (!(s > lo && s < hi)) s = 0.5 * (lo + hi);
+  for (let it = 0; it < 100; it++) {
+    const tau = Math.exp(s);
+    const h = lnCdf(x, tau, v, D, lam) - target;
+    if (h === 0) return tau;
+    if (h > 0) hi = s;
+    else lo = s;
+    const d = dLnCdfDLnT(x, tau, v, D, lam);
+    let next = s - h / d;
+    if (!(next > lo && next < hi) || !Number.isFinite(next)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - s) < 1e-13 * Math.max(1, Math.abs(s)) || hi - lo < 1e-13) return Math.exp(next);
+    s = next;
+  }
+  return Math.exp(s);
+}

@@ -1,0 +1,169 @@
+/**
+ * From a ScreeningModel to concentrations: retardation, decay phase, declining source and
+ * finite release duration applied around the two 3-D solutions.
+ *
+ * - Retardation divides v and every D; decay on dissolved and sorbed mass keeps λ, dissolved-only
+ *   decay uses λ/R.
+ * - A source declining as C0·e^{−γt} is exact by Duhamel's principle: C = e^{−γt}·S(λ − γ), where
+ *   S is the constant-source solution with the decay rate reduced by γ. That needs
+ *   v² + 4(λ − γ)Dx > 0 (retarded quantities), checked in validation.
+ * - A release of finite duration T is the superposition C(t) = e^{−γt}[S(t) − S(t − T)].
+ * - Steady state (t = Infinity) exists for a continuous constant source only; otherwise it is 0.
+ */
+import type { DepthSpan } from './solutions/spread';
+import { depthFactor, spreadFactor } from './solutions/spread';
+import { domenicoGridInto, domenicoPoint, isSymmetric, type DomenicoParams } from './solutions/domenico';
+import { exactColumn, type ExactOptions, type PatchParams } from './solutions/patchSource';
+import type { ScreeningModel, SolutionKind } from './model';
+
+export interface Kinetics {
+  readonly patch: PatchParams;
+  readonly dom: DomenicoParams;
+  /** source decline rate γ */
+  readonly gamma: number;
+  /** release duration */
+  readonly duration: number;
+  readonly continuousConstant: boolean;
+}
+
+export function kinetics(m: ScreeningModel): Kinetics {
+  const R = m.R;
+  const v = m.v / R;
+  const De = m.diffusion;
+  const Dx = (m.ax * m.v + De) / R;
+  const Dy = (m.ay * m.v + De) / R;
+  const Dz = (m.az * m.v + De) / R;
+  const lamBase = m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay;
+  const lam = lamBase - m.sourceDecay;
+  const patch: PatchParams = { v, Dx, Dy, Dz, lam, width: m.width, thickness: m.thickness };
+  const dom: DomenicoParams = {
+    v,
+    Dx,
+    ay: m.v > 0 ? m.ay + De / m.v : m.ay,
+    az: m.v > 0 ? m.az + De / m.v : m.az,
+    lam,
+    width: m.width,
+    thickness: m.thickness,
+  };
+  return {
+    patch,
+    dom,
+    gamma: m.sourceDecay,
+    duration: m.duration,
+    continuousConstant: m.sourceDecay === 0 && m.duration === Infinity,
+  };
+}
+
+/** C/C0 of the constant-concentration solution started at time 0, times e^{logScale}, on a grid. */
+function unitGrid(
+  kind: SolutionKind,
+  k: Kinetics,
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  depth: DepthSpan,
+  t: number,
+  logScale: number,
+  out: Float64Array,
+  opts?: ExactOptions,
+): number {
+  const ny = ys.length;
+  if (!(t > 0)) {
+    out.fill(0);
+    return 0;
+  }
+  if (kind === 'domenico') {
+    domenicoGridInto(xs, ys, depth, t, k.dom, logScale, out);
+    return 0;
+  }
+  const p = k.patch;
+  const sym = ny > 1 && isSymmetric(ys);
+  const half = sym ? Math.floor(ny / 2) : 0;
+  const ysEval = sym ? Array.prototype.slice.call(ys, half) : ys;
+  let worst = 0;
+  for (let i = 0; i < xs.length; i++) {
+    const x = xs[i];
+    const row = i * ny;
+    if (x <= 0 || p.Dx === 0) {
+      // Boundary (x = 0), upgradient (x < 0: no transport represented) or no longitudinal spreading.
+      for (let j = 0; j < ny; j++) out[row + j] = limitCase(x, ys[j], depth, t, p, logScale);
+      continue;
+    }
+    const r = exactColumn(x, ysEval, depth, t, p, logScale, out, row + half, 1, opts);
+    if (r.errorEstimate > worst) worst = r.errorEstimate;
+    if (sym) for (let j = 0; j < half; j++) out[row + j] = out[row + ny - 1 - j];
+  }
+  return worst;
+}
+
+/** Exact solution where the quadrature does not apply: x ≤ 0 or Dx = 0 (a sharp front). */
+function limitCase(x: number, y: number, depth: DepthSpan, t: number, p: PatchParams, logScale: number): number {
+  if (x < 0) return 0;
+  if (x === 0) return Math.exp(logScale) * spreadFactor(y, 0.5 * p.width, 0) * depthFactor(depth, p.thickness, 0);
+  if (!(p.v > 0)) return 0;
+  const arrival = x / p.v;
+  if (t < arrival) return 0;
+  const w = t === arrival ? 0.5 : 1;
+  const tau = arrival;
+  return (
+    w *
+    Math.exp(logScale - p.lam * arrival) *
+    spreadFactor(y, 0.5 * p.width, 2 * Math.sqrt(p.Dy * tau)) *
+    depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau))
+  );
+}
+
+/**
+ * C/C0 for the model on a grid at time t (Infinity: steady state), index i·ys.length + j.
+ * Returns the exact solution's largest quadrature error estimate (0 for Domenico).
+ */
+export function relativeGrid(
+  m: ScreeningModel,
+  kind: SolutionKind,
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  depth: DepthSpan,
+  t: number,
+  out: Float64Array,
+  opts?: ExactOptions,
+): number {
+  const k = kinetics(m);
+  if (t === Infinity) {
+    if (!k.continuousConstant) {
+      out.fill(0);
+      return 0;
+    }
+    return unitGrid(kind, k, xs, ys, depth, Infinity, 0, out, opts);
+  }
+  const logScale = -k.gamma * t;
+  let err = unitGrid(kind, k, xs, ys, depth, t, logScale, out, opts);
+  if (k.duration < t) {
+    const later = new Float64Array(out.length);
+    err += unitGrid(kind, k, xs, ys, depth, t - k.duration, logScale, later, opts);
+    for (let i = 0; i < out.length; i++) out[i] = Math.max(0, out[i] - later[i]);
+  }
+  return err;
+}
+
+const one = new Float64Array(1);
+
+/** C/C0 for the model at one point or screen. */
+export function relativeAt(
+  m: ScreeningModel,
+  kind: SolutionKind,
+  x: number,
+  y: number,
+  depth: DepthSpan,
+  t: number,
+  opts?: ExactOptions,
+): number {
+  if (kind === 'domenico') {
+    const k = kinetics(m);
+    if (t === Infinity) return k.continuousConstant ? domenicoPoint(x, y, depth, Infinity, k.dom, 0) : 0;
+    const logScale = -k.gamma * t;
+    let c = x < 0 ? 0 : domenicoPoint(x, y, depth, t, k.dom, logScale);
+    if (k.duration < t && c > 0) c = Math.max(0, c - domenicoPoint(x, y, depth, t - k.duration, k.dom, logScale));
+    return c;
+  }
+  relativeGrid(m, kind, [x], [y], depth, t, one, opts);
+  return one[0];
+}

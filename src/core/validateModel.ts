@@ -1,0 +1,56 @@
+/**
+ * Validation of a ScreeningModel: impossible values throw ValidationError (field, value, range);
+ * the returned warnings are the engine-level doubts (field-range doubts are the case layer's).
+ */
+import type { ScreeningModel } from './model';
+import {
+  ValidationError,
+  requireNonNegative,
+  requirePositive,
+  requireRetardation,
+  type Warning,
+} from './validation';
+
+export function validateModel(m: ScreeningModel): Warning[] {
+  if (m === null || typeof m !== 'object') throw new ValidationError('model', m, 'an object');
+  requireNonNegative('v', m.v);
+  requireNonNegative('ax', m.ax);
+  requireNonNegative('ay', m.ay);
+  requireNonNegative('az', m.az);
+  requireNonNegative('diffusion', m.diffusion);
+  requireRetardation('R', m.R);
+  requireNonNegative('decay', m.decay);
+  requirePositive('width', m.width);
+  requirePositive('thickness', m.thickness);
+  requireNonNegative('c0', m.c0);
+  requireNonNegative('sourceDecay', m.sourceDecay);
+  if (!(m.duration > 0)) throw new ValidationError('duration', m.duration, 'a number > 0 (Infinity for a continuous release)');
+  if (m.decayPhase !== 'dissolved-and-sorbed' && m.decayPhase !== 'dissolved-only')
+    throw new ValidationError('decayPhase', m.decayPhase, "'dissolved-and-sorbed' or 'dissolved-only'");
+  if (m.solution !== 'domenico' && m.solution !== 'exact')
+    throw new ValidationError('solution', m.solution, "'domenico' or 'exact'");
+  const warnings: Warning[] = [];
+  const R = m.R;
+  const v = m.v / R;
+  const Dx = (m.ax * m.v + m.diffusion) / R;
+  if (m.solution === 'domenico' && !(m.v > 0))
+    throw new ValidationError('v', m.v, 'a number > 0 for the Domenico solution (use the exact solution for no flow)');
+  const lam = (m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay) - m.sourceDecay;
+  if (lam < 0 && !(v * v + 4 * lam * Dx > 0)) {
+    const lamBase = lam + m.sourceDecay;
+    const limit = lamBase + (v * v) / (4 * Dx);
+    throw new ValidationError(
+      'sourceDecay',
+      m.sourceDecay,
+      `below ${limit.toPrecision(4)} 1/d`,
+      `the source declines faster than the solutions can represent with this velocity and dispersion; it must be below ${limit.toPrecision(4)} 1/d (λ + v²/(4·Dx), retarded)`,
+    );
+  }
+  if (!(m.v > 0) && !(Dx > 0))
+    warnings.push({
+      code: 'no-transport',
+      message: 'With no flow and no dispersion or diffusion nothing moves away from the source.',
+      field: 'v',
+    });
+  return warnings;
+}
