@@ -1,14 +1,18 @@
 /**
- * Reading a stored case: whatever version the record holds is brought to the current case
- * version and validated. A record that fails is reported, never dropped.
+ * Reading a stored case: whatever case-file version the record holds is migrated to the current
+ * version and validated by the case engineer's `migrateCase`. A record that fails is reported,
+ * never dropped.
  */
-import { caseSchema, type Case } from '../case/schema';
+import type { Case } from '../case/schema';
+import { CaseFormatError, migrateCase } from '../case/migrate';
 
 export type ReadResult = { ok: true; case: Case } | { ok: false; error: string };
 
 export function readCaseData(data: unknown): ReadResult {
-  const parsed = caseSchema.safeParse(data);
-  if (parsed.success) return { ok: true, case: parsed.data };
-  const first = parsed.error.issues.slice(0, 3).map((i) => `${i.path.join('.') || '(case)'}: ${i.message}`);
-  return { ok: false, error: `stored case does not validate — ${first.join('; ')}` };
+  try {
+    return { ok: true, case: migrateCase(data) };
+  } catch (e) {
+    const detail = e instanceof CaseFormatError ? e.errors.slice(0, 3).join('; ') : e instanceof Error ? e.message : String(e);
+    return { ok: false, error: `the stored case cannot be opened — ${detail}` };
+  }
 }

@@ -1,0 +1,118 @@
+/**
+ * CSV files of a screening (RFC 4180): the receptor table and the breakthrough curves. Records end
+ * in CRLF; a field holding a comma, a double quote, CR or LF is quoted and its quotes doubled;
+ * every record has the same number of fields. Numbers are written in JavaScript's shortest
+ * round-trip form (no rounding), in internal units named in each header (m, d, mg/L).
+ *
+ * A text cell that starts with = + - @ or a tab/CR is prefixed with an apostrophe, so that a
+ * spreadsheet does not run it as a formula (OWASP "CSV injection" guidance). Numeric cells are
+ * never altered. The screening caution closes each file as a final two-field record padded to
+ * the column count, so it travels with the numbers.
+ */
+import type { Case } from './schema';
+import { otherSolution, type ExportResults } from './export-results';
+
+export type Cell = string | number | null;
+
+const YEAR_D = 365.25;
+
+function textCell(s: string): string {
+  return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
+}
+
+export function csvField(v: Cell): string {
+  let s: string;
+  if (v === null) s = '';
+  else if (typeof v === 'number') s = Number.isFinite(v) ? String(v) : '';
+  else s = textCell(v);
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+export function csvRecords(rows: readonly (readonly Cell[])[]): string {
+  return rows.map((r) => r.map(csvField).join(',')).join('\r\n') + '\r\n';
+}
+
+function withCaution(header: Cell[], rows: Cell[][], caution: string): string {
+  const pad = (r: Cell[]) => [...r, ...Array(Math.max(0, header.length - r.length)).fill('')];
+  return csvRecords([header, ...rows, pad(['screening caution', caution])]);
+}
+
+export const RECEPTOR_TABLE_HEADER = [
+  'receptor',
+  'kind',
+  'distance from source (m)',
+  'downgradient x (m)',
+  'across-flow y (m)',
+  'screen top below water table (m)',
+  'screen bottom below water table (m)',
+  'result',
+  'first reaches limit (d)',
+  'first reaches limit (yr)',
+  'at horizon (mg/L)',
+  'peak (mg/L)',
+  'time of peak (d)',
+  'steady state (mg/L)',
+  'limit (mg/L)',
+  'horizon (d)',
+  'solution',
+] as const;
+
+const STATUS_WORDS: Record<string, string> = {
+  'reaches-limit': 'reaches the limit',
+  'below-limit': 'stays below the limit',
+  'not-reached-in-horizon': 'not reached within the horizon',
+};
+
+export function receptorTableCsv(r: ExportResults): string {
+  const rows: Cell[][] = r.receptors.map((x) => [
+    x.name,
+    x.kind,
+    x.distance,
+    x.x,
+    x.y,
+    x.zTop,
+    x.zBottom,
+    STATUS_WORDS[x.status] ?? x.status,
+    x.arrival,
+    x.arrival === null ? null : x.arrival / YEAR_D,
+    x.atHorizon,
+    x.peak.c,
+    x.peak.t,
+    x.steady,
+    r.limit,
+    r.horizon,
+    r.solution,
+  ]);
+  return withCaution([...RECEPTOR_TABLE_HEADER], rows, r.caution);
+}
+
+/** Breakthrough curves: one row per time, one column per receptor (and the other solution's). */
+export function breakthroughCsv(r: ExportResults): string {
+  const times = r.curveTimes ? Array.from(r.curveTimes) : [];
+  const alt = otherSolution(r.solution);
+  const header: Cell[] = ['time (d)', 'time (yr)'];
+  const cols: ArrayLike<number>[] = [];
+  for (const x of r.receptors) {
+    if (x.curve && x.curve.length === times.length) {
+      header.push(`${x.name} (mg/L, ${r.solution})`);
+      cols.push(x.curve);
+    }
+    if (x.curveAlternate && x.curveAlternate.length === times.length) {
+      header.push(`${x.name} (mg/L, ${alt})`);
+      cols.push(x.curveAlternate);
+    }
+  }
+  const rows: Cell[][] = times.map((t, i) => [t, t / YEAR_D, ...cols.map((col) => col[i])]);
+  return withCaution(header, rows, r.caution);
+}
+
+/** A file name from the case name: letters, digits, dot, dash and underscore only. */
+export function fileStem(c: Case): string {
+  const s = c.name
+    .normalize('NFD')
+    .replace(/\p{M}/gu, '')
+    .replace(/[^A-Za-z0-9._-]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 60);
+  return s || 'case';
+}

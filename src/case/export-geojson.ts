@@ -1,0 +1,168 @@
+/**
+ * GeoJSON (RFC 7946) of a screened case, so the result opens in any GIS: the release (a point,
+ * and the traced footprint as a polygon), the receptors with their results, the flow arrow, and
+ * the plume contours at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
+ * decimal degrees (RFC 7946 §4), rounded to 7 decimals (about 1 cm; §11.2 discusses precision).
+ * Polygon exteriors are counter-clockwise (§3.1.6). Properties are in internal units named in
+ * each key (m, d, mg/L). The screening caution rides along as a foreign member of the collection
+ * (§6.1) and in each receptor's properties.
+ *
+ * A case drawn on a local site grid (metres east/north of a datum with no geographic position)
+ * has no WGS 84 coordinates, so it cannot be written as RFC 7946 GeoJSON: the export says so.
+ */
+import type { Feature, FeatureCollection, Geometry, Position as GeoPosition } from 'geojson';
+import type { Case, Position } from './schema';
+import { prepareCase } from './prepare';
+import { ringArea } from '../geo/rings';
+import { SOLUTION_LABEL, type ExportResults } from './export-results';
+
+export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string };
+
+const round7 = (v: number) => Math.round(v * 1e7) / 1e7;
+const pos = (p: readonly number[]): GeoPosition => [round7(p[0]), round7(p[1])];
+
+function closedCcw(ring: readonly Position[]): GeoPosition[] {
+  const r = ring.map(pos);
+  const first = r[0];
+  const last = r[r.length - 1];
+  if (first[0] !== last[0] || first[1] !== last[1]) r.push([first[0], first[1]]);
+  return ringArea(r) < 0 ? r.reverse() : r;
+}
+
+function feature(geometry: Geometry, properties: Record<string, unknown>): Feature {
+  return { type: 'Feature', geometry, properties };
+}
+
+export interface GeoJsonOptions {
+  appVersion?: string;
+  exported?: Date;
+}
+
+export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJsonOptions = {}): GeoJsonExport {
+  if (c.site.frame !== 'geographic') {
+    return {
+      ok: false,
+      error:
+        'GeoJSON export: this case is drawn on a local site grid (metres from a datum), which has no longitude and latitude; ' +
+        'RFC 7946 GeoJSON needs WGS 84 coordinates. Place the site on the map (geographic frame) to export GeoJSON, or export the CSV tables.',
+    };
+  }
+  let prepared;
+  try {
+    prepared = prepareCase(c);
+  } catch (e) {
+    return { ok: false, error: `GeoJSON export: the inputs are not valid yet — ${e instanceof Error ? e.message : String(e)}` };
+  }
+  const { derived, toMap } = prepared;
+  const features: Feature[] = [];
+
+  features.push(
+    feature(
+      { type: 'Point', coordinates: pos(c.site.source.position) },
+      {
+        role: 'source',
+        name: `Release: ${c.contaminant.name}`,
+        contaminant: c.contaminant.name,
+        'source concentration (mg/L)': prepared.model.c0,
+        'source width across flow (m)': derived.width,
+        'source thickness (m)': prepared.model.thickness,
+      },
+    ),
+  );
+  if (c.site.source.footprint && c.site.source.footprint.length >= 3) {
+    features.push(
+      feature(
+        { type: 'Polygon', coordinates: [closedCcw(c.site.source.footprint)] },
+        { role: 'source-footprint', name: 'Traced release footprint' },
+      ),
+    );
+  }
+
+  const byId = new Map((results?.receptors ?? []).map((r) => [r.id, r]));
+  for (const rc of c.site.receptors) {
+    const r = byId.get(rc.id);
+    features.push(
+      feature(
+        { type: 'Point', coordinates: pos(rc.position) },
+        {
+          role: 'receptor',
+          name: rc.name,
+          kind: rc.kind,
+          ...(r
+            ? {
+                result: r.status,
+                'first reaches limit (d)': r.arrival,
+                'at horizon (mg/L)': r.atHorizon,
+                'peak (mg/L)': r.peak.c,
+                'time of peak (d)': r.peak.t,
+                'steady state (mg/L)': r.steady,
+                'distance from source (m)': r.distance,
+              }
+            : { result: null }),
+        },
+      ),
+    );
+  }
+
+  // Flow arrow from the centre of the source plane, as long as the plume or the farthest receptor.
+  const reach = Math.max(
+    results?.plumeLength ?? 0,
+    ...prepared.receptors.map((r) => Math.max(r.x, 0)),
+    10 * derived.width,
+    50,
+  );
+  const head = Math.min(0.1 * reach, 50);
+  const tip = toMap(reach, 0);
+  features.push(
+    feature(
+      {
+        type: 'MultiLineString',
+        coordinates: [
+          [pos(toMap(0, 0)), pos(tip)],
+          [pos(toMap(reach - head, head / 2)), pos(tip), pos(toMap(reach - head, -head / 2))],
+        ],
+      },
+      {
+        role: 'flow-direction',
+        name: 'Groundwater flow direction',
+        'azimuth (degrees clockwise from north)': derived.azimuthDeg,
+        'hydraulic gradient': derived.gradient,
+        'seepage velocity (m/d)': derived.v,
+        'arrow length (m)': reach,
+      },
+    ),
+  );
+
+  if (results?.plume) {
+    for (const f of results.plume.geojson.features) {
+      const coords = f.geometry.coordinates.map((poly) => poly.map((ring) => ring.map(pos)));
+      features.push(
+        feature(
+          { type: 'MultiPolygon', coordinates: coords },
+          {
+            ...f.properties,
+            role: 'plume-contour',
+            'view time (d)': Number.isFinite(results.plume.time) ? results.plume.time : 'steady state',
+            solution: SOLUTION_LABEL[results.solution],
+          },
+        ),
+      );
+    }
+  }
+
+  const geojson: FeatureCollection & Record<string, unknown> = {
+    type: 'FeatureCollection',
+    features,
+    // RFC 7946 §6.1 foreign member: what this is and the caution that goes with it
+    downgradient: {
+      case: c.name,
+      caseId: c.id,
+      exported: (opts.exported ?? new Date()).toISOString(),
+      appVersion: opts.appVersion ?? null,
+      limit_mg_L: results?.limit ?? null,
+      solution: results ? SOLUTION_LABEL[results.solution] : null,
+      caution: results?.caution ?? null,
+    },
+  };
+  return { ok: true, geojson, text: JSON.stringify(geojson) };
+}

@@ -1,0 +1,47 @@
+/**
+ * What the file exports read from a screening: the structural subset of the app's results
+ * (src/ui/results.ts `Evaluation`) that GeoJSON and CSV need. Internal units: m, d, mg/L.
+ * Kept structural so these pure exports depend on no UI code.
+ */
+import type { FeatureCollection, MultiPolygon } from 'geojson';
+
+export interface ExportReceptorResult {
+  id: string;
+  name: string;
+  kind: string;
+  x: number;
+  y: number;
+  zTop: number;
+  zBottom: number;
+  distance: number;
+  /** first time the screen-average concentration reaches the limit, d (null: not within the horizon) */
+  arrival: number | null;
+  atHorizon: number;
+  peak: { c: number; t: number };
+  steady: number;
+  status: string;
+  /** breakthrough curve at `curveTimes`, mg/L */
+  curve?: ArrayLike<number>;
+  curveAlternate?: ArrayLike<number> | null;
+}
+
+export interface ExportResults {
+  solution: 'domenico' | 'exact';
+  limit: number;
+  horizon: number;
+  curveTimes?: ArrayLike<number>;
+  receptors: ExportReceptorResult[];
+  plumeLength: number | null;
+  plume: { time: number; geojson: FeatureCollection<MultiPolygon> } | null;
+  caution: string;
+}
+
+/** The other solution's name (for column headers and labels). */
+export function otherSolution(s: 'domenico' | 'exact'): 'domenico' | 'exact' {
+  return s === 'domenico' ? 'exact' : 'domenico';
+}
+
+export const SOLUTION_LABEL: Record<'domenico' | 'exact', string> = {
+  domenico: 'Domenico 1987 approximation',
+  exact: 'exact rectangular-source solution',
+};

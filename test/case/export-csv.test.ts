@@ -1,0 +1,101 @@
+// CSV export against RFC 4180 §2 (the examples quoted below are from the RFC's text), and the
+// common-practice guard against spreadsheet formula injection (OWASP "CSV Injection").
+import { describe, expect, it } from 'vitest';
+import { breakthroughCsv, csvField, csvRecords, fileStem, receptorTableCsv, RECEPTOR_TABLE_HEADER } from '../../src/case/export-csv';
+import { demoCase, exportResultsFor } from './export-fixture';
+
+/** A reader written from RFC 4180's ABNF (file = record *(CRLF record) [CRLF]). */
+function readRfc4180(text: string): string[][] {
+  const rows: string[][] = [];
+  let row: string[] = [];
+  let i = 0;
+  while (i < text.length) {
+    let field = '';
+    if (text[i] === '"') {
+      i++;
+      for (;;) {
+        if (i >= text.length) throw new Error('unterminated quoted field');
+        if (text[i] === '"' && text[i + 1] === '"') {
+          field += '"';
+          i += 2;
+        } else if (text[i] === '"') {
+          i++;
+          break;
+        } else field += text[i++];
+      }
+    } else {
+      while (i < text.length && text[i] !== ',' && text[i] !== '\r') {
+        if (text[i] === '"' || text[i] === '\n') throw new Error(`bare ${JSON.stringify(text[i])} in unquoted field at ${i}`);
+        field += text[i++];
+      }
+    }
+    row.push(field);
+    if (text[i] === ',') i++;
+    else if (text.startsWith('\r\n', i)) {
+      rows.push(row);
+      row = [];
+      i += 2;
+    } else if (i < text.length) throw new Error(`unexpected ${JSON.stringify(text[i])} at ${i}`);
+  }
+  if (row.length) rows.push(row);
+  return rows;
+}
+
+describe('RFC 4180 fields and records', () => {
+  it('quotes fields with commas, quotes and line breaks, doubling quotes (§2 rules 5–7)', () => {
+    expect(csvField('aaa')).toBe('aaa');
+    expect(csvField('b"bb')).toBe('"b""bb"'); // RFC 4180 §2.7 example "b""bb"
+    expect(csvField('b,bb')).toBe('"b,bb"');
+    expect(csvField('b\r\nbb')).toBe('"b\r\nbb"'); // §2.6 example
+    expect(csvRecords([['aaa', 'bbb', 'ccc'], ['zzz', 'yyy', 'xxx']])).toBe('aaa,bbb,ccc\r\nzzz,yyy,xxx\r\n'); // §2.1–2.2
+  });
+
+  it('writes numbers at full precision, and empty for null', () => {
+    expect(csvField(0.1 + 0.2)).toBe('0.30000000000000004');
+    expect(csvField(1e-12)).toBe('1e-12');
+    expect(csvField(null)).toBe('');
+    expect(csvField(-3)).toBe('-3'); // numbers are never prefixed
+  });
+
+  it('defuses text that a spreadsheet would run as a formula (OWASP; common practice)', () => {
+    expect(csvField('=HYPERLINK("http://x")')).toBe('"\'=HYPERLINK(""http://x"")"');
+    expect(csvField('+1')).toBe("'+1");
+    expect(csvField('@SUM(A1)')).toBe("'@SUM(A1)");
+  });
+
+  it('file names keep letters, digits, dot, dash, underscore', () => {
+    const c = demoCase('fuel-release-farm-well.json');
+    expect(fileStem({ ...c, name: 'Étang road / well #2' })).toBe('Etang-road-well-2');
+    expect(fileStem({ ...c, name: '///' })).toBe('case');
+  });
+});
+
+describe('screening tables', () => {
+  const c = demoCase('fuel-release-farm-well.json');
+  const r = exportResultsFor(c);
+
+  it('receptor table: one record per receptor, every record the same width, values round-trip', () => {
+    const rows = readRfc4180(receptorTableCsv(r));
+    expect(rows[0]).toEqual([...RECEPTOR_TABLE_HEADER]);
+    expect(rows).toHaveLength(1 + r.receptors.length + 1);
+    for (const row of rows) expect(row).toHaveLength(RECEPTOR_TABLE_HEADER.length);
+    rows.slice(1, -1).forEach((row, k) => {
+      expect(row[0]).toBe(r.receptors[k].name);
+      expect(Number(row[11])).toBe(r.receptors[k].peak.c);
+      expect(row[8] === '' ? null : Number(row[8])).toBe(r.receptors[k].arrival);
+    });
+    expect(rows.at(-1)?.[0]).toBe('screening caution');
+    expect(rows.at(-1)?.[1]).toMatch(/Screening-level/);
+  });
+
+  it('breakthrough curves: a time column in days and years, one column per receptor', () => {
+    const rows = readRfc4180(breakthroughCsv(r));
+    expect(rows[0].slice(0, 2)).toEqual(['time (d)', 'time (yr)']);
+    expect(rows[0]).toHaveLength(2 + r.receptors.length);
+    expect(rows).toHaveLength(1 + r.curveTimes!.length + 1);
+    const k = rows.length - 2;
+    expect(Number(rows[k][0])).toBe(r.horizon);
+    expect(Number(rows[k][1])).toBeCloseTo(r.horizon / 365.25, 12); // Julian year, IAU
+    expect(Number(rows[k][2])).toBe(r.receptors[0].curve![r.curveTimes!.length - 1]);
+  });
+});

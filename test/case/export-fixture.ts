@@ -1,0 +1,52 @@
+// Builds the export input for a demo case straight from the engine (screenCase, breakthroughCurve,
+// concentrationGrid) and the geo contours, the way the app's worker does, so the export tests run
+// on real results rather than hand-made ones.
+import { readFileSync } from 'node:fs';
+import { screenCase } from '../../src/case/screen';
+import { breakthroughCurve, concentrationGrid } from '../../src/core';
+import { contourBands, contoursToGeoJSON } from '../../src/geo/contours';
+import { migrateCase } from '../../src/case/migrate';
+import type { Case } from '../../src/case/schema';
+import type { ExportResults } from '../../src/case/export-results';
+
+export function demoCase(file: string): Case {
+  return migrateCase(JSON.parse(readFileSync(`cases/${file}`, 'utf8')));
+}
+
+export function exportResultsFor(c: Case, n = 64): ExportResults {
+  const s = screenCase(c);
+  const { model, limit, horizon, depth, viewTime } = s.prepared;
+  const curveTimes = Array.from({ length: 25 }, (_, i) => (horizon * (i + 1)) / 25);
+  const L = Math.max(s.plumeLength.steady ?? 0, ...s.prepared.receptors.map((r) => r.x), 50) * 1.2;
+  const xs = Array.from({ length: n }, (_, i) => (L * (i + 0.5)) / n);
+  const halfW = Math.max(L / 4, model.width);
+  const ys = Array.from({ length: n }, (_, j) => -halfW + (2 * halfW * j) / (n - 1));
+  const grid = concentrationGrid(model, xs, ys, depth, viewTime);
+  const bands = contourBands({ values: grid, xs, ys, thresholds: [limit, limit * 10] });
+  return {
+    solution: model.solution,
+    limit,
+    horizon,
+    curveTimes,
+    receptors: s.results.map(({ receptor, result }) => ({
+      id: receptor.id,
+      name: receptor.name,
+      kind: receptor.kind,
+      x: receptor.x,
+      y: receptor.y,
+      zTop: receptor.zTop,
+      zBottom: receptor.zBottom,
+      distance: receptor.distance,
+      arrival: result.arrival,
+      atHorizon: result.atHorizon,
+      peak: result.peak,
+      steady: result.steady,
+      status: result.status,
+      curve: breakthroughCurve(model, receptor, curveTimes),
+      curveAlternate: null,
+    })),
+    plumeLength: s.plumeLength.atViewTime,
+    plume: { time: viewTime, geojson: contoursToGeoJSON(bands, s.prepared.toMap) },
+    caution: s.caution,
+  };
+}

@@ -1,0 +1,83 @@
+// GeoJSON export checked against RFC 7946 by an independent validator from the npm registry
+// (@placemarkio/check-geojson: structure, positions, ring closure and winding per §3.1.6) plus the
+// RFC's rules it does not check itself (WGS 84 ranges §4, no crs member §4).
+import { describe, expect, it } from 'vitest';
+import { check, getIssues } from '@placemarkio/check-geojson';
+import { caseToGeoJSON } from '../../src/case/export-geojson';
+import { demoCase, exportResultsFor } from './export-fixture';
+import { ringArea } from '../../src/geo/rings';
+
+describe('caseToGeoJSON', () => {
+  const c = demoCase('fuel-release-farm-well.json');
+  const results = exportResultsFor(c);
+  const out = caseToGeoJSON(c, results, { appVersion: '0.1.0', exported: new Date('2026-12-01T00:00:00Z') });
+
+  it('writes a FeatureCollection the RFC 7946 validator accepts with no issues', () => {
+    expect(out.ok).toBe(true);
+    if (!out.ok) return;
+    expect(getIssues(out.text)).toEqual([]);
+    expect(() => check(out.text)).not.toThrow();
+  });
+
+  it('holds the source, its footprint, every receptor, the flow arrow and plume contours', () => {
+    if (!out.ok) throw new Error(out.error);
+    const roles = out.geojson.features.map((f) => f.properties?.role);
+    expect(roles.filter((r) => r === 'source')).toHaveLength(1);
+    expect(roles.filter((r) => r === 'source-footprint')).toHaveLength(1);
+    expect(roles.filter((r) => r === 'receptor')).toHaveLength(c.site.receptors.length);
+    expect(roles.filter((r) => r === 'flow-direction')).toHaveLength(1);
+    expect(roles.filter((r) => r === 'plume-contour').length).toBeGreaterThan(0);
+    const well = out.geojson.features.find((f) => f.properties?.name === c.site.receptors[0].name);
+    expect(well?.properties?.result).toBe(results.receptors[0].status);
+  });
+
+  it('all positions are WGS 84 longitude/latitude in range, with no crs member (RFC 7946 §4)', () => {
+    if (!out.ok) throw new Error(out.error);
+    expect('crs' in out.geojson).toBe(false);
+    const flat = JSON.stringify(out.geojson.features.map((f) => f.geometry));
+    const nums = [...flat.matchAll(/\[(-?[\d.e-]+),(-?[\d.e-]+)\]/g)].map((m) => [Number(m[1]), Number(m[2])]);
+    expect(nums.length).toBeGreaterThan(10);
+    for (const [lon, lat] of nums) {
+      expect(Math.abs(lon)).toBeLessThanOrEqual(180);
+      expect(Math.abs(lat)).toBeLessThanOrEqual(90);
+    }
+  });
+
+  it('polygon exteriors are counter-clockwise and closed (RFC 7946 §3.1.6)', () => {
+    if (!out.ok) throw new Error(out.error);
+    for (const f of out.geojson.features) {
+      const polys = f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.type === 'MultiPolygon' ? f.geometry.coordinates : [];
+      for (const p of polys) {
+        const ext = p[0];
+        expect(ext[0]).toEqual(ext[ext.length - 1]);
+        expect(ringArea(ext)).toBeGreaterThan(0);
+      }
+    }
+  });
+
+  it('the flow arrow points along the case azimuth (110° clockwise from north: east-south-east)', () => {
+    if (!out.ok) throw new Error(out.error);
+    const arrow = out.geojson.features.find((f) => f.properties?.role === 'flow-direction');
+    if (arrow?.geometry.type !== 'MultiLineString') throw new Error('no arrow');
+    const [[a, b]] = arrow.geometry.coordinates;
+    const dE = (b[0] - a[0]) * Math.cos((a[1] * Math.PI) / 180);
+    const dN = b[1] - a[1];
+    const az = ((Math.atan2(dE, dN) * 180) / Math.PI + 360) % 360;
+    expect(Math.abs(az - 110)).toBeLessThan(0.5); // equirectangular estimate, fine at < 1 km
+  });
+
+  it('a local-grid case is refused with a message naming why', () => {
+    const local = demoCase('nitrate-field-supply.json');
+    const r = caseToGeoJSON(local, null);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.error).toMatch(/local site grid.*RFC 7946/);
+  });
+
+  it('an invalid case is refused with the field named, not written half-way', () => {
+    const bad = structuredClone(c);
+    bad.aquifer.effectivePorosity = 1.5;
+    const r = caseToGeoJSON(bad, null);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.error).toMatch(/effectivePorosity/);
+  });
+});
