@@ -100,8 +100,9 @@ export function dLnCdfDLnT(x: number, t: number, v: number, D: number, lam: numb
 
 /**
  * Solve ln F(τ) = target for τ in (0, tMax] (tMax may be Infinity), target < ln F(tMax).
- * Newton's method in s = ln τ, safeguarded by bisection; ln F is increasing in s.
- * Converges to |Δs| < 1e-13 or 100 iterations. `guess` is a starting τ (e.g. the previous node).
+ * Newton's method in s = ln τ (ln F is increasing in s), steps limited to 4 in s, safeguarded by
+ * bisection once a bracket is known. Converges to |Δs| < 1e-12 or 100 iterations. `guess` is a
+ * starting τ (e.g. a neighbouring node).
  */
 export function invertLnCdf(
   target: number,
@@ -112,31 +113,30 @@ export function invertLnCdf(
   tMax: number,
   guess?: number,
 ): number {
-  // Bracket [lo, hi] in s = ln τ.
-  let hi: number;
-  if (tMax === Infinity) {
-    const scale = v > 0 ? x / v : (x * x) / (2 * D);
-    hi = Math.log(Math.max(scale, 1e-300)) + 1;
-    let k = 0;
-    while (lnCdf(x, Math.exp(hi), v, D, lam) < target && k++ < 200) hi += 1 + k;
-  } else {
-    hi = Math.log(tMax);
-  }
-  let lo = hi - 1;
-  let k = 0;
-  while (lnCdf(x, Math.exp(lo), v, D, lam) > target && k++ < 400) lo -= 1 + k;
-  let s = guess !== undefined && guess > 0 ? Math.log(guess) : 0.5 * (lo + hi);
-  if (!(s > lo && s < hi)) s = 0.5 * (lo + hi);
+  let lo = -Infinity;
+  let hi = tMax === Infinity ? Infinity : Math.log(tMax);
+  let s: number;
+  if (guess !== undefined && guess > 0) s = Math.log(guess);
+  else if (hi < Infinity) s = hi - 0.5;
+  else s = Math.log(v > 0 ? x / v : (x * x) / (2 * D));
+  if (s >= hi) s = hi - 0.5;
   for (let it = 0; it < 100; it++) {
     const tau = Math.exp(s);
     const h = lnCdf(x, tau, v, D, lam) - target;
     if (h === 0) return tau;
     if (h > 0) hi = s;
     else lo = s;
-    const d = dLnCdfDLnT(x, tau, v, D, lam);
-    let next = s - h / d;
-    if (!(next > lo && next < hi) || !Number.isFinite(next)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - s) < 1e-13 * Math.max(1, Math.abs(s)) || hi - lo < 1e-13) return Math.exp(next);
+    let step = -h / dLnCdfDLnT(x, tau, v, D, lam);
+    if (!Number.isFinite(step)) step = h > 0 ? -4 : 4;
+    if (step > 4) step = 4;
+    else if (step < -4) step = -4;
+    let next = s + step;
+    if (!(next > lo && next < hi)) {
+      if (lo > -Infinity && hi < Infinity) next = 0.5 * (lo + hi);
+      else if (hi < Infinity) next = Math.min(next, 0.5 * (s + hi));
+      else next = Math.max(next, 0.5 * (s + lo));
+    }
+    if (Math.abs(next - s) < 1e-12 * Math.max(1, Math.abs(s))) return Math.exp(next);
     s = next;
   }
   return Math.exp(s);
