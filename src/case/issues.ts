@@ -75,6 +75,7 @@ function describe(issue: Issue, base: readonly PathKey[]): string[] {
         const given = u.discriminator && input && typeof input === 'object' ? (input as Record<string, unknown>)[u.discriminator] : input;
         return [`${at}: ${show(given)} is not accepted; accepted values: ${u.options.map((o) => JSON.stringify(o)).join(', ')}`];
       }
+      if (input === undefined) return [`${at} is missing`];
       if (!u.errors.length) return [`${at}: does not match any accepted form`];
       // report the branch that came closest (fewest problems)
       const closest = u.errors.reduce((a, b) => (b.length < a.length ? b : a));

@@ -37,7 +37,7 @@ import { makeLocalFrame, type LocalFrame } from '../geo/projection';
 import { fromFlow, toFlow } from '../geo/flowFrame';
 import { footprintSourcePlane } from '../geo/footprint';
 import { normalizeDeg } from '../geo/angles';
-import { FIELD_RANGES, provenanceLabel } from './presets';
+import { FIELD_RANGES, contaminantPreset, provenanceLabel } from './presets';
 
 export interface PreparedReceptor {
   readonly id: string;
@@ -332,7 +332,7 @@ export function prepareCase(c: Case): PreparedCase {
     if (!(err instanceof ValidationError)) throw err;
     throw new ValidationError(caseFieldOf(err.field) ?? err.field, err.value, err.range, detailOf(err));
   }
-  warnings.push(...fieldRangeWarnings(c, K));
+  warnings.push(...fieldRangeWarnings(c, K), ...presetWarnings(c));
   warnings.push(
     ...modelWarnings(
       model,
@@ -403,6 +403,24 @@ function caseFieldOf(field: string | undefined): string | undefined {
   const rec = /^receptors?\[(\d+)\](.*)$/.exec(field);
   if (rec) return `site.receptors[${rec[1]}]${rec[2]}`;
   return MODEL_TO_CASE[field] ?? field;
+}
+
+/** A sorption value taken unchanged from a preset whose figure is recalled must say so. */
+function presetWarnings(c: Case): Warning[] {
+  const preset = c.contaminant.presetId ? contaminantPreset(c.contaminant.presetId) : undefined;
+  if (!preset) return [];
+  const s = c.contaminant.sorption;
+  const used = s.mode === 'koc' ? preset.koc : preset.kd;
+  const q = s.mode === 'koc' ? s.koc : s.kd;
+  if (!used || used.provenance === 'seen' || q.unit !== 'L/kg' || q.value !== used.value) return [];
+  const name = s.mode === 'koc' ? 'Koc' : 'Kd';
+  return [
+    {
+      code: 'preset-value-unverified',
+      message: `${name} = ${used.value} L/kg for ${preset.name} is ${provenanceLabel(used)} (${used.source}); replace it with a checked or site value before relying on the result.`,
+      field: `contaminant.sorption.${s.mode}`,
+    },
+  ];
 }
 
 /** Values accepted but outside the usual published field ranges (presets.ts FIELD_RANGES). */

@@ -1,0 +1,358 @@
+/**
+ * Command-line screening: evaluates a case file (any known version) and prints per-receptor
+ * results, the derived parameters, warnings and the screening caution.
+ *
+ *   npm run screen -- <case.json> [--format table|json|csv]
+ *
+ * Exit codes: 0 screened · 2 usage (bad arguments) · 3 file cannot be read · 4 not a valid case
+ * file (JSON, format, version, schema) · 5 a value the engine cannot accept (named by its case
+ * field and accepted range) · 1 unexpected failure.
+ */
+import { readFileSync, statSync } from 'node:fs';
+import { parseCaseFile, DEFAULT_MAX_BYTES } from '../case/io';
+import { screenCase, type ScreeningResult } from '../case/screen';
+import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
+import { ValidationError } from '../core';
+import type { Case } from '../case/schema';
+
+export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase: 4, invalidValue: 5 } as const;
+type Format = 'table' | 'json' | 'csv';
+const YR = 365.25;
+/** relative difference above which the other solution's figures are printed beside the main ones */
+const SHOW_OTHER_ABOVE = 0.05;
+
+const HELP = `Downgradient screening from the command line.
+
+Usage:
+  npm run screen -- <case.json> [--format table|json|csv]
+  node dist-cli/screen.mjs <case.json> [--format table|json|csv]
+
+Reads a case file (current version 2, or the hand-written compact version 1 described in
+src/case/v1.ts), evaluates every receptor against the case's limit over its horizon and prints:
+receptor position in the flow frame (x downgradient of the source plane, y across the flow),
+first arrival at the limit, concentration at the horizon, peak and its time, status, and the other
+solution's figures where the two differ; the derived parameters (seepage velocity, retardation,
+dispersivities and the relation used); warnings; and the screening caution.
+
+Formats:
+  table  (default) readable text; times in years, lengths in m, concentrations in mg/L
+  json   every figure in internal units (m, d, mg/L), with a "units" key
+  csv    one row per receptor, units in the column names; the caution as leading # lines
+
+Exit codes: 0 screened, 2 bad arguments, 3 file cannot be read, 4 not a valid case file,
+5 a value outside its accepted range, 1 unexpected failure.
+
+Screening-level estimates only: local regulators and licensed hydrogeologists decide.`;
+
+interface Args {
+  file: string | null;
+  format: Format;
+  help: boolean;
+}
+
+function parseArgs(argv: string[]): Args | string {
+  const a: Args = { file: null, format: 'table', help: false };
+  for (let i = 0; i < argv.length; i++) {
+    const s = argv[i];
+    if (s === '--help' || s === '-h') a.help = true;
+    else if (s === '--format' || s.startsWith('--format=')) {
+      const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
+      if (v !== 'table' && v !== 'json' && v !== 'csv') return `--format must be table, json or csv (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
+      a.format = v;
+    } else if (s.startsWith('-')) return `unknown option ${s} (see --help)`;
+    else if (a.file === null) a.file = s;
+    else return `only one case file can be screened at a time (got ${JSON.stringify(a.file)} and ${JSON.stringify(s)})`;
+  }
+  return a;
+}
+
+// ---------------------------------------------------------------------------------------------
+// number formatting
+
+/** three significant figures, plain notation in the usual range */
+export function sig(x: number, digits = 3): string {
+  if (x === 0) return '0';
+  if (!Number.isFinite(x)) return String(x);
+  const ax = Math.abs(x);
+  if (ax < 1e-3 || ax >= 1e6) return x.toExponential(digits - 1);
+  return String(Number(x.toPrecision(digits)));
+}
+const years = (d: number) => sig(d / YR);
+/** a position in metres; rounding noise below a centimetre shows as 0 */
+const metres = (x: number) => (Math.abs(x) < 0.005 ? '0' : sig(x));
+/** a concentration, with enough digits that a value near the limit is not rounded onto it */
+function conc(c: number, limit: number): string {
+  if (c > 0 && Math.abs(c / limit - 1) < 0.01) return sig(c, 5);
+  return sig(c);
+}
+
+function arrivalText(arrival: number | null, status: string): string {
+  if (arrival !== null) return `${years(arrival)} yr`;
+  return status === 'not-reached-in-horizon' ? 'after horizon' : 'never';
+}
+
+const STATUS_WORDS: Record<string, string> = {
+  'reaches-limit': 'REACHES LIMIT',
+  'below-limit': 'stays below limit',
+  'not-reached-in-horizon': 'reaches limit after horizon',
+};
+
+const SOLUTION_WORDS: Record<string, string> = {
+  domenico: 'Domenico 1987 approximation',
+  exact: 'exact rectangular-source solution',
+};
+
+type Row = ScreeningResult['results'][number];
+
+function othersDiffer(r: Row['result']): boolean {
+  const alt = r.alternate;
+  if (!alt) return false;
+  if ((r.arrival === null) !== (alt.arrival === null)) return true;
+  if (r.arrival !== null && alt.arrival !== null && Math.abs(r.arrival - alt.arrival) > SHOW_OTHER_ABOVE * Math.max(r.arrival, alt.arrival)) return true;
+  return alt.relDiff > SHOW_OTHER_ABOVE;
+}
+
+// ---------------------------------------------------------------------------------------------
+// table
+
+function pad(rows: string[][]): string[] {
+  const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => r[j].length)));
+  return rows.map((r) => r.map((cell, j) => cell.padEnd(widths[j])).join('  ').trimEnd());
+}
+
+function wrap(text: string, width = 96, indent = ''): string[] {
+  const out: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    if (line && (indent + line + ' ' + word).length > width) {
+      out.push(indent + line);
+      line = word;
+    } else line = line ? line + ' ' + word : word;
+  }
+  if (line) out.push(indent + line);
+  return out;
+}
+
+function formatTable(c: Case, s: ScreeningResult, source: string): string {
+  const p = s.prepared;
+  const d = p.derived;
+  const m = p.model;
+  const L: string[] = [];
+  L.push(`Downgradient screening: ${c.name}`);
+  L.push(`Case file: ${source}`);
+  L.push(`Contaminant: ${c.contaminant.name}   source ${sig(m.c0)} mg/L   limit ${sig(p.limit)} mg/L`);
+  if (c.contaminant.limitNote) L.push(...wrap(`Limit note: ${c.contaminant.limitNote}`, 96));
+  L.push(`Solution: ${SOLUTION_WORDS[m.solution]} (the other solution is computed beside it)`);
+  L.push(`Horizon: ${years(p.horizon)} yr (${sig(p.horizon, 5)} d)`);
+  L.push('');
+  L.push('Derived parameters');
+  const disp =
+    d.dispersivityRelation.mode === 'given'
+      ? 'given'
+      : `${d.dispersivityRelation.citation}, scaled from ${sig(d.dispersivityRelation.scaleDistance ?? 0)} m; αT = ${d.dispersivityRelation.transverseRatio}·αL, αV = ${d.dispersivityRelation.verticalRatio}·αL`;
+  const flow = d.headFit
+    ? `fitted to ${d.headFit.residuals.length} head readings, largest residual ${sig(Math.max(...d.headFit.residuals.map(Math.abs)))} m`
+    : 'given';
+  const decay =
+    m.decay > 0
+      ? `${sig(m.decay)} 1/d (half-life ${sig(Math.LN2 / m.decay / YR)} yr), on ${m.decayPhase === 'dissolved-only' ? 'the dissolved phase only' : 'dissolved and sorbed mass'}`
+      : 'none';
+  const kv: [string, string][] = [
+    ['flow direction, gradient', `towards ${sig(d.azimuthDeg, 4)}° from north, i = ${sig(d.gradient)} (${flow})`],
+    ['hydraulic conductivity K', `${sig(d.K)} m/d`],
+    ['seepage velocity v = K·i/nₑ', `${sig(d.v)} m/d (${sig(d.v * YR)} m/yr)`],
+    ['Kd', `${sig(d.kd)} L/kg${c.contaminant.sorption.mode === 'koc' ? ' (Koc·foc)' : ' (given)'}`],
+    ['bulk density ρb', `${sig(d.bulkDensity)} g/cm³${d.bulkDensityEstimated ? ' (2.65·(1 − n), common practice)' : ' (given)'}`],
+    ['retardation R = 1 + ρb·Kd/n', `${sig(d.R, 4)}  → contaminant velocity v/R = ${sig(d.v / d.R)} m/d`],
+    ['dispersivity αL / αT / αV', `${sig(d.ax)} / ${sig(d.ay)} / ${sig(d.az)} m (${disp})`],
+    ['molecular diffusion De', d.diffusion > 0 ? `${sig(d.diffusion)} m²/d (D0·τ)` : 'not included'],
+    ['first-order decay λ', decay],
+    ['source plane', `width ${sig(d.width)} m${d.widthFromFootprint ? ' (across-flow extent of the footprint)' : ''}, thickness ${sig(m.thickness)} m`],
+    [
+      'source',
+      `${m.duration === Infinity ? 'continuous' : `released for ${years(m.duration)} yr`}${m.sourceDecay > 0 ? `, halving every ${years(Math.LN2 / m.sourceDecay)} yr` : ', constant'}`,
+    ],
+    [
+      'plume length to the limit',
+      (p.viewTime === Infinity
+        ? ''
+        : `${s.plumeLength.atViewTime === null ? 'none' : sig(s.plumeLength.atViewTime) + ' m'} at ${years(p.viewTime)} yr; `) +
+        `${s.plumeLength.steady === null ? 'none at steady state' : sig(s.plumeLength.steady) + ' m at steady state'} (centreline, depth ${sig(p.depth)} m)`,
+    ],
+  ];
+  L.push(...pad(kv.map(([k, v]) => ['  ' + k, v])));
+  L.push('');
+  L.push(`Receptors (x downgradient of the source plane, y across the flow, screen depth below the water table)`);
+  if (!s.results.length) L.push('  none in this case');
+  else {
+    const head = ['  name', 'kind', 'x (m)', 'y (m)', 'screen (m)', 'arrival at limit', 'C at horizon (mg/L)', 'peak (mg/L) at (yr)', 'status'];
+    const rows = s.results.map(({ receptor: r, result: x }) => [
+      '  ' + (r.name || r.id),
+      r.kind,
+      metres(r.x),
+      metres(r.y),
+      `${metres(r.zTop)}–${metres(r.zBottom)}`,
+      arrivalText(x.arrival, x.status),
+      conc(x.atHorizon, p.limit),
+      `${conc(x.peak.c, p.limit)} at ${years(x.peak.t)}`,
+      STATUS_WORDS[x.status] ?? x.status,
+    ]);
+    L.push(...pad([head, ...rows]));
+    const others = s.results.filter(({ result }) => othersDiffer(result));
+    if (others.length) {
+      L.push('');
+      L.push(`Where the other solution differs by more than ${SHOW_OTHER_ABOVE * 100} %:`);
+      for (const { receptor: r, result: x } of others) {
+        const a = x.alternate!;
+        L.push(
+          `  ${r.name || r.id}: ${SOLUTION_WORDS[a.solution]} gives arrival ${arrivalText(a.arrival, a.arrival === null ? 'below-limit' : '')}, ` +
+            `${conc(a.atHorizon, p.limit)} mg/L at the horizon, peak ${conc(a.peak.c, p.limit)} mg/L at ${years(a.peak.t)} yr (${sig(100 * a.relDiff, 2)} % apart)`,
+        );
+      }
+    }
+  }
+  L.push('');
+  L.push('Warnings');
+  if (!s.warnings.length) L.push('  none');
+  for (const w of s.warnings) L.push(...wrap(`- ${w.message}${w.field ? ` [${w.field}]` : ''}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
+  L.push('');
+  L.push('CAUTION');
+  L.push(...wrap(SCREENING_CAUTION, 96, '  '));
+  L.push('  Assumptions: ' + ASSUMPTIONS.map((a) => a.id).join(', ') + ' (full text with --format json).');
+  return L.join('\n') + '\n';
+}
+
+// ---------------------------------------------------------------------------------------------
+// json and csv
+
+function formatJson(c: Case, s: ScreeningResult, source: string): string {
+  const p = s.prepared;
+  const out = {
+    case: { id: c.id, name: c.name, file: source, contaminant: c.contaminant.name, limitNote: c.contaminant.limitNote },
+    units: { length: 'm', time: 'd', concentration: 'mg/L', velocity: 'm/d', conductivity: 'm/d', partition: 'L/kg', density: 'g/cm3', diffusion: 'm2/d', rate: '1/d', angle: 'degrees clockwise from north' },
+    solution: p.model.solution,
+    limit: p.limit,
+    horizon: p.horizon,
+    viewTime: p.viewTime === Infinity ? null : p.viewTime,
+    depth: p.depth,
+    model: { ...p.model, duration: p.model.duration === Infinity ? null : p.model.duration },
+    derived: p.derived,
+    plumeLength: s.plumeLength,
+    receptors: s.results.map(({ receptor: r, result: x }) => ({
+      id: r.id,
+      name: r.name,
+      kind: r.kind,
+      x: r.x,
+      y: r.y,
+      zTop: r.zTop,
+      zBottom: r.zBottom,
+      distance: r.distance,
+      solution: x.solution,
+      arrival: x.arrival,
+      atHorizon: x.atHorizon,
+      peak: x.peak,
+      steady: x.steady,
+      status: x.status,
+      alternate: x.alternate,
+      othersDiffer: othersDiffer(x),
+    })),
+    warnings: s.warnings,
+    caution: s.caution,
+    assumptions: ASSUMPTIONS,
+  };
+  return JSON.stringify(out, null, 2) + '\n';
+}
+
+/** RFC 4180 quoting; a leading = + - @ is neutralised so a spreadsheet never runs a formula. */
+export function csvCell(v: string | number | null): string {
+  if (v === null) return '';
+  let s = typeof v === 'number' ? String(v) : v;
+  if (typeof v === 'string' && /^[=+\-@\t\r]/.test(s)) s = "'" + s;
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+function formatCsv(c: Case, s: ScreeningResult): string {
+  const head = [
+    'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
+    'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
+    'other_solution', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
+  ];
+  const lines = [
+    ...wrap(SCREENING_CAUTION, 200).map((l) => '# ' + l),
+    `# case: ${c.name.replace(/[\r\n]+/g, ' ')}`,
+    head.join(','),
+  ];
+  for (const { receptor: r, result: x } of s.results) {
+    const a = x.alternate;
+    lines.push(
+      [
+        r.id, r.name, r.kind, r.x, r.y, r.distance, r.zTop, r.zBottom, x.solution, x.arrival, x.atHorizon, x.peak.c, x.peak.t,
+        x.steady, x.status, s.prepared.limit, s.prepared.horizon,
+        a?.solution ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
+      ]
+        .map(csvCell)
+        .join(','),
+    );
+  }
+  return lines.join('\r\n') + '\r\n';
+}
+
+// ---------------------------------------------------------------------------------------------
+
+export function run(argv: string[], out: (s: string) => void, err: (s: string) => void): number {
+  const args = parseArgs(argv);
+  if (typeof args === 'string') {
+    err(`error: ${args}\n`);
+    return EXIT.usage;
+  }
+  if (args.help) {
+    out(HELP + '\n');
+    return EXIT.ok;
+  }
+  if (!args.file) {
+    err('error: no case file given.\nusage: npm run screen -- <case.json> [--format table|json|csv]   (--help for more)\n');
+    return EXIT.usage;
+  }
+  let text: string;
+  try {
+    const st = statSync(args.file);
+    if (!st.isFile()) throw Object.assign(new Error('not a regular file'), { code: 'EISDIR' });
+    if (st.size > DEFAULT_MAX_BYTES) {
+      err(`error: ${args.file}: the file is ${st.size} bytes, larger than the ${DEFAULT_MAX_BYTES} bytes accepted for a case file\n`);
+      return EXIT.invalidCase;
+    }
+    text = readFileSync(args.file, 'utf8');
+  } catch (e) {
+    const code = (e as { code?: string }).code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'is a directory, not a case file' : (e as Error).message;
+    err(`error: cannot read ${args.file}: ${why}\n`);
+    return EXIT.unreadable;
+  }
+  const parsed = parseCaseFile(text);
+  if (!parsed.ok) {
+    err(`error: ${args.file} is not a valid case file:\n${parsed.errors.map((e) => '  - ' + e).join('\n')}\n`);
+    return EXIT.invalidCase;
+  }
+  const c = parsed.case;
+  let result: ScreeningResult;
+  try {
+    result = screenCase(c);
+  } catch (e) {
+    if (e instanceof ValidationError) {
+      err(`error: ${args.file}: ${e.message}\n  field: ${e.field}\n  accepted: ${e.range}\n`);
+      return EXIT.invalidValue;
+    }
+    err(`error: the screening failed unexpectedly: ${(e as Error)?.stack ?? String(e)}\n`);
+    return EXIT.unexpected;
+  }
+  const version = (JSON.parse(text.replace(/^\uFEFF/, '')) as { version?: number }).version;
+  const source = `${args.file} (version ${version}${version !== c.version ? `, read as version ${c.version}` : ''})`;
+  out(args.format === 'json' ? formatJson(c, result, args.file) : args.format === 'csv' ? formatCsv(c, result) : formatTable(c, result, source));
+  return EXIT.ok;
+}
+
+// Run when executed as the bundled entry point (dist-cli/screen.mjs), not when imported by tests.
+const entry = process.argv[1] ?? '';
+if (/screen\.(mjs|js)$/.test(entry)) {
+  process.exitCode = run(process.argv.slice(2), (s) => process.stdout.write(s), (s) => process.stderr.write(s));
+}
