@@ -9,7 +9,8 @@
  *   its exact inverse (the point on the ellipsoid whose tangent-plane coordinates are (e, n) on the
  *   near side), so a round trip returns the position to rounding error (sub-micrometre at 100 km).
  *   Distances measured in the plane shrink by about s²/(6R²) relative (4e-7 at 10 km; see
- *   geodesy.ts for a corrected distance).
+ *   geodesy.ts for a corrected distance). The plane's north is true north at the datum only:
+ *   elsewhere true north is turned by the meridian convergence γ ≈ −Δλ·sin φ (convergenceDeg).
  *   fromEN: point on the tangent plane → move along the datum's up axis onto the ellipsoid
  *   (a quadratic, solved in its cancellation-free form) → ECEF → geodetic by Bowring's 1976 iteration
  *   (Survey Review 23(181)), which converges to machine precision in ≤ 3 steps near the surface.
@@ -26,6 +27,14 @@ export interface LocalFrame {
   toEN(p: Position): [number, number];
   /** [east, north] metres from the datum → map position */
   fromEN(en: readonly [number, number]): Position;
+  /**
+   * Meridian convergence at p, degrees: the angle, clockwise, from the plane's north to the
+   * direction of true north at p. A direction with true azimuth α at p has azimuth α + γ in the
+   * plane (to first order; the plane's angular distortion is ~(r/R)², 1e-8 rad at 1 km).
+   * γ ≈ −Δλ·sin φ (Δλ: longitude east of the datum): −0.025° for a point 1 km east of the datum
+   * at 70° N, where true north leans west towards the pole; 0 in a local frame.
+   */
+  convergenceDeg(p: Position): number;
 }
 
 /** WGS 84 defining constants (NIMA TR8350.2, Table 3.1) */
@@ -37,7 +46,8 @@ const E2 = F * (2 - F); // first eccentricity squared
 const EP2 = E2 / (1 - E2); // second eccentricity squared
 const RAD = Math.PI / 180;
 
-/** Largest east/north offset accepted by fromEN: far beyond any site, well inside the horizon. */
+/** Largest offset from the datum accepted by toEN (straight-line) and fromEN (in the plane):
+ * far beyond any site, well inside the horizon, so every accepted value inverts exactly. */
 export const MAX_LOCAL_OFFSET_M = 1_000_000;
 
 function checkLonLat(p: readonly number[], what: string): void {
@@ -107,6 +117,10 @@ export function makeLocalFrame(frame: Frame, datum: Position): LocalFrame {
         checkEN(en, 'east/north offset');
         return [en[0], en[1]];
       },
+      convergenceDeg(p) {
+        checkEN(p, 'local position');
+        return 0;
+      },
     };
   }
   if (frame !== 'geographic') throw new RangeError(`frame must be 'geographic' or 'local', got ${String(frame)}`);
@@ -130,6 +144,12 @@ export function makeLocalFrame(frame: Frame, datum: Position): LocalFrame {
       checkLonLat(p, 'position');
       const q = geodeticToEcef(p[0], p[1]);
       const dx = q[0] - o[0], dy = q[1] - o[1], dz = q[2] - o[2];
+      // beyond site scale (or on the far side of the Earth, where the tangent plane folds back
+      // and two positions share one east/north) the result would not invert: refuse it
+      if (Math.hypot(dx, dy, dz) > MAX_LOCAL_OFFSET_M)
+        throw new RangeError(
+          `position [${p[0]}, ${p[1]}] must lie within ${MAX_LOCAL_OFFSET_M / 1000} km of the site datum [${d[0]}, ${d[1]}]`,
+        );
       return [east[0] * dx + east[1] * dy, north[0] * dx + north[1] * dy + north[2] * dz];
     },
     fromEN(en) {
@@ -153,6 +173,15 @@ export function makeLocalFrame(frame: Frame, datum: Position): LocalFrame {
       const u = (-2 * qc) / (qb + Math.sqrt(disc)); // the near-side root, without cancellation
       const g = ecefToGeodetic(o[0] + rx + u * up[0], o[1] + ry + u * up[1], o[2] + rz + u * up[2]);
       return [g.lon, g.lat];
+    },
+    convergenceDeg(p) {
+      checkLonLat(p, 'position');
+      const lp = p[0] * RAD, fp = p[1] * RAD;
+      // true north at p in ECEF, expressed in the plane's east/north
+      const nx = -Math.sin(fp) * Math.cos(lp), ny = -Math.sin(fp) * Math.sin(lp), nz = Math.cos(fp);
+      const e = east[0] * nx + east[1] * ny;
+      const n = north[0] * nx + north[1] * ny + north[2] * nz;
+      return Math.atan2(e, n) / RAD;
     },
   };
 }

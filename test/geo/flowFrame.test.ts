@@ -60,3 +60,30 @@ describe('flow frame symmetry and inverses', () => {
     expect(() => fromFlow([0, 0], 0, { x: NaN, y: 0 })).toThrow(/flow-frame point/);
   });
 });
+
+describe('map → tangent plane → flow frame chain (reference: geographiclib geodesics)', () => {
+  it('a point placed s metres along the flow azimuth (true north at the source) lands on the centreline at x = s', async () => {
+    const { makeLocalFrame } = await import('../../src/geo/projection');
+    const { geodesicDirect } = await import('./reference');
+    // tolerance: relative 1e-6 in x (tangent-plane shrink ≈ s²/6R² = 4e-7 at 10 km), and
+    // |y| ≤ 2e-6·s (normal-section vs geodesic azimuth, < 1e-4°)
+    for (const datum of [[0, 0], [-58.4, -34.6], [18.1, 69.6]] as [number, number][]) {
+      const f = makeLocalFrame('geographic', datum);
+      const source: [number, number] = [datum[0] + 0.002, datum[1] - 0.001];
+      const sourceEN = f.toEN(source);
+      // the source is off the datum's meridian: its true north is turned by the convergence
+      const gamma = f.convergenceDeg(source);
+      for (const az of [0, 45, 123.4, 200, 315]) {
+        for (const s of [50, 1000, 10_000]) {
+          const p = geodesicDirect(source, az, s);
+          const { x, y } = toFlow(sourceEN, az + gamma, f.toEN(p));
+          expect(Math.abs(x - s) / s).toBeLessThan(1e-6);
+          expect(Math.abs(y)).toBeLessThan(2e-6 * s);
+          // and back to the map, to sub-millimetre
+          const back = f.fromEN(fromFlow(sourceEN, az + gamma, { x, y }));
+          expect(Math.abs(back[1] - p[1])).toBeLessThan(1e-8);
+        }
+      }
+    }
+  });
+});

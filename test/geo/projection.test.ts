@@ -113,12 +113,32 @@ describe('makeLocalFrame: geographic (tangent plane on WGS 84)', () => {
     expect(north[1]).toBeCloseTo(geodesicInverse([8, 47], [8, 47.01]).s, 2);
   });
 
+  it('meridian convergence: zero on the datum meridian, −Δλ·sin φ beside it, 0 in a local frame', () => {
+    const f = makeLocalFrame('geographic', [18, 69.6]);
+    expect(f.convergenceDeg([18, 69.7])).toBeCloseTo(0, 12);
+    // spherical first-order value −Δλ·sin φ (elementary; agrees to O(Δλ²)): east of the datum in
+    // the northern hemisphere true north leans towards the pole, i.e. anticlockwise (west)
+    const g = f.convergenceDeg([18.03, 69.6]);
+    expect(g).toBeCloseTo(-0.03 * Math.sin((69.6 * Math.PI) / 180), 5);
+    expect(g).toBeLessThan(0);
+    // the plane's azimuth of a short step due true north from p equals γ (geographiclib step)
+    const p: Position = [18.2, 69.5];
+    const q = geodesicDirect(p, 0, 1);
+    const [e0, n0] = f.toEN(p), [e1, n1] = f.toEN(q);
+    expect(angleDiff(((Math.atan2(e1 - e0, n1 - n0) * 180) / Math.PI + 360) % 360, (f.convergenceDeg(p) + 360) % 360)).toBeLessThan(1e-5);
+    expect(makeLocalFrame('local', [0, 0]).convergenceDeg([500, 20])).toBe(0);
+  });
+
   it('rejects positions out of range with the field and range named', () => {
     expect(() => makeLocalFrame('geographic', [0, 91])).toThrow(/datum latitude.*\[-90, 90\]/);
     expect(() => makeLocalFrame('geographic', [200, 0])).toThrow(/datum longitude.*\[-180, 180\]/);
     const f = makeLocalFrame('geographic', [0, 0]);
     expect(() => f.toEN([0, NaN])).toThrow(/latitude/);
     expect(() => f.fromEN([2e6, 0])).toThrow(/within 1000 km/);
+    // far from the datum, or on the far side of the Earth, where east/north would not invert
+    expect(() => f.toEN([12, 0])).toThrow(/within 1000 km of the site datum/);
+    expect(() => f.toEN([180, 0])).toThrow(/within 1000 km of the site datum/);
+    expect(() => f.toEN([8.9, 0])).not.toThrow();
     expect(() => f.fromEN([NaN, 0])).toThrow(/finite/);
     expect(() => makeLocalFrame('mercator' as never, [0, 0])).toThrow(/frame/);
   });
