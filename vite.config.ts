@@ -1,21 +1,107 @@
-import { defineConfig } from 'vite';
+import { defineConfig, type Plugin } from 'vite';
 import preact from '@preact/preset-vite';
 import { VitePWA } from 'vite-plugin-pwa';
+import { readFileSync } from 'node:fs';
+
+const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string };
+
+/**
+ * Tile servers the app may contact (besides its own origin). Set DG_TILE_ORIGINS at build time,
+ * comma-separated origins (scheme://host[:port]); the default is OpenStreetMap's standard tile
+ * server. The list goes into the Content Security Policy (img-src, connect-src), the service
+ * worker's runtime tile cache, and the app (src/app/tilePolicy.ts), so a tile URL entered in
+ * Settings from any other host is refused with a message instead of silently failing.
+ */
+const TILE_ORIGINS = (process.env.DG_TILE_ORIGINS ?? 'https://tile.openstreetmap.org')
+  .split(',')
+  .map((s) => s.trim())
+  .filter(Boolean)
+  .map((s) => {
+    const u = new URL(s);
+    if (u.protocol !== 'https:' && u.protocol !== 'http:') throw new Error(`DG_TILE_ORIGINS: ${s} is not an http(s) origin`);
+    return u.origin;
+  });
+
+const escapeRe = (s: string) => s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&');
+const TILE_URL_PATTERN = new RegExp(`^(?:${TILE_ORIGINS.map(escapeRe).join('|')})/`);
+
+/**
+ * Content Security Policy, as a <meta http-equiv> tag injected into the built index.html (the dev
+ * server needs inline scripts for hot reload, so it runs without). No inline script or style
+ * elements; requests only to the app's own origin and the tile servers above. frame-ancestors
+ * cannot be set from a meta tag: set it as a response header where the app is hosted.
+ */
+export const CONTENT_SECURITY_POLICY = [
+  "default-src 'self'",
+  "script-src 'self'",
+  "style-src 'self'",
+  `img-src 'self' data: blob: ${TILE_ORIGINS.join(' ')}`,
+  `connect-src 'self' ${TILE_ORIGINS.join(' ')}`,
+  "worker-src 'self'",
+  "manifest-src 'self'",
+  "font-src 'self'",
+  "object-src 'none'",
+  "base-uri 'self'",
+  "form-action 'none'",
+].join('; ');
+
+function contentSecurityPolicy(): Plugin {
+  return {
+    name: 'downgradient-csp-and-manifest',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      handler: () => [
+        { tag: 'meta', attrs: { 'http-equiv': 'Content-Security-Policy', content: CONTENT_SECURITY_POLICY }, injectTo: 'head-prepend' },
+        { tag: 'link', attrs: { rel: 'manifest', href: './manifest.webmanifest' }, injectTo: 'head' },
+        { tag: 'link', attrs: { rel: 'icon', type: 'image/png', sizes: '192x192', href: './icons/icon-192.png' }, injectTo: 'head' },
+        { tag: 'link', attrs: { rel: 'apple-touch-icon', href: './icons/apple-touch-icon-180.png' }, injectTo: 'head' },
+      ],
+    },
+  };
+}
 
 // Everything shipped is precached for offline use (see DEVELOPERS.md, "Offline").
 export default defineConfig({
   base: './',
+  define: {
+    __DG_TILE_ORIGINS__: JSON.stringify(TILE_ORIGINS),
+    __APP_VERSION__: JSON.stringify(pkg.version),
+  },
   plugins: [
     preact(),
+    contentSecurityPolicy(),
     VitePWA({
       registerType: 'prompt',
       injectRegister: false,
+      // the manifest is the static public/manifest.webmanifest, linked by the plugin above
       manifest: false,
-      includeAssets: ['icons/*.png', 'icons/*.svg'],
+      includeAssets: ['icons/*.png', 'manifest.webmanifest'],
       workbox: {
         globPatterns: ['**/*.{js,css,html,svg,png,webmanifest,json}'],
         navigateFallback: 'index.html',
         cleanupOutdatedCaches: true,
+        // a new version waits until the user accepts the update prompt (unsaved work is saved first)
+        skipWaiting: false,
+        clientsClaim: false,
+        runtimeCaching: [
+          {
+            // Map tiles the user has viewed. Network first: online, each request goes through the
+            // browser's HTTP cache, so the tile server's caching headers are honoured and no extra
+            // load is made; offline (or on a link slower than 4 s) the last copy is shown. Nothing
+            // is prefetched or downloaded in bulk (OSM tile usage policy). Bounded in count and age.
+            urlPattern: TILE_URL_PATTERN,
+            handler: 'NetworkFirst',
+            options: {
+              cacheName: 'downgradient-tiles',
+              networkTimeoutSeconds: 4,
+              expiration: { maxEntries: 2000, maxAgeSeconds: 30 * 24 * 3600, purgeOnQuotaError: true },
+              // CORS responses only (the tile layer requests with crossOrigin): opaque responses
+              // would count several MB each against the storage quota
+              cacheableResponse: { statuses: [200] },
+            },
+          },
+        ],
       },
     }),
   ],
