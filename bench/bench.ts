@@ -1,0 +1,227 @@
+/**
+ * `npm run bench`: throughput of the transport engine, printed from one run.
+ *
+ * Figures (cells per second, median of repetitions, ≥ 0.5 s of repetitions each; see timing.ts):
+ *   - a bare loop of erf (src/core/special/erf.ts) over the very arguments the Domenico grid's
+ *     lateral factor passes to it: the machine's unit of work;
+ *   - domenicoGrid, 512 × 512, with y values mirrored about the axis (as a map grid centred on the
+ *     plume is) and with y values that mirror nothing;
+ *   - patchSourceExactGrid, 64 × 64, at its stated accuracy (relTol 1e-6);
+ *   - breakthroughCurve, 10 wells × 500 times, Domenico and exact models;
+ * each also as erf-times per cell (seconds per cell / seconds per erf call). Beside them the same
+ * grids evaluated by bench/numpy_grids.py (vectorised numpy/scipy, run as a child process) and the
+ * ratio JS/numpy, with the agreement of the JS grids with numpy's and numpy's own accuracy check.
+ * Then the contour pipeline (bench/contourPipeline.ts). Targets are printed with whether they are met.
+ * Options: --no-numpy (JS figures only), --json <file> (also write every figure as JSON).
+ * Nothing here asserts on time; tests never do.
+ */
+import { cpus } from 'node:os';
+import { writeFileSync } from 'node:fs';
+import { erf } from '../src/core/special/erf';
+import { breakthroughCurve, domenicoGrid, patchSourceExactGrid } from '../src/core/index';
+import type { ScreeningModel } from '../src/core/model';
+import { DEFAULT_RULES, sumOf, timeFigure, type Timing } from './timing';
+import { runNumpy, type NumpyAnswer, type NumpyGrid } from './numpyRunner';
+import { ratio, sci, seconds, si, table, targetTable, type Target } from './report';
+import { AX, AY, AZ, DECAY, R, T, THICKNESS, V, WIDTH, Z, benchModel, benchTimes, benchWells, gridXs, gridYs } from './scenario';
+import { measureContourPipeline } from './contourPipeline';
+
+const REL_TOL = 1e-6;
+const ABS_TOL = 1e-13;
+const FLOOR = 1e-12;
+
+interface Figure {
+  readonly label: string;
+  readonly cells: number;
+  readonly timing: Timing;
+  readonly cellsPerSecond: number;
+  /** seconds per cell / seconds per erf call */
+  readonly erfTimesPerCell: number;
+}
+
+function argValue(name: string): string | undefined {
+  const k = process.argv.indexOf(name);
+  return k >= 0 ? process.argv[k + 1] : undefined;
+}
+
+/** The arguments erf receives in the Domenico grid's lateral factor: (y ± W/2)/(2√(αy x)). */
+function lateralArguments(xs: Float64Array, ys: Float64Array): Float64Array {
+  const args = new Float64Array(2 * xs.length * ys.length);
+  let k = 0;
+  for (let i = 0; i < xs.length; i++) {
+    const s = 2 * Math.sqrt(AY * xs[i]);
+    for (let j = 0; j < ys.length; j++) {
+      args[k++] = (ys[j] + WIDTH / 2) / s;
+      args[k++] = (ys[j] - WIDTH / 2) / s;
+    }
+  }
+  return args;
+}
+
+function main(): void {
+  const withNumpy = !process.argv.includes('--no-numpy');
+  const jsonPath = argValue('--json');
+  const rules = DEFAULT_RULES;
+  console.log('Downgradient benchmark: transport engine throughput');
+  console.log(`node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'} (${cpus().length} cores; all figures single-threaded)`);
+  console.log(
+    `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up; inputs built before the clock`,
+  );
+  console.log(
+    `scenario (invented): v = ${V} m/d, R = ${R}, αx/αy/αz = ${AX}/${AY}/${AZ} m, half-life 730 d, source ${WIDTH} m × ${THICKNESS} m, z = ${Z} m, t = ${T} d\n`,
+  );
+
+  // ---- inputs, all built before any clock starts
+  const base = { z: Z, t: T, v: V, ax: AX, ay: AY, az: AZ, width: WIDTH, thickness: THICKNESS, R, decay: DECAY };
+  const dXs = gridXs(512);
+  const dYsSym = gridYs(512, true);
+  const dYsAsym = gridYs(512, false);
+  const eXs = gridXs(64);
+  const eYs = gridYs(64, true);
+  const erfArgs = lateralArguments(dXs, dYsAsym);
+  const wells = benchWells();
+  const times = benchTimes(500);
+  const models: [string, ScreeningModel][] = [
+    ['Domenico', benchModel('domenico')],
+    ['exact', benchModel('exact')],
+  ];
+  const grids = {
+    domSym: { ...base, xs: dXs, ys: dYsSym },
+    domAsym: { ...base, xs: dXs, ys: dYsAsym },
+    exact: { ...base, xs: eXs, ys: eYs },
+  };
+
+  // ---- the unit of work: a bare erf loop
+  const erfTiming = timeFigure(() => {
+    let s = 0;
+    for (let k = 0; k < erfArgs.length; k++) s += erf(erfArgs[k]);
+    return s;
+  }, rules);
+  const secPerErf = erfTiming.medianSeconds / erfArgs.length;
+  const erfPerSecond = 1 / secPerErf;
+  const figure = (label: string, cells: number, timing: Timing): Figure => ({
+    label,
+    cells,
+    timing,
+    cellsPerSecond: cells / timing.medianSeconds,
+    erfTimesPerCell: timing.medianSeconds / cells / secPerErf,
+  });
+
+  // ---- grids
+  const domSym = figure('Domenico grid 512×512, y mirrored', dXs.length * dYsSym.length, timeFigure(() => domenicoGrid(grids.domSym), rules));
+  const domAsym = figure('Domenico grid 512×512, y not mirrored', dXs.length * dYsAsym.length, timeFigure(() => domenicoGrid(grids.domAsym), rules));
+  const exact = figure(
+    `exact grid 64×64 (relTol ${REL_TOL.toExponential(0)}), y mirrored`,
+    eXs.length * eYs.length,
+    timeFigure(() => patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL }), rules),
+  );
+
+  // ---- breakthrough curves
+  const btc = models.map(([name, model]) =>
+    figure(
+      `breakthrough ${wells.length} wells × ${times.length} times, ${name}`,
+      wells.length * times.length,
+      timeFigure(
+        () => {
+          let s = 0;
+          for (const w of wells) s += sumOf(breakthroughCurve(model, w, times));
+          return s;
+        },
+        // seconds per repetition for the exact model: three repetitions make its median
+        model.solution === 'exact' ? { ...rules, minReps: 3, warmupSeconds: 0 } : rules,
+      ),
+    ),
+  );
+
+  // ---- numpy, on the same grids; the JS results go along for the agreement check
+  let numpy: NumpyAnswer | { error: string } | null = null;
+  if (withNumpy) {
+    const jsGrid = (label: string, p: typeof grids.domSym, values: Float64Array): NumpyGrid => ({ label, ...p, jsGrid: values });
+    numpy = runNumpy({
+      rules,
+      relTol: REL_TOL,
+      absTol: ABS_TOL,
+      floor: FLOOR,
+      domenico: [
+        jsGrid('sym', grids.domSym, domenicoGrid(grids.domSym)),
+        jsGrid('asym', grids.domAsym, domenicoGrid(grids.domAsym)),
+      ],
+      exact: [jsGrid('sym', grids.exact, patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL }))],
+    });
+  }
+  const np = numpy && !('error' in numpy) ? numpy : null;
+  const npFigures = np ? [np.domenico[0], np.domenico[1], np.exact[0]] : [];
+
+  // ---- contour pipeline (issue 3)
+  const contour = measureContourPipeline(benchModel('domenico'), { n: 256, z: Z, t: T, rules });
+
+  // ---- print
+  const rows = [domSym, domAsym, exact].map((f, k) => {
+    const n = npFigures[k];
+    return [
+      f.label,
+      `${si(f.cellsPerSecond)}cells/s`,
+      seconds(f.timing.medianSeconds),
+      `${f.erfTimesPerCell.toFixed(2)}`,
+      n ? `${si(n.cellsPerSecond)}cells/s` : '—',
+      n ? ratio(f.cellsPerSecond / n.cellsPerSecond) : '—',
+    ];
+  });
+  for (const f of btc) {
+    rows.push([f.label, `${si(f.cellsPerSecond)}values/s`, seconds(f.timing.medianSeconds), f.erfTimesPerCell.toFixed(2), '', '']);
+  }
+  console.log(`bare erf loop: ${si(erfPerSecond)}calls/s (${seconds(erfTiming.medianSeconds)} per ${erfArgs.length} calls on the Domenico grid's own arguments)\n`);
+  console.log(table(['figure', 'JS rate', 'JS median', 'erf-times/cell', 'numpy rate', 'JS/numpy'], rows));
+  console.log('');
+
+  if (numpy && 'error' in numpy) console.log(`numpy comparison not run: ${numpy.error}\n`);
+  if (np) {
+    const e = np.exact[0];
+    console.log(`numpy ${np.numpy}, scipy ${np.scipy}, python ${np.python} (bench/numpy_grids.py, one thread)`);
+    console.log(
+      `  scipy.special.erf on the same ${np.erf.calls} arguments: ${si(np.erf.callsPerSecond)}calls/s; JS erf / scipy erf = ${ratio(erfPerSecond / np.erf.callsPerSecond)}`,
+    );
+    console.log(
+      `  exact grid in numpy: ${e.nodes}-point Gauss–Legendre per column; against a ${e.fineNodes}-point rule: column-relative error ${sci(e.achievedRelError)} (wanted ≤ ${REL_TOL.toExponential(0)}), cell-relative ${sci(e.achievedCellRelError)} (floor ${FLOOR})`,
+    );
+    console.log(`  numpy's integral with a whole-plane source vs the Ogata–Banks closed form: ${sci(e.ogataBanksCheck)} (cell-relative)`);
+    console.log(
+      `  JS vs numpy, whole grids: Domenico mirrored ${sci(np.domenico[0].jsVsNumpyCellRel)}, not mirrored ${sci(np.domenico[1].jsVsNumpyCellRel)} (cell-relative, floor ${FLOOR});`,
+    );
+    console.log(
+      `  exact ${sci(e.jsVsFineColumnRel)} column-relative, ${sci(e.jsVsFineCellRel)} cell-relative (JS at relTol ${REL_TOL.toExponential(0)} vs numpy's ${e.fineNodes}-point rule)\n`,
+    );
+  }
+
+  console.log(
+    `contour pipeline, ${contour.n}×${contour.n} Domenico grid, ${contour.thresholds.length} thresholds (${contour.thresholds.map((t) => `${t}`).join(', ')} mg/L):`,
+  );
+  console.log(
+    `  concentrationGrid ${seconds(contour.compute.medianSeconds)}; + contourBands ${seconds(contour.total.medianSeconds)}; (compute + contour)/compute = ${ratio(contour.ratio)}; ${contour.rings} rings\n`,
+  );
+
+  const npRatio = (k: number) => (npFigures[k] ? [domSym, domAsym, exact][k].cellsPerSecond / npFigures[k].cellsPerSecond : null);
+  const targets: Target[] = [
+    { name: 'Domenico grid vs numpy (mirrored)', wanted: '≥ 3×', measured: ratio(npRatio(0) ?? NaN), met: npRatio(0) === null ? null : npRatio(0)! >= 3 },
+    { name: 'Domenico grid vs numpy (not mirrored)', wanted: '≥ 3×', measured: ratio(npRatio(1) ?? NaN), met: npRatio(1) === null ? null : npRatio(1)! >= 3 },
+    { name: `exact grid vs numpy at relTol ${REL_TOL.toExponential(0)}`, wanted: '≥ 5×', measured: ratio(npRatio(2) ?? NaN), met: npRatio(2) === null ? null : npRatio(2)! >= 5 },
+    { name: 'Domenico grid cost (mirrored)', wanted: '≤ 2 erf-times/cell', measured: domSym.erfTimesPerCell.toFixed(2), met: domSym.erfTimesPerCell <= 2 },
+    { name: 'Domenico grid cost (not mirrored)', wanted: '≤ 2 erf-times/cell', measured: domAsym.erfTimesPerCell.toFixed(2), met: domAsym.erfTimesPerCell <= 2 },
+  ];
+  console.log(targetTable(targets));
+
+  const sink =
+    erfTiming.sink +
+    [domSym, domAsym, exact, ...btc].reduce((s, f) => s + f.timing.sink, 0) +
+    contour.compute.sink +
+    contour.total.sink;
+  console.log(`\nsink (sum of every result, so nothing is optimised away): ${sink}`);
+
+  if (jsonPath) {
+    const out = { erfPerSecond, erf: erfTiming, figures: [domSym, domAsym, exact, ...btc], numpy, contour, targets };
+    writeFileSync(jsonPath, JSON.stringify(out, (_k, v: unknown) => (v === Infinity ? 'Infinity' : v), 2));
+    console.log(`figures written to ${jsonPath}`);
+  }
+}
+
+main();

@@ -1,0 +1,63 @@
+/**
+ * The contour pipeline's cost (issue 3): a flow-aligned n × n grid by concentrationGrid, then the
+ * filled bands by contourBands (src/geo/contours.ts). Prints compute-only and compute + contour
+ * times and their ratio; the browser measurement of the whole input-change-to-redraw latency builds
+ * on this (same grid, same thresholds). Inputs are built before the clock; results go to the sink.
+ */
+import { concentrationGrid } from '../src/core/index';
+import type { ScreeningModel } from '../src/core/model';
+import { contourBands } from '../src/geo/contours';
+import { DEFAULT_RULES, timeFigure, type Timing, type TimingRules } from './timing';
+import { gridXs, gridYs } from './scenario';
+
+export interface ContourPipelineOptions {
+  /** lattice size n × n (256 by default) */
+  readonly n?: number;
+  readonly z: number;
+  /** time, d (Infinity: steady state) */
+  readonly t: number;
+  /** band thresholds, mg/L; by default three decades below the source concentration */
+  readonly thresholds?: readonly number[];
+  readonly rules?: TimingRules;
+}
+
+export interface ContourPipelineFigure {
+  readonly n: number;
+  readonly thresholds: readonly number[];
+  readonly compute: Timing;
+  readonly total: Timing;
+  /** total / compute */
+  readonly ratio: number;
+  /** rings drawn (exteriors and holes), from one evaluation */
+  readonly rings: number;
+}
+
+/** Rings and vertices of every band, so the contour result is consumed. */
+function ringsAndVertices(bands: ReturnType<typeof contourBands>): { rings: number; vertices: number } {
+  let rings = 0;
+  let vertices = 0;
+  for (const b of bands)
+    for (const poly of b.polygons)
+      for (const ring of poly) {
+        rings++;
+        vertices += ring.length;
+      }
+  return { rings, vertices };
+}
+
+export function measureContourPipeline(model: ScreeningModel, opts: ContourPipelineOptions): ContourPipelineFigure {
+  const n = opts.n ?? 256;
+  const rules = opts.rules ?? DEFAULT_RULES;
+  const xs = gridXs(n);
+  const ys = gridYs(n, true);
+  const thresholds = opts.thresholds ?? [model.c0 * 1e-1, model.c0 * 1e-2, model.c0 * 1e-3];
+  const { z, t } = opts;
+  const compute = timeFigure(() => concentrationGrid(model, xs, ys, z, t), rules);
+  const total = timeFigure(() => {
+    const values = concentrationGrid(model, xs, ys, z, t);
+    const bands = contourBands({ values, xs, ys, thresholds });
+    return ringsAndVertices(bands).vertices + values[values.length >> 1];
+  }, rules);
+  const rings = ringsAndVertices(contourBands({ values: concentrationGrid(model, xs, ys, z, t), xs, ys, thresholds })).rings;
+  return { n, thresholds, compute, total, ratio: total.medianSeconds / compute.medianSeconds, rings };
+}
