@@ -10,8 +10,9 @@ import { CaseFormatError, migrateCase } from './migrate';
 export const DEFAULT_MAX_BYTES = 2 * 1024 * 1024;
 /** deepest nesting of objects and lists accepted (a valid case nests 6 deep) */
 export const MAX_DEPTH = 16;
-/** longest single string accepted before the schema's own per-field limits are checked */
-export const MAX_STRING = 20_000;
+/** longest single string (as written, escapes included) accepted before the schema checks its
+ * own per-field limits (notes: 20 000 characters) */
+export const MAX_STRING = 100_000;
 /** keys that could reach an object's prototype when data is later merged or spread */
 const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
@@ -52,7 +53,8 @@ function scanStructure(text: string): string | null {
       if (ch === 0x5c) i++; // backslash: skip the escaped character
       else if (ch === 0x22) {
         inString = false;
-        if (i - start > MAX_STRING) return `a text value of ${i - start} characters is longer than the ${MAX_STRING} accepted`;
+        // raw length between the quotes (an escape sequence counts as its written characters)
+        if (i - start - 1 > MAX_STRING) return `a text value of ${i - start - 1} characters is longer than the ${MAX_STRING} accepted`;
       }
     } else if (ch === 0x22) {
       inString = true;
