@@ -123,8 +123,18 @@ export class Autosaver {
       void this.flush();
       void this.enqueue(async () => {
         const rec = await this.store.getRecord(c.id);
+        if (rec && JSON.stringify(rec.data) !== JSON.stringify(c)) {
+          // A different version of a stored case was put on screen (e.g. an older file copy):
+          // never overwrite the stored one unasked.
+          this.cancelTimer();
+          this.current = c;
+          this.revision = rec.revision;
+          this.savedJson = null;
+          const read = readCaseData(rec.data);
+          this.setState({ kind: 'conflict', theirs: rec, theirsCase: read.ok ? read.case : null });
+          return;
+        }
         this.open(c, rec?.revision ?? null);
-        if (rec && JSON.stringify(rec.data) !== JSON.stringify(c)) this.schedule();
       }).catch((e) => this.setState({ kind: 'error', message: `Could not open the case in storage (${String(e)}).` }));
       return;
     }

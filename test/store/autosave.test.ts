@@ -241,3 +241,37 @@ describe('Autosaver', () => {
     storeB.close();
   });
 });
+
+describe('Autosaver, switching cases', () => {
+  it('saves the previous case, then stores a new one put on screen', async () => {
+    const store = await CaseStore.open();
+    const a = new Autosaver(store, { timers: new ManualTimers() });
+    const c1 = sampleCase('First');
+    a.open(c1, null);
+    a.change(edit(c1, 'edited first'));
+    const c2 = sampleCase('Second');
+    a.change(c2);
+    await a.flush();
+    await a.flush();
+    expect(((await store.getRecord(c1.id))?.data as Case).notes).toBe('edited first');
+    expect((await store.getRecord(c2.id))?.revision).toBe(1);
+    a.dispose();
+    store.close();
+  });
+
+  it('a different version of a stored case put on screen is not saved over it unasked', async () => {
+    const store = await CaseStore.open();
+    const c1 = sampleCase('Stored');
+    await store.save(edit(c1, 'newer, stored'), null);
+    const other = sampleCase('Other');
+    const a = new Autosaver(store, { timers: new ManualTimers() });
+    a.open(other, null);
+    await a.flush();
+    a.change(edit(c1, 'older file copy'));
+    await a.flush();
+    expect(a.state.kind).toBe('conflict');
+    expect(((await store.getRecord(c1.id))?.data as Case).notes).toBe('newer, stored');
+    a.dispose();
+    store.close();
+  });
+});
