@@ -1,0 +1,215 @@
+/**
+ * Comparing two cases (typically a parent and its what-if variant): which inputs differ, and what
+ * that does to each receptor's result. Pure: the component feeds it two cases and their results.
+ *
+ * Quantities are compared in internal units, so "10 m/d" and "0.000115740… m/s" are the same
+ * input; bookkeeping fields (id, dates, parent link, notes) are not inputs and are left out.
+ * Receptors are matched by id (a variant keeps its parent's receptor ids), then by name.
+ */
+import type { Case } from '../../case/schema';
+import { UNITS } from '../../core/units';
+
+export interface Difference {
+  /** dotted path in the case, e.g. aquifer.hydraulicConductivity */
+  path: string;
+  label: string;
+  a: string;
+  b: string;
+}
+
+const SKIP = new Set(['format', 'version', 'id', 'name', 'created', 'modified', 'parentId', 'notes']);
+
+const LABELS: Record<string, string> = {
+  'site.frame': 'Map frame',
+  'site.datum': 'Site datum',
+  'site.source.position': 'Release position',
+  'site.source.footprint': 'Release footprint',
+  'site.source.width': 'Source width across flow',
+  'site.flow.method': 'Flow from',
+  'site.flow.azimuthDeg': 'Flow direction (° from north)',
+  'site.flow.gradient': 'Hydraulic gradient',
+  'site.flow.readings': 'Head readings',
+  'aquifer.hydraulicConductivity': 'Hydraulic conductivity K',
+  'aquifer.effectivePorosity': 'Effective porosity nₑ',
+  'aquifer.totalPorosity': 'Total porosity n',
+  'aquifer.bulkDensity': 'Bulk density ρb',
+  'aquifer.fractionOrganicCarbon': 'Fraction of organic carbon foc',
+  'aquifer.dispersivity.mode': 'Dispersivity',
+  'aquifer.dispersivity.relation': 'Dispersivity scale relation',
+  'aquifer.dispersivity.transverseRatio': 'αT / αL',
+  'aquifer.dispersivity.verticalRatio': 'αV / αL',
+  'aquifer.dispersivity.longitudinal': 'Longitudinal dispersivity αL',
+  'aquifer.dispersivity.transverse': 'Transverse dispersivity αT',
+  'aquifer.dispersivity.vertical': 'Vertical dispersivity αV',
+  'aquifer.diffusion.include': 'Molecular diffusion',
+  'aquifer.diffusion.freeWater': 'Free-water diffusion coefficient',
+  'aquifer.diffusion.tortuosity': 'Tortuosity',
+  'contaminant.name': 'Contaminant',
+  'contaminant.presetId': 'Contaminant preset',
+  'contaminant.sorption.mode': 'Sorption given as',
+  'contaminant.sorption.koc': 'Koc',
+  'contaminant.sorption.kd': 'Kd',
+  'contaminant.halfLife': 'Biodegradation half-life',
+  'contaminant.decayPhase': 'Decay acts on',
+  'contaminant.limit': 'Concentration limit',
+  'contaminant.limitNote': 'Limit note',
+  'source.concentration': 'Source concentration C0',
+  'source.thickness': 'Source thickness',
+  'source.duration': 'Release duration',
+  'source.sourceHalfLife': 'Source half-life',
+  'evaluation.solution': 'Solution',
+  'evaluation.horizon': 'Horizon',
+  'evaluation.viewTime': 'Map time',
+  'evaluation.depth': 'Map depth',
+};
+
+type Q = { value: number; unit: string };
+
+function isQuantity(v: unknown): v is Q {
+  return !!v && typeof v === 'object' && typeof (v as Q).value === 'number' && typeof (v as Q).unit === 'string';
+}
+
+function internal(q: Q): number {
+  const f = UNITS[q.unit]?.factor;
+  return f === undefined ? NaN : q.value * f;
+}
+
+/** Equal to 12 significant digits (unit conversions are not exact in binary). */
+function sameNumber(x: number, y: number): boolean {
+  if (x === y) return true;
+  return Math.abs(x - y) <= 1e-12 * Math.max(Math.abs(x), Math.abs(y));
+}
+
+export function show(v: unknown): string {
+  if (v === null || v === undefined) return 'none';
+  if (isQuantity(v)) return `${Number(v.value.toPrecision(6))} ${UNITS[v.unit]?.label ?? v.unit}`;
+  if (typeof v === 'number') return String(Number(v.toPrecision(6)));
+  if (typeof v === 'boolean') return v ? 'yes' : 'no';
+  if (typeof v === 'string') return v || '(empty)';
+  if (Array.isArray(v)) {
+    if (v.length === 2 && v.every((x) => typeof x === 'number')) return `${show(v[0])}, ${show(v[1])}`;
+    return `${v.length} item${v.length === 1 ? '' : 's'}`;
+  }
+  return 'set';
+}
+
+function label(path: string): string {
+  return LABELS[path] ?? path;
+}
+
+function walk(a: unknown, b: unknown, path: string, out: Difference[]): void {
+  if (isQuantity(a) && isQuantity(b)) {
+    if (!sameNumber(internal(a), internal(b))) out.push({ path, label: label(path), a: show(a), b: show(b) });
+    return;
+  }
+  if (typeof a === 'number' && typeof b === 'number') {
+    if (!sameNumber(a, b)) out.push({ path, label: label(path), a: show(a), b: show(b) });
+    return;
+  }
+  const objA = a !== null && typeof a === 'object' && !Array.isArray(a);
+  const objB = b !== null && typeof b === 'object' && !Array.isArray(b);
+  if (objA && objB && !isQuantity(a) && !isQuantity(b)) {
+    const ra = a as Record<string, unknown>;
+    const rb = b as Record<string, unknown>;
+    // a mode switch (e.g. dispersivity estimate → given) is one difference, then the fields of each
+    if ('mode' in ra && ra.mode !== rb.mode) out.push({ path: `${path}.mode`, label: label(`${path}.mode`), a: show(ra.mode), b: show(rb.mode) });
+    if ('method' in ra && ra.method !== rb.method) out.push({ path: `${path}.method`, label: label(`${path}.method`), a: show(ra.method), b: show(rb.method) });
+    for (const k of new Set([...Object.keys(ra), ...Object.keys(rb)])) {
+      if ((k === 'mode' || k === 'method') && ra[k] !== rb[k]) continue;
+      const p = path ? `${path}.${k}` : k;
+      if (!path && SKIP.has(k)) continue;
+      if (p === 'site.receptors') continue;
+      walk(ra[k], rb[k], p, out);
+    }
+    return;
+  }
+  if (JSON.stringify(a) !== JSON.stringify(b)) out.push({ path, label: label(path), a: show(a), b: show(b) });
+}
+
+const RECEPTOR_LABELS: Record<string, string> = {
+  kind: 'kind',
+  position: 'position',
+  screenTop: 'screen top',
+  screenBottom: 'screen bottom',
+  pumping: 'pumping',
+  pumpingRate: 'pumping rate',
+};
+
+/** The inputs that differ between two cases, in the order of the case file. */
+export function inputDifferences(a: Case, b: Case): Difference[] {
+  const out: Difference[] = [];
+  walk(a, b, '', out);
+  const ra = a.site.receptors;
+  const rb = b.site.receptors;
+  const matched = new Set<string>();
+  for (const x of ra) {
+    const y = rb.find((r) => r.id === x.id) ?? rb.find((r) => r.name === x.name && !matched.has(r.id));
+    if (!y) {
+      out.push({ path: `site.receptors.${x.id}`, label: `Receptor “${x.name}”`, a: 'present', b: 'absent' });
+      continue;
+    }
+    matched.add(y.id);
+    for (const k of Object.keys(RECEPTOR_LABELS) as (keyof typeof x)[]) {
+      const inner: Difference[] = [];
+      walk(x[k], y[k], k, inner);
+      for (const d of inner) out.push({ ...d, path: `site.receptors.${x.id}.${k}`, label: `${x.name}: ${RECEPTOR_LABELS[k]}` });
+    }
+    if (x.name !== y.name) out.push({ path: `site.receptors.${x.id}.name`, label: `Receptor name`, a: x.name, b: y.name });
+  }
+  for (const y of rb) {
+    if (!matched.has(y.id)) out.push({ path: `site.receptors.${y.id}`, label: `Receptor “${y.name}”`, a: 'absent', b: 'present' });
+  }
+  return out;
+}
+
+export interface ReceptorOutcome {
+  id: string;
+  name: string;
+  status: string;
+  arrival: number | null;
+  peak: { c: number; t: number };
+  atHorizon: number;
+}
+
+export interface ReceptorChange {
+  name: string;
+  a: ReceptorOutcome | null;
+  b: ReceptorOutcome | null;
+  /** plain words: what the change does at this receptor */
+  effect: string;
+}
+
+function years(d: number): string {
+  return d < 365.25 ? `${Number(d.toPrecision(3))} d` : `${Number((d / 365.25).toPrecision(3))} yr`;
+}
+
+export function describeChange(a: ReceptorOutcome | null, b: ReceptorOutcome | null): string {
+  if (!a) return 'only in the second case';
+  if (!b) return 'only in the first case';
+  const parts: string[] = [];
+  if (a.arrival === null && b.arrival !== null) parts.push(`now reaches the limit, after ${years(b.arrival)}`);
+  else if (a.arrival !== null && b.arrival === null) parts.push('no longer reaches the limit within the horizon');
+  else if (a.arrival !== null && b.arrival !== null && !sameNumber(a.arrival, b.arrival)) {
+    const dt = b.arrival - a.arrival;
+    parts.push(`reaches the limit ${years(Math.abs(dt))} ${dt < 0 ? 'sooner' : 'later'}`);
+  }
+  if (a.peak.c > 0 && b.peak.c > 0 && !sameNumber(a.peak.c, b.peak.c)) {
+    const r = b.peak.c / a.peak.c;
+    parts.push(`peak ×${Number(r.toPrecision(3))}`);
+  } else if (a.peak.c === 0 && b.peak.c > 0) parts.push('peak rises from zero');
+  else if (a.peak.c > 0 && b.peak.c === 0) parts.push('peak falls to zero');
+  return parts.length ? parts.join('; ') : 'no change';
+}
+
+/** Each receptor's result in both cases (matched by id, then by name). */
+export function receptorChanges(a: readonly ReceptorOutcome[], b: readonly ReceptorOutcome[]): ReceptorChange[] {
+  const used = new Set<string>();
+  const out: ReceptorChange[] = [];
+  for (const x of a) {
+    const y = b.find((r) => r.id === x.id && !used.has(r.id)) ?? b.find((r) => r.name === x.name && !used.has(r.id)) ?? null;
+    if (y) used.add(y.id);
+    out.push({ name: x.name, a: x, b: y, effect: describeChange(x, y) });
+  }
+  for (const y of b) if (!used.has(y.id)) out.push({ name: y.name, a: null, b: y, effect: describeChange(null, y) });
+  return out;
+}

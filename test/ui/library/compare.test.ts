@@ -1,0 +1,94 @@
+// Case comparison: differences found in internal units (unit factors from src/core/units.ts, whose
+// definitions cite NIST), bookkeeping fields ignored, receptors matched by id then name.
+import { describe, expect, it } from 'vitest';
+import { inputDifferences, receptorChanges, describeChange, type ReceptorOutcome } from '../../../src/ui/library/compare';
+import { newCase } from '../../../src/case/defaults';
+import type { Case } from '../../../src/case/schema';
+
+function withWell(c: Case): Case {
+  c.site.receptors.push({
+    id: 'w1',
+    name: 'Supply well',
+    kind: 'well',
+    position: [100, 0],
+    screenTop: { value: 2, unit: 'm' },
+    screenBottom: { value: 8, unit: 'm' },
+    pumping: false,
+    pumpingRate: null,
+  });
+  return c;
+}
+
+describe('inputDifferences', () => {
+  const base = withWell(newCase({ name: 'Base' }));
+
+  it('a copy with new id, name, dates and notes has no input differences', () => {
+    const v = { ...structuredClone(base), id: 'other', name: 'Variant', parentId: base.id, notes: 'what if', created: 'x', modified: 'y' };
+    expect(inputDifferences(base, v)).toEqual([]);
+  });
+
+  it('the same quantity in another unit is not a difference (10 m/d = 10/86400 m/s exactly)', () => {
+    const v = structuredClone(base);
+    v.aquifer.hydraulicConductivity = { value: 10 / 86400, unit: 'K:m/s' };
+    v.source.thickness = { value: 3 / 0.3048, unit: 'ft' }; // international foot = 0.3048 m exactly (NIST)
+    expect(inputDifferences(base, v)).toEqual([]);
+  });
+
+  it('lists changed inputs with labels and both values, and receptor changes by name', () => {
+    const v = structuredClone(base);
+    v.aquifer.hydraulicConductivity = { value: 25, unit: 'K:m/d' };
+    v.contaminant.halfLife = { value: 1, unit: 'yr' };
+    v.site.receptors[0].screenBottom = { value: 12, unit: 'm' };
+    v.site.receptors.push({ ...v.site.receptors[0], id: 'w2', name: 'Garden well' });
+    const d = inputDifferences(base, v);
+    expect(d.map((x) => x.label)).toEqual([
+      'Hydraulic conductivity K',
+      'Biodegradation half-life',
+      'Supply well: screen bottom',
+      'Receptor “Garden well”',
+    ]);
+    expect(d[0]).toMatchObject({ a: '10 m/d', b: '25 m/d' });
+    expect(d[1]).toMatchObject({ a: 'none', b: '1 years' });
+    expect(d[3]).toMatchObject({ a: 'absent', b: 'present' });
+  });
+
+  it('a switch of dispersivity mode is one labelled difference plus the new fields', () => {
+    const v = structuredClone(base);
+    v.aquifer.dispersivity = {
+      mode: 'given',
+      longitudinal: { value: 5, unit: 'm' },
+      transverse: { value: 0.5, unit: 'm' },
+      vertical: { value: 0.05, unit: 'm' },
+    };
+    const d = inputDifferences(base, v);
+    expect(d[0]).toMatchObject({ label: 'Dispersivity', a: 'estimate', b: 'given' });
+    expect(d.some((x) => x.label === 'Longitudinal dispersivity αL' && x.a === 'none' && x.b === '5 m')).toBe(true);
+  });
+});
+
+describe('receptorChanges', () => {
+  const r = (id: string, name: string, arrival: number | null, peak: number): ReceptorOutcome => ({
+    id,
+    name,
+    status: arrival === null ? 'below-limit' : 'reaches-limit',
+    arrival,
+    peak: { c: peak, t: 1000 },
+    atHorizon: peak,
+  });
+
+  it('says in words what changed at each receptor', () => {
+    expect(describeChange(r('a', 'A', 3652.5, 0.01), r('a', 'A', 1826.25, 0.02))).toBe('reaches the limit 5 yr sooner; peak ×2');
+    expect(describeChange(r('a', 'A', null, 0.001), r('a', 'A', 400, 0.01))).toMatch(/^now reaches the limit, after 1.1 yr/);
+    expect(describeChange(r('a', 'A', 400, 0.01), r('a', 'A', null, 0.001))).toMatch(/no longer reaches/);
+    expect(describeChange(r('a', 'A', 400, 0.01), r('a', 'A', 400, 0.01))).toBe('no change');
+  });
+
+  it('matches by id, then by name, and keeps receptors only in one case', () => {
+    const out = receptorChanges([r('1', 'Well', 10, 1), r('2', 'Creek', null, 0)], [r('x', 'Well', 10, 1), r('3', 'Spring', null, 0)]);
+    expect(out.map((o) => [o.name, o.effect])).toEqual([
+      ['Well', 'no change'],
+      ['Creek', 'only in the first case'],
+      ['Spring', 'only in the second case'],
+    ]);
+  });
+});
