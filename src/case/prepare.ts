@@ -86,7 +86,10 @@ export interface Derived {
   readonly sourceDecay: number;
   readonly diffusion: number;
   readonly gradient: number;
+  /** flow direction, degrees clockwise from true north at the source */
   readonly azimuthDeg: number;
+  /** the same direction in the site datum's east/north plane (differs by the meridian convergence) */
+  readonly planeAzimuthDeg: number;
   readonly width: number;
   readonly widthFromFootprint: boolean;
   readonly headFit: HeadFit | null;
@@ -129,14 +132,9 @@ function quantityIn(field: string, q: Q, check: (v: number) => boolean, range: s
     throw new ValidationError(`${field}.unit`, q.unit, 'a known unit');
   }
   const v = q.value * def.factor;
-  if (!check(v)) throw new ValidationError(field, q.value, rangeIn(range, q.unit));
+  // every range given here is either unit-free (> 0, ≥ 0) or states its own unit
+  if (!check(v)) throw new ValidationError(field, q.value, range);
   return v;
-}
-
-/** The accepted range is stated in internal units; say so when the user chose another unit. */
-function rangeIn(range: string, unit: string): string {
-  const def = unitDef(unit);
-  return def.factor === 1 ? range : `${range} (in internal units; the value is in ${def.label})`;
 }
 
 const positive = (v: number) => Number.isFinite(v) && v > 0;
@@ -176,11 +174,16 @@ export function prepareCase(c: Case): PreparedCase {
 
   // flow
   let gradient: number;
+  /** true azimuth at the source (what the user reads and enters) */
   let azimuthDeg: number;
+  /** the same direction in the datum's tangent plane: true azimuth + meridian convergence γ */
+  let planeAzimuthDeg: number;
   let headFit: HeadFit | null = null;
+  const convergence = at('site.source.position', site.source.position, posRange, () => frame.convergenceDeg(site.source.position));
   if (site.flow.method === 'direction') {
     if (!Number.isFinite(site.flow.azimuthDeg)) throw new ValidationError('site.flow.azimuthDeg', site.flow.azimuthDeg, 'degrees clockwise from north');
     azimuthDeg = normalizeDeg(site.flow.azimuthDeg);
+    planeAzimuthDeg = normalizeDeg(azimuthDeg + convergence);
     gradient = fraction('site.flow.gradient', site.flow.gradient, 0, 1, true, true);
   } else {
     const readings = site.flow.readings;
@@ -192,7 +195,8 @@ export function prepareCase(c: Case): PreparedCase {
     });
     const fit = at('site.flow.readings', readings.length, 'at least 3 head readings not all on one line, with heads that differ', () => fitHeadPlane(points));
     gradient = fit.gradient;
-    azimuthDeg = normalizeDeg(fit.azimuthDeg);
+    planeAzimuthDeg = normalizeDeg(fit.azimuthDeg);
+    azimuthDeg = normalizeDeg(planeAzimuthDeg - convergence);
     if (!(gradient > 0 && gradient < 1))
       throw new ValidationError('site.flow.readings', gradient, 'readings whose fitted gradient lies in (0, 1)', `the head readings give a gradient of ${gradient}; it must lie in (0, 1) (are the heads all equal, or in the wrong unit?)`);
     headFit = { residuals: [...fit.residuals], readingIds: readings.map((r) => r.id) };
@@ -206,7 +210,7 @@ export function prepareCase(c: Case): PreparedCase {
   if (site.source.footprint) {
     const fp = site.source.footprint.map((p, i) => toEN(`site.source.footprint[${i}]`, p));
     const plane = at('site.source.footprint', site.source.footprint.length, 'a simple polygon of at least 3 vertices with non-zero area', () =>
-      footprintSourcePlane(fp, azimuthDeg),
+      footprintSourcePlane(fp, planeAzimuthDeg),
     );
     sourceEN = plane.centreEN;
     width = plane.width;
@@ -255,7 +259,7 @@ export function prepareCase(c: Case): PreparedCase {
   const receptors: PreparedReceptor[] = site.receptors.map((r, i) => {
     const f = `site.receptors[${i}]`;
     const en = toEN(`${f}.position`, r.position);
-    const { x, y } = toFlow(sourceEN, azimuthDeg, en);
+    const { x, y } = toFlow(sourceEN, planeAzimuthDeg, en);
     const zTop = quantityIn(`${f}.screenTop`, r.screenTop, nonNegative, 'a depth ≥ 0 below the water table');
     const zBottom = quantityIn(`${f}.screenBottom`, r.screenBottom, (z) => Number.isFinite(z) && z >= zTop, `a depth ≥ the screen top (${zTop} m)`);
     if (r.pumping)
@@ -330,6 +334,19 @@ export function prepareCase(c: Case): PreparedCase {
 
   } catch (err) {
     if (!(err instanceof ValidationError)) throw err;
+    if (err.field === 'sourceDecay' && c.source.sourceHalfLife) {
+      // the engine states its bound as a decline rate; say it as the half-life the user entered
+      const vr = v / R;
+      const Dx = (ax * v + diffusion) / R;
+      const lamBase = c.contaminant.decayPhase === 'dissolved-only' ? decay / R : decay;
+      const shortest = Math.LN2 / (lamBase + (vr * vr) / (4 * Dx));
+      throw new ValidationError(
+        'source.sourceHalfLife',
+        c.source.sourceHalfLife.value,
+        `longer than ${shortest.toPrecision(3)} d`,
+        `with this velocity and dispersion the solutions cannot represent a source halving faster than every ${shortest.toPrecision(3)} d (decline rate must stay below λ + v²/(4·Dx), retarded); lengthen the source half-life`,
+      );
+    }
     throw new ValidationError(caseFieldOf(err.field) ?? err.field, err.value, err.range, detailOf(err));
   }
   warnings.push(...fieldRangeWarnings(c, K), ...presetWarnings(c));
@@ -342,8 +359,8 @@ export function prepareCase(c: Case): PreparedCase {
     ).map((w) => ({ ...w, field: caseFieldOf(w.field) })),
   );
 
-  const toMap = (x: number, y: number): Position => frame.fromEN(fromFlow(sourceEN, azimuthDeg, { x, y }));
-  const fromMap = (p: Position) => toFlow(sourceEN, azimuthDeg, frame.toEN(p));
+  const toMap = (x: number, y: number): Position => frame.fromEN(fromFlow(sourceEN, planeAzimuthDeg, { x, y }));
+  const fromMap = (p: Position) => toFlow(sourceEN, planeAzimuthDeg, frame.toEN(p));
 
   return {
     model,
@@ -363,6 +380,7 @@ export function prepareCase(c: Case): PreparedCase {
       diffusion,
       gradient,
       azimuthDeg,
+      planeAzimuthDeg,
       width,
       widthFromFootprint,
       headFit,
