@@ -1,0 +1,110 @@
+/**
+ * The screen. Map first; beside it (landscape) or under it (portrait) the panel, in the order a
+ * screening is reasoned through on site: the release, the flow, what is at risk, what each
+ * receptor will see. Results follow every input without a run step.
+ */
+import { useEffect, useState } from 'preact/hooks';
+import type { AppSlots } from '../app/boot';
+import type { Case } from '../case/schema';
+import { currentCase, replaceCase, updateCase } from './state';
+import { settings, updateSettings } from './settings';
+import { MapView } from './map/MapView';
+import { ReleasePanel } from './panels/ReleasePanel';
+import { FlowPanel } from './panels/FlowPanel';
+import { ReceptorsPanel } from './panels/ReceptorsPanel';
+import { ResultsPanel } from './panels/ResultsPanel';
+import { SettingsDialog } from './panels/SettingsDialog';
+import { DEMO_CASES } from './demos';
+import { startEvaluation } from './evaluation';
+import './app.css';
+
+export interface AppProps {
+  initialCase: Case;
+  slots: AppSlots;
+}
+
+export function App({ initialCase, slots }: AppProps) {
+  const [started] = useState(() => {
+    replaceCase(initialCase);
+    return true;
+  });
+  useEffect(() => startEvaluation(), []);
+  const c = currentCase.value;
+  const CaseMenu = slots.caseMenu;
+  const Status = slots.status;
+  const [showSettings, setShowSettings] = useState(false);
+  return (
+    <div class="dg-app" data-started={started}>
+      <header class="dg-header">
+        <span class="dg-brand" aria-label="Downgradient">
+          <svg viewBox="0 0 32 32" width="28" height="28" aria-hidden="true">
+            <path d="M3 9h26M3 16h20M3 23h13" stroke="currentColor" stroke-width="3" stroke-linecap="round" />
+            <path d="M22 20l6 3-6 3z" fill="currentColor" />
+          </svg>
+          <span class="dg-brand-name">Downgradient</span>
+        </span>
+        <input
+          class="dg-case-name"
+          aria-label="Case name"
+          value={c.name}
+          maxLength={200}
+          onChange={(e) => {
+            const name = (e.target as HTMLInputElement).value.trim();
+            if (name) updateCase((d) => void (d.name = name));
+            else (e.target as HTMLInputElement).value = currentCase.peek().name;
+          }}
+        />
+        <DemoPicker />
+        {CaseMenu && <CaseMenu />}
+        <span class="dg-header-gap" />
+        {Status && <Status />}
+        <button
+          type="button"
+          class="dg-icon-btn"
+          aria-label={settings.value.theme === 'dark' ? 'Light theme' : 'Dark theme'}
+          title={settings.value.theme === 'dark' ? 'Light theme' : 'Dark theme'}
+          onClick={() => updateSettings({ theme: settings.value.theme === 'dark' ? 'light' : 'dark' })}
+        >
+          {settings.value.theme === 'dark' ? '☀' : '☾'}
+        </button>
+        <button type="button" class="dg-icon-btn" aria-label="Settings" title="Settings" onClick={() => setShowSettings(true)}>
+          ⚙
+        </button>
+      </header>
+      <main class="dg-main">
+        <MapView frameKey={`${c.id}|${c.site.frame}|${c.site.datum.join(',')}`} />
+        <div class="dg-panel" aria-label="Inputs and results">
+          <ReleasePanel />
+          <FlowPanel />
+          <ReceptorsPanel />
+          <ResultsPanel />
+        </div>
+      </main>
+      {showSettings && <SettingsDialog onClose={() => setShowSettings(false)} />}
+    </div>
+  );
+}
+
+function DemoPicker() {
+  if (DEMO_CASES.length === 0) return null;
+  return (
+    <select
+      class="dg-demo"
+      aria-label="Open a demo case"
+      value=""
+      onChange={(e) => {
+        const el = e.target as HTMLSelectElement;
+        const d = DEMO_CASES.find((x) => x.file === el.value);
+        el.value = '';
+        if (d) replaceCase(d.build());
+      }}
+    >
+      <option value="">Demo cases…</option>
+      {DEMO_CASES.map((d) => (
+        <option value={d.file} key={d.file}>
+          {d.name}
+        </option>
+      ))}
+    </select>
+  );
+}

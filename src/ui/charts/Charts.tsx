@@ -1,0 +1,181 @@
+/**
+ * Charts in plain SVG: the breakthrough curve at a receptor and the centreline profile. Both have
+ * labelled axes with units, the limit as a dashed line, the other solution as a thin dashed curve
+ * when it is computed, and a logarithmic concentration axis when the values span many decades.
+ */
+import type { ComponentChildren } from 'preact';
+import { concentrationScale, linearScale, type Scale } from './axes';
+import { fromInternal, UNITS } from '../../core/units';
+
+const W = 360;
+const H = 210;
+const M = { l: 58, r: 12, t: 12, b: 42 };
+
+function pathOf(xs: number[], ys: number[], sx: (v: number) => number, sy: Scale): string {
+  let d = '';
+  for (let k = 0; k < xs.length; k++) d += `${k ? 'L' : 'M'}${sx(xs[k]).toFixed(1)} ${sy(ys[k]).toFixed(1)}`;
+  return d;
+}
+
+function Frame(props: {
+  title: string;
+  xLabel: string;
+  yLabel: string;
+  sx: Scale;
+  sy: Scale;
+  children: ComponentChildren;
+  testid?: string;
+}) {
+  const { sx, sy } = props;
+  return (
+    <figure class="dg-chart" data-testid={props.testid}>
+      <figcaption>{props.title}</figcaption>
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={props.title}>
+        <rect x={M.l} y={M.t} width={W - M.l - M.r} height={H - M.t - M.b} class="dg-chart-bg" />
+        {sy.ticks.map((t) => (
+          <g key={'y' + t.value}>
+            <line x1={M.l} x2={W - M.r} y1={sy(t.value)} y2={sy(t.value)} class="dg-chart-grid" />
+            <text x={M.l - 5} y={sy(t.value) + 4} text-anchor="end" class="dg-chart-tick">
+              {t.label}
+            </text>
+          </g>
+        ))}
+        {sx.ticks.map((t) => (
+          <g key={'x' + t.value}>
+            <line y1={M.t} y2={H - M.b} x1={sx(t.value)} x2={sx(t.value)} class="dg-chart-grid" />
+            <text y={H - M.b + 15} x={sx(t.value)} text-anchor="middle" class="dg-chart-tick">
+              {t.label}
+            </text>
+          </g>
+        ))}
+        <line x1={M.l} x2={W - M.r} y1={H - M.b} y2={H - M.b} class="dg-chart-axis" />
+        <line x1={M.l} x2={M.l} y1={M.t} y2={H - M.b} class="dg-chart-axis" />
+        <text x={(M.l + W - M.r) / 2} y={H - 6} text-anchor="middle" class="dg-chart-label">
+          {props.xLabel}
+        </text>
+        <text transform={`translate(13 ${(M.t + H - M.b) / 2}) rotate(-90)`} text-anchor="middle" class="dg-chart-label">
+          {props.yLabel}
+          {sy.log ? ' (log scale)' : ''}
+        </text>
+        {props.children}
+      </svg>
+    </figure>
+  );
+}
+
+function LimitLine({ sy, limit, label }: { sy: Scale; limit: number; label: string }) {
+  const y = sy(limit);
+  return (
+    <g class="dg-chart-limit">
+      <line x1={M.l} x2={W - M.r} y1={y} y2={y} />
+      <text x={W - M.r - 4} y={y - 5} text-anchor="end">
+        {label}
+      </text>
+    </g>
+  );
+}
+
+/** Time axis unit: years when the horizon is longer than two years, else days. */
+function timeUnit(horizon: number): 'yr' | 'd' {
+  return horizon > 2 * 365.25 ? 'yr' : 'd';
+}
+
+export function BreakthroughChart(props: {
+  name: string;
+  times: number[];
+  values: number[];
+  alternate: number[] | null;
+  solution: string;
+  limit: number;
+  arrival: number | null;
+  horizon: number;
+  concUnit: string;
+}) {
+  const tu = timeUnit(props.horizon);
+  const cu = props.concUnit;
+  const toT = (d: number) => fromInternal(d, tu);
+  const toC = (c: number) => fromInternal(c, cu);
+  const ts = props.times.map(toT);
+  const vs = props.values.map(toC);
+  const alt = props.alternate?.map(toC) ?? null;
+  const lim = toC(props.limit);
+  const sx = linearScale(0, toT(props.horizon), M.l, W - M.r);
+  const sy = concentrationScale([...vs, ...(alt ?? [])], lim, H - M.b, M.t);
+  const other = props.solution === 'domenico' ? 'exact' : 'Domenico';
+  return (
+    <Frame
+      title={`Breakthrough at ${props.name}`}
+      xLabel={`time since the release began (${UNITS[tu].label})`}
+      yLabel={`concentration (${UNITS[cu].label})`}
+      sx={sx}
+      sy={sy}
+      testid="breakthrough-chart"
+    >
+      <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
+      {alt && <path d={pathOf(ts, alt, sx, sy)} class="dg-chart-alt" />}
+      <path d={pathOf(ts, vs, sx, sy)} class="dg-chart-line" />
+      {props.arrival !== null && (
+        <g class="dg-chart-arrival">
+          <line x1={sx(toT(props.arrival))} x2={sx(toT(props.arrival))} y1={M.t} y2={H - M.b} />
+          <circle cx={sx(toT(props.arrival))} cy={sy(lim)} r={4.5} />
+          <text x={Math.min(sx(toT(props.arrival)) + 5, W - M.r - 70)} y={M.t + 13}>
+            reaches limit: {Number(toT(props.arrival).toPrecision(3))} {UNITS[tu].label}
+          </text>
+        </g>
+      )}
+      {alt && (
+        <text x={M.l + 6} y={M.t + 13} class="dg-chart-legend">
+          — {props.solution === 'domenico' ? 'Domenico' : 'exact'} · - - {other}
+        </text>
+      )}
+    </Frame>
+  );
+}
+
+export function ProfileChart(props: {
+  xs: number[];
+  values: number[];
+  alternate: number[] | null;
+  solution: string;
+  limit: number;
+  time: number;
+  concUnit: string;
+  lengthUnit: string;
+  receptors: { name: string; x: number }[];
+}) {
+  const lu = props.lengthUnit;
+  const cu = props.concUnit;
+  const toX = (m: number) => fromInternal(m, lu);
+  const toC = (c: number) => fromInternal(c, cu);
+  const xs = props.xs.map(toX);
+  const vs = props.values.map(toC);
+  const alt = props.alternate?.map(toC) ?? null;
+  const lim = toC(props.limit);
+  const sx = linearScale(0, xs[xs.length - 1] ?? 1, M.l, W - M.r);
+  const sy = concentrationScale([...vs, ...(alt ?? [])], lim, H - M.b, M.t);
+  const when = props.time === Infinity ? 'steady state' : `${Number((props.time / 365.25).toPrecision(3))} yr`;
+  return (
+    <Frame
+      title={`Along the plume centreline (${when})`}
+      xLabel={`distance downgradient of the source (${UNITS[lu].label})`}
+      yLabel={`concentration (${UNITS[cu].label})`}
+      sx={sx}
+      sy={sy}
+      testid="profile-chart"
+    >
+      <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
+      {alt && <path d={pathOf(xs, alt, sx, sy)} class="dg-chart-alt" />}
+      <path d={pathOf(xs, vs, sx, sy)} class="dg-chart-line" />
+      {props.receptors
+        .filter((r) => r.x > 0 && toX(r.x) <= sx.domain[1])
+        .map((r) => (
+          <g class="dg-chart-receptor" key={r.name + r.x}>
+            <line x1={sx(toX(r.x))} x2={sx(toX(r.x))} y1={H - M.b} y2={H - M.b - 10} />
+            <text x={sx(toX(r.x))} y={H - M.b - 13} text-anchor="middle">
+              {r.name}
+            </text>
+          </g>
+        ))}
+    </Frame>
+  );
+}

@@ -1,0 +1,249 @@
+/**
+ * Input fields. Each shows its label, the value in the unit the user picked (switchable per field,
+ * SI and US customary), a short help text with the usual range and its source, and the engine's
+ * message when the value is rejected. Text that is not a number never reaches the case: the field
+ * keeps what was typed, says what is wrong, and the last good value stays saved.
+ */
+import { useState, useEffect } from 'preact/hooks';
+import type { ComponentChildren } from 'preact';
+import { UNITS, unitsOf, convert, type Dimension } from '../core/units';
+import type { Quantity } from '../case/schema';
+import { fieldIssue } from './validity';
+
+let uid = 0;
+function useId(prefix: string): string {
+  const [id] = useState(() => `${prefix}-${++uid}`);
+  return id;
+}
+
+/** Up to 4 significant digits, no trailing zeros, plain notation where it reads well. */
+export function fmtNum(v: number, digits = 4): string {
+  if (!Number.isFinite(v)) return String(v);
+  if (v === 0) return '0';
+  const a = Math.abs(v);
+  if (a >= 1e-3 && a < 1e6) return String(Number(v.toPrecision(digits)));
+  return v.toExponential(digits - 1).replace(/\.?0+e/, 'e');
+}
+
+function parseNumber(text: string): number | null {
+  const t = text.trim().replace(/\s/g, '').replace(',', '.');
+  if (t === '' || !/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t)) return null;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : null;
+}
+
+interface BaseProps {
+  label: string;
+  /** case field path, e.g. 'aquifer.hydraulicConductivity' (matches the engine's messages) */
+  field: string;
+  help?: ComponentChildren;
+  /** extra message from the screen itself (e.g. a derived value) */
+  note?: ComponentChildren;
+}
+
+function FieldShell(props: BaseProps & { id: string; localError: string | null; children: ComponentChildren }) {
+  const issue = fieldIssue(props.field);
+  const msg = props.localError ?? issue;
+  const helpId = `${props.id}-help`;
+  return (
+    <div class={`dg-field${msg ? ' dg-invalid' : ''}`} data-field={props.field}>
+      <label for={props.id}>{props.label}</label>
+      <div class="dg-field-row">{props.children}</div>
+      {msg && (
+        <p class="dg-field-error" role="alert" id={`${props.id}-err`}>
+          {msg}
+        </p>
+      )}
+      {props.note && <p class="dg-field-note">{props.note}</p>}
+      {props.help && (
+        <p class="dg-help" id={helpId}>
+          {props.help}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function useDraft(value: number | null, display: (v: number) => string) {
+  const shown = value === null ? '' : display(value);
+  const [text, setText] = useState(shown);
+  const [focused, setFocused] = useState(false);
+  // follow outside changes (map drags, presets, opening a case) unless the user is typing
+  useEffect(() => {
+    if (!focused) setText(shown);
+  }, [shown, focused]);
+  return { text, setText, focused, setFocused };
+}
+
+/** The text box of a number: keeps what was typed, passes on only finite numbers. */
+function NumberInput(props: {
+  id: string;
+  label: string;
+  field: string;
+  value: number;
+  /** how the last valid value is written in the message, e.g. "12 m/d" */
+  kept: string;
+  localError: string | null;
+  setLocalError: (m: string | null) => void;
+  onNumber: (v: number) => void;
+}) {
+  const d = useDraft(props.value, (v) => fmtNum(v, 6));
+  return (
+    <input
+      id={props.id}
+      class="dg-num"
+      type="text"
+      inputMode="decimal"
+      autoComplete="off"
+      spellcheck={false}
+      value={d.text}
+      aria-invalid={props.localError || fieldIssue(props.field) ? true : undefined}
+      onFocus={() => d.setFocused(true)}
+      onBlur={() => d.setFocused(false)}
+      onInput={(e) => {
+        const t = (e.target as HTMLInputElement).value;
+        d.setText(t);
+        const v = parseNumber(t);
+        if (v === null) {
+          props.setLocalError(`${props.label}: enter a number (e.g. 12.5 or 1e-3); the last valid value (${props.kept}) is kept.`);
+          return;
+        }
+        props.setLocalError(null);
+        if (v !== props.value) props.onNumber(v);
+      }}
+    />
+  );
+}
+
+export function QuantityField(
+  props: BaseProps & {
+    dimension: Dimension;
+    value: Quantity;
+    onChange: (q: Quantity) => void;
+  },
+) {
+  const id = useId('q');
+  const { value, onChange } = props;
+  const [localError, setLocalError] = useState<string | null>(null);
+  const units = unitsOf(props.dimension);
+  return (
+    <FieldShell {...props} id={id} localError={localError}>
+      <NumberInput
+        id={id}
+        label={props.label}
+        field={props.field}
+        value={value.value}
+        kept={`${fmtNum(value.value)} ${unitLabel(value.unit)}`}
+        localError={localError}
+        setLocalError={setLocalError}
+        onNumber={(v) => onChange({ value: v, unit: value.unit })}
+      />
+      {units.length > 1 ? (
+        <select
+          class="dg-unit"
+          aria-label={`${props.label} unit`}
+          value={value.unit}
+          onChange={(e) => {
+            const unit = (e.target as HTMLSelectElement).value;
+            // the quantity stays the same; only the way it is written changes
+            const v = convert(value.value, value.unit, unit);
+            setLocalError(null);
+            onChange({ value: Number(v.toPrecision(12)), unit });
+          }}
+        >
+          {units.map((u) => (
+            <option value={u.id} key={u.id}>
+              {u.label}
+            </option>
+          ))}
+        </select>
+      ) : (
+        <span class="dg-unit-fixed">{units[0]?.label}</span>
+      )}
+    </FieldShell>
+  );
+}
+
+export function unitLabel(id: string): string {
+  return UNITS[id]?.label ?? id;
+}
+
+export function NumberField(
+  props: BaseProps & { value: number; onChange: (v: number) => void; suffix?: string },
+) {
+  const id = useId('n');
+  const [localError, setLocalError] = useState<string | null>(null);
+  return (
+    <FieldShell {...props} id={id} localError={localError}>
+      <NumberInput
+        id={id}
+        label={props.label}
+        field={props.field}
+        value={props.value}
+        kept={fmtNum(props.value)}
+        localError={localError}
+        setLocalError={setLocalError}
+        onNumber={props.onChange}
+      />
+      {props.suffix && <span class="dg-unit-fixed">{props.suffix}</span>}
+    </FieldShell>
+  );
+}
+
+/** An optional quantity (half-life, release duration): a switch plus the quantity when on. */
+export function OptionalQuantityField(
+  props: BaseProps & {
+    dimension: Dimension;
+    value: Quantity | null;
+    offLabel: string;
+    onLabel: string;
+    fallback: Quantity;
+    onChange: (q: Quantity | null) => void;
+  },
+) {
+  const on = props.value !== null;
+  return (
+    <div class="dg-optional">
+      <Segmented
+        label={props.label}
+        value={on ? 'on' : 'off'}
+        options={[
+          { id: 'off', label: props.offLabel },
+          { id: 'on', label: props.onLabel },
+        ]}
+        onChange={(v) => props.onChange(v === 'on' ? (props.value ?? props.fallback) : null)}
+      />
+      {on && <QuantityField {...props} value={props.value!} onChange={(q) => props.onChange(q)} />}
+      {!on && props.help && <p class="dg-help">{props.help}</p>}
+    </div>
+  );
+}
+
+/** A row of mutually exclusive buttons (large touch targets, keyboard reachable). */
+export function Segmented<T extends string>(props: {
+  label: string;
+  value: T;
+  options: { id: T; label: string }[];
+  onChange: (v: T) => void;
+}) {
+  return (
+    <div class="dg-seg" role="radiogroup" aria-label={props.label}>
+      <span class="dg-seg-label">{props.label}</span>
+      <div class="dg-seg-row">
+        {props.options.map((o) => (
+          <button
+            type="button"
+            role="radio"
+            aria-checked={props.value === o.id}
+            class={props.value === o.id ? 'dg-on' : ''}
+            key={o.id}
+            data-value={o.id}
+            onClick={() => props.onChange(o.id)}
+          >
+            {o.label}
+          </button>
+        ))}
+      </div>
+    </div>
+  );
+}

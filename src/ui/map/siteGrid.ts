@@ -1,0 +1,117 @@
+/**
+ * The site grid: lines every "nice" number of metres from the site datum, labelled. It is the
+ * map's background when tiles cannot load (offline, no signal) and in the local-coordinates mode,
+ * so work continues with a scale bar and north arrow. It lives in its own SVG under Leaflet's
+ * panes (showing through wherever no tile is drawn) and is redrawn on every move so it never lags.
+ */
+import L from 'leaflet';
+
+export interface GridFrame {
+  toEN(ll: L.LatLng): [number, number];
+  fromEN(en: [number, number]): L.LatLng;
+}
+
+/** 1, 2 or 5 × 10ⁿ, the smallest such step giving at most `maxLines` lines over `span`. */
+export function niceStep(span: number, maxLines: number): number {
+  const raw = span / Math.max(1, maxLines);
+  const p = Math.pow(10, Math.floor(Math.log10(raw)));
+  for (const m of [1, 2, 5, 10]) if (m * p >= raw) return m * p;
+  return 10 * p;
+}
+
+function fmt(v: number, step: number): string {
+  const abs = Math.abs(v);
+  if (step >= 1000) return `${(v / 1000).toFixed(step % 1000 === 0 ? 0 : 1)} km`;
+  return `${abs < 1e-9 ? 0 : v.toFixed(step < 1 ? 1 : 0)} m`;
+}
+
+export class SiteGridLayer extends L.Layer {
+  private svg: SVGSVGElement | null = null;
+  private host: L.Map | null = null;
+  constructor(private frame: GridFrame) {
+    super();
+  }
+
+  override onAdd(map: L.Map): this {
+    this.host = map;
+    this.svg = document.createElementNS('http://www.w3.org/2000/svg', 'svg');
+    this.svg.setAttribute('class', 'dg-site-grid');
+    this.svg.setAttribute('aria-hidden', 'true');
+    map.getContainer().querySelector('.dg-grid-host')?.remove();
+    const host = document.createElement('div');
+    host.className = 'dg-grid-host';
+    host.appendChild(this.svg);
+    map.getContainer().appendChild(host);
+    map.on('move zoom resize viewreset', this.redraw, this);
+    this.redraw();
+    return this;
+  }
+
+  override onRemove(map: L.Map): this {
+    map.off('move zoom resize viewreset', this.redraw, this);
+    this.svg?.parentElement?.remove();
+    this.svg = null;
+    this.host = null;
+    return this;
+  }
+
+  redraw(): void {
+    const map = this.host;
+    const svg = this.svg;
+    if (!map || !svg) return;
+    const size = map.getSize();
+    svg.setAttribute('width', String(size.x));
+    svg.setAttribute('height', String(size.y));
+    const corners = [
+      [0, 0],
+      [size.x, 0],
+      [0, size.y],
+      [size.x, size.y],
+    ].map(([x, y]) => this.frame.toEN(map.containerPointToLatLng([x, y])));
+    const es = corners.map((c) => c[0]);
+    const ns = corners.map((c) => c[1]);
+    const e0 = Math.min(...es), e1 = Math.max(...es), n0 = Math.min(...ns), n1 = Math.max(...ns);
+    if (![e0, e1, n0, n1].every(Number.isFinite) || e1 - e0 <= 0) return;
+    const step = niceStep(Math.max(e1 - e0, n1 - n0), size.x < 500 ? 5 : 8);
+    const parts: string[] = [];
+    const line = (pts: [number, number][], major: boolean) => {
+      const d = pts
+        .map((en, k) => {
+          const p = map.latLngToContainerPoint(this.frame.fromEN(en));
+          return `${k ? 'L' : 'M'}${p.x.toFixed(1)} ${p.y.toFixed(1)}`;
+        })
+        .join('');
+      parts.push(`<path d="${d}" class="${major ? 'dg-grid-major' : 'dg-grid-minor'}"/>`);
+    };
+    const samples = 8;
+    for (let e = Math.ceil(e0 / step) * step; e <= e1; e += step) {
+      const pts: [number, number][] = [];
+      for (let k = 0; k <= samples; k++) pts.push([e, n0 + ((n1 - n0) * k) / samples]);
+      const major = Math.abs(e) < step / 2;
+      line(pts, major);
+      const p = map.latLngToContainerPoint(this.frame.fromEN([e, n0 + (n1 - n0) * 0.02]));
+      parts.push(`<text x="${(p.x + 4).toFixed(1)}" y="${(size.y - 8).toFixed(1)}" class="dg-grid-label">E ${fmt(e, step)}</text>`);
+    }
+    for (let n = Math.ceil(n0 / step) * step; n <= n1; n += step) {
+      const pts: [number, number][] = [];
+      for (let k = 0; k <= samples; k++) pts.push([e0 + ((e1 - e0) * k) / samples, n]);
+      line(pts, Math.abs(n) < step / 2);
+      const p = map.latLngToContainerPoint(this.frame.fromEN([e0, n]));
+      parts.push(`<text x="6" y="${(p.y - 4).toFixed(1)}" class="dg-grid-label">N ${fmt(n, step)}</text>`);
+    }
+    svg.innerHTML = parts.join('');
+  }
+}
+
+/** North arrow control (north is up in both the web-map projection and the local frame). */
+export const NorthArrow = L.Control.extend({
+  onAdd() {
+    const el = L.DomUtil.create('div', 'dg-north');
+    el.setAttribute('role', 'img');
+    el.setAttribute('aria-label', 'North is up');
+    el.innerHTML = `<svg viewBox="-20 -26 40 52" width="34" height="44" aria-hidden="true">
+      <path d="M0 -18L9 12L0 6L-9 12Z" fill="var(--ink)" stroke="var(--paper)" stroke-width="2" stroke-linejoin="round"/>
+      <text y="-19" text-anchor="middle" font-size="12" font-weight="700" fill="var(--ink)" stroke="var(--paper)" stroke-width="3" paint-order="stroke">N</text></svg>`;
+    return el;
+  },
+});

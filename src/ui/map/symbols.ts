@@ -1,0 +1,74 @@
+/**
+ * Map symbols: our own SVG marks as Leaflet divIcons (no default marker images). Every mark sits
+ * in a 44 px touch target; the drawn symbol is smaller and carries a dark outline and a light halo
+ * so it reads on a basemap, on the site grid and in sunlight.
+ */
+import L from 'leaflet';
+import type { ReceptorKind } from '../../case/schema';
+
+const TARGET = 44;
+
+function icon(svg: string, className: string, label: string, visible = ''): L.DivIcon {
+  const tag = visible ? `<span class="dg-mark-label" aria-hidden="true">${escapeHtml(visible)}</span>` : '';
+  return L.divIcon({
+    html: `${tag}${svg}<span class="dg-sr">${escapeHtml(label)}</span>`,
+    className: `dg-mark ${className}`,
+    iconSize: [TARGET, TARGET],
+    iconAnchor: [TARGET / 2, TARGET / 2],
+  });
+}
+
+export function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+const halo = 'stroke="var(--mark-halo)" stroke-width="6" paint-order="stroke"';
+
+/** The release: a filled hexagon with a centre dot. */
+export function sourceIcon(): L.DivIcon {
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">
+    <polygon points="0,-13 11.3,-6.5 11.3,6.5 0,13 -11.3,6.5 -11.3,-6.5" fill="var(--mark-source)" ${halo}/>
+    <polygon points="0,-13 11.3,-6.5 11.3,6.5 0,13 -11.3,6.5 -11.3,-6.5" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
+    <circle r="3.5" fill="var(--mark-ink)"/></svg>`;
+  return icon(svg, 'dg-mark-source', 'Release');
+}
+
+const receptorShapes: Record<ReceptorKind, string> = {
+  // a well: ring with a cross (the casing seen from above)
+  well: `<circle r="10" fill="var(--mark-receptor)" ${halo}/><circle r="10" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
+    <path d="M-10 0H10M0 -10V10" stroke="var(--mark-ink)" stroke-width="2"/>`,
+  // a spring: a teardrop
+  spring: `<path d="M0 -12 C7 -3 10 2 10 5 A10 10 0 0 1 -10 5 C-10 2 -7 -3 0 -12Z" fill="var(--mark-receptor)" ${halo}/>
+    <path d="M0 -12 C7 -3 10 2 10 5 A10 10 0 0 1 -10 5 C-10 2 -7 -3 0 -12Z" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>`,
+  // surface water: a square with two waves
+  'surface-water': `<rect x="-11" y="-11" width="22" height="22" rx="3" fill="var(--mark-receptor)" ${halo}/>
+    <rect x="-11" y="-11" width="22" height="22" rx="3" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
+    <path d="M-7 -2q3.5 -4 7 0t7 0M-7 5q3.5 -4 7 0t7 0" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>`,
+  // a property line point: a flag on a post
+  'property-line': `<path d="M-8 12V-12H9L4 -6L9 0H-8" fill="var(--mark-receptor)" ${halo}/>
+    <path d="M-8 12V-12H9L4 -6L9 0H-8" fill="none" stroke="var(--mark-ink)" stroke-width="2" stroke-linejoin="round"/>`,
+  // anything else: a diamond
+  other: `<path d="M0 -12L12 0L0 12L-12 0Z" fill="var(--mark-receptor)" ${halo}/>
+    <path d="M0 -12L12 0L0 12L-12 0Z" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>`,
+};
+
+export function receptorIcon(kind: ReceptorKind, name: string, status: string | null, selected: boolean): L.DivIcon {
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">${receptorShapes[kind]}</svg>`;
+  return icon(svg, `dg-mark-receptor${status ? ' dg-status-' + status : ''}${selected ? ' dg-selected' : ''}`, name, name);
+}
+
+/** A monitoring well with a water-level reading: an open triangle, apex down (a level mark). */
+export function headIcon(label: string, selected: boolean): L.DivIcon {
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">
+    <path d="M-11 -8H11L0 11Z" fill="var(--mark-head)" ${halo}/>
+    <path d="M-11 -8H11L0 11Z" fill="none" stroke="var(--mark-ink)" stroke-width="2" stroke-linejoin="round"/></svg>`;
+  return icon(svg, `dg-mark-head${selected ? ' dg-selected' : ''}`, label, label);
+}
+
+/** The flow handle at the arrow's tip: a round grip. */
+export function flowHandleIcon(): L.DivIcon {
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">
+    <circle r="11" fill="var(--mark-flow)" ${halo}/><circle r="11" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
+    <path d="M-5 -3L0 -8L5 -3M-5 3L0 8L5 3" fill="none" stroke="var(--mark-ink)" stroke-width="2"/></svg>`;
+  return icon(svg, 'dg-mark-flow', 'Flow direction handle: drag to turn');
+}

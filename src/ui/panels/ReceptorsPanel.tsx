@@ -1,0 +1,143 @@
+/** What is at risk: the limit that governs, the time horizon, and the receptors on the map. */
+import { currentCase, updateCase } from '../state';
+import { QuantityField } from '../fields';
+import { mapTool, selectedId } from '../view';
+import type { ReceptorKind } from '../../case/schema';
+import { activeSiteMap } from '../map/MapView';
+import { toLatLng } from '../map/siteMap';
+
+export const KIND_LABEL: Record<ReceptorKind, string> = {
+  well: 'Well',
+  spring: 'Spring',
+  'surface-water': 'Creek, pond or river',
+  'property-line': 'Property line',
+  other: 'Other point',
+};
+
+export function ReceptorsPanel() {
+  const c = currentCase.value;
+  const k = c.contaminant;
+  return (
+    <section class="dg-section" aria-labelledby="sec-risk" data-section="receptors">
+      <h2 id="sec-risk">
+        <span class="dg-sec-mark dg-sec-risk" aria-hidden="true" />
+        What is at risk?
+      </h2>
+      <QuantityField
+        label="Limit at the receptors"
+        field="contaminant.limit"
+        dimension="concentration"
+        value={k.limit}
+        onChange={(q) => updateCase((d) => void (d.contaminant.limit = q))}
+        note={k.limitNote || undefined}
+        help="Your local limit governs: the drinking-water or groundwater standard that applies at this site under local rules. Published limits shown with presets are examples only."
+      />
+      <QuantityField
+        label="Time horizon"
+        field="evaluation.horizon"
+        dimension="time"
+        value={c.evaluation.horizon}
+        onChange={(q) => updateCase((d) => void (d.evaluation.horizon = q))}
+        help="How far ahead to look: arrival, peak and status are reported within this time."
+      />
+      <QuantityField
+        label="Depth shown on the map"
+        field="evaluation.depth"
+        dimension="length"
+        value={c.evaluation.depth}
+        onChange={(q) => updateCase((d) => void (d.evaluation.depth = q))}
+        help="Depth below the water table at which the plume contours are drawn (0: at the water table)."
+      />
+      <div class="dg-btn-row">
+        <button
+          type="button"
+          class={mapTool.value === 'add-receptor' ? 'dg-on' : ''}
+          data-action="add-receptor"
+          onClick={() => (mapTool.value = mapTool.value === 'add-receptor' ? 'move' : 'add-receptor')}
+        >
+          {mapTool.value === 'add-receptor' ? 'Tap the map to place it…' : '+ Receptor (tap the map)'}
+        </button>
+      </div>
+      {c.site.receptors.length === 0 && (
+        <p class="dg-help">No receptors yet: add the wells, springs, creeks or property lines that matter.</p>
+      )}
+      <ol class="dg-list" data-testid="receptor-list">
+        {c.site.receptors.map((r, i) => {
+          const sel = selectedId.value === r.id;
+          return (
+            <li key={r.id} class={sel ? 'dg-selected' : ''} data-receptor={r.id}>
+              <div class="dg-list-head">
+                <input
+                  class="dg-text dg-name"
+                  aria-label={`Name of receptor ${i + 1}`}
+                  value={r.name}
+                  maxLength={200}
+                  onFocus={() => (selectedId.value = r.id)}
+                  onChange={(e) => updateCase((d) => void (d.site.receptors[i].name = (e.target as HTMLInputElement).value || `Receptor ${i + 1}`))}
+                />
+                <select
+                  class="dg-select"
+                  aria-label={`Kind of ${r.name}`}
+                  value={r.kind}
+                  onChange={(e) => updateCase((d) => void (d.site.receptors[i].kind = (e.target as HTMLSelectElement).value as ReceptorKind))}
+                >
+                  {(Object.keys(KIND_LABEL) as ReceptorKind[]).map((kk) => (
+                    <option value={kk} key={kk}>
+                      {KIND_LABEL[kk]}
+                    </option>
+                  ))}
+                </select>
+              </div>
+              <div class="dg-pair">
+                <QuantityField
+                  label="Screen top below water table"
+                  field={`site.receptors[${i}].screenTop`}
+                  dimension="length"
+                  value={r.screenTop}
+                  onChange={(q) => updateCase((d) => void (d.site.receptors[i].screenTop = q))}
+                />
+                <QuantityField
+                  label="Screen bottom"
+                  field={`site.receptors[${i}].screenBottom`}
+                  dimension="length"
+                  value={r.screenBottom}
+                  onChange={(q) => updateCase((d) => void (d.site.receptors[i].screenBottom = q))}
+                />
+              </div>
+              <label class="dg-check">
+                <input
+                  type="checkbox"
+                  checked={r.pumping}
+                  onChange={(e) => updateCase((d) => void (d.site.receptors[i].pumping = (e.target as HTMLInputElement).checked))}
+                />
+                <span>Pumps {r.pumping && <em>— noted; pumping is not yet represented, so a pumping well may see the plume sooner.</em>}</span>
+              </label>
+              <div class="dg-btn-row">
+                <button
+                  type="button"
+                  onClick={() => {
+                    selectedId.value = r.id;
+                    activeSiteMap()?.map.panTo(toLatLng(r.position));
+                  }}
+                >
+                  Show on map
+                </button>
+                <button
+                  type="button"
+                  class="dg-danger"
+                  aria-label={`Delete ${r.name}`}
+                  onClick={() => {
+                    updateCase((d) => void d.site.receptors.splice(i, 1));
+                    if (selectedId.peek() === r.id) selectedId.value = null;
+                  }}
+                >
+                  Delete
+                </button>
+              </div>
+            </li>
+          );
+        })}
+      </ol>
+    </section>
+  );
+}

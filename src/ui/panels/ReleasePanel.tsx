@@ -1,0 +1,249 @@
+/** Where the release is and what it releases: source geometry and strength, and the contaminant. */
+import { currentCase, updateCase, currentResults } from '../state';
+import { QuantityField, OptionalQuantityField, Segmented, fmtNum } from '../fields';
+import { mapTool } from '../view';
+import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, type ContaminantPreset } from '../../case/presets';
+import type { Case } from '../../case/schema';
+import { convert } from '../../core/units';
+import { fmtLength } from '../format';
+
+export function ReleasePanel() {
+  const c = currentCase.value;
+  const src = c.site.source;
+  const r = currentResults.value;
+  const outline = src.footprint !== null;
+  return (
+    <section class="dg-section" aria-labelledby="sec-release" data-section="release">
+      <h2 id="sec-release">
+        <span class="dg-sec-mark dg-sec-release" aria-hidden="true" />
+        Where is the release?
+      </h2>
+      <Segmented
+        label="Shape on the map"
+        value={outline ? 'outline' : 'point'}
+        options={[
+          { id: 'point', label: 'Point with a width' },
+          { id: 'outline', label: 'Traced outline' },
+        ]}
+        onChange={(v) => {
+          if (v === 'point') updateCase((d) => void (d.site.source.footprint = null));
+          else mapTool.value = 'trace-footprint';
+        }}
+      />
+      {outline ? (
+        <div class="dg-derived" data-testid="source-width">
+          <p>
+            Width across the flow: <strong>{r ? fmtLength(r.derived.width) : '…'}</strong>, from the traced outline
+            ({src.footprint!.length} corners) and the flow direction; recomputed when either changes. The source plane sits on
+            the outline's downgradient edge (common practice).
+          </p>
+          <div class="dg-btn-row">
+            <button type="button" onClick={() => (mapTool.value = 'trace-footprint')}>
+              Trace again
+            </button>
+            <button type="button" onClick={() => updateCase((d) => void (d.site.source.footprint = null))}>
+              Use a point instead
+            </button>
+          </div>
+        </div>
+      ) : (
+        <QuantityField
+          label="Source width across the flow"
+          field="site.source.width"
+          dimension="length"
+          value={src.width}
+          onChange={(q) => updateCase((d) => void (d.site.source.width = q))}
+          help="Extent of the release perpendicular to the flow. Drag the hexagon on the map to move the release, or trace its outline."
+        />
+      )}
+      <QuantityField
+        label="Source concentration C₀"
+        field="source.concentration"
+        dimension="concentration"
+        value={c.source.concentration}
+        onChange={(q) => updateCase((d) => void (d.source.concentration = q))}
+        help="Dissolved concentration in groundwater at the source (from monitoring, or an effective solubility estimate)."
+      />
+      <QuantityField
+        label="Source thickness below the water table"
+        field="source.thickness"
+        dimension="length"
+        value={c.source.thickness}
+        onChange={(q) => updateCase((d) => void (d.source.thickness = q))}
+        help="Vertical extent of the dissolved source, from the water table down."
+      />
+      <OptionalQuantityField
+        label="Release"
+        field="source.duration"
+        dimension="time"
+        value={c.source.duration}
+        offLabel="Continuous"
+        onLabel="Stops after"
+        fallback={{ value: 5, unit: 'yr' }}
+        onChange={(q) => updateCase((d) => void (d.source.duration = q))}
+      />
+      <OptionalQuantityField
+        label="Source strength"
+        field="source.sourceHalfLife"
+        dimension="time"
+        value={c.source.sourceHalfLife}
+        offLabel="Constant"
+        onLabel="Halves every"
+        fallback={{ value: 10, unit: 'yr' }}
+        onChange={(q) => updateCase((d) => void (d.source.sourceHalfLife = q))}
+        help="A source that is being depleted or remediated loses strength; a constant source is the cautious choice."
+      />
+      <Contaminant c={c} />
+    </section>
+  );
+}
+
+function applyPreset(d: Case, p: ContaminantPreset): void {
+  d.contaminant.name = p.name;
+  d.contaminant.presetId = p.id;
+  if (p.koc) d.contaminant.sorption = { mode: 'koc', koc: { value: p.koc.value, unit: 'L/kg' } };
+  else if (p.kd) d.contaminant.sorption = { mode: 'kd', kd: { value: p.kd.value, unit: 'L/kg' } };
+  // no decay unless the user picks a site value: the cautious default (the range is shown as a guide)
+  d.contaminant.halfLife = null;
+  const lim = p.limits[0];
+  if (lim) {
+    d.contaminant.limit = { value: lim.value, unit: 'mg/L' };
+    d.contaminant.limitNote = `Example only (${lim.authority}${lim.basis ? ', ' + lim.basis : ''}). The limit that applies at your site governs.`;
+  } else {
+    d.contaminant.limitNote = 'No published example limit is on record here: enter the limit that applies at your site.';
+  }
+}
+
+function Contaminant({ c }: { c: Case }) {
+  const k = c.contaminant;
+  const preset = k.presetId ? contaminantPreset(k.presetId) : undefined;
+  return (
+    <div class="dg-group" data-group="contaminant">
+      <h3>Contaminant</h3>
+      <label class="dg-field">
+        <span>Start from published values</span>
+        <select
+          class="dg-select"
+          value={preset?.id ?? ''}
+          onChange={(e) => {
+            const p = contaminantPreset((e.target as HTMLSelectElement).value);
+            if (p) updateCase((d) => applyPreset(d, p));
+            else updateCase((d) => void (d.contaminant.presetId = null));
+          }}
+        >
+          <option value="">My own values</option>
+          {CONTAMINANT_PRESETS.map((p) => (
+            <option value={p.id} key={p.id}>
+              {p.name} ({p.group})
+            </option>
+          ))}
+        </select>
+      </label>
+      {preset && <PresetCard p={preset} />}
+      <label class="dg-field">
+        <span>Name</span>
+        <input
+          class="dg-text"
+          value={k.name}
+          maxLength={200}
+          onChange={(e) => updateCase((d) => void (d.contaminant.name = (e.target as HTMLInputElement).value))}
+        />
+      </label>
+      <Segmented
+        label="Sorption given as"
+        value={k.sorption.mode}
+        options={[
+          { id: 'koc', label: 'Koc (with foc)' },
+          { id: 'kd', label: 'Kd directly' },
+        ]}
+        onChange={(m) =>
+          updateCase((d) => {
+            if (m === d.contaminant.sorption.mode) return;
+            const foc = d.aquifer.fractionOrganicCarbon;
+            if (m === 'kd' && d.contaminant.sorption.mode === 'koc') {
+              const koc = convert(d.contaminant.sorption.koc.value, d.contaminant.sorption.koc.unit, 'L/kg');
+              d.contaminant.sorption = { mode: 'kd', kd: { value: Number((koc * foc).toPrecision(6)), unit: 'L/kg' } };
+            } else if (m === 'koc' && d.contaminant.sorption.mode === 'kd') {
+              const kd = convert(d.contaminant.sorption.kd.value, d.contaminant.sorption.kd.unit, 'L/kg');
+              d.contaminant.sorption = { mode: 'koc', koc: { value: foc > 0 ? Number((kd / foc).toPrecision(6)) : 0, unit: 'L/kg' } };
+            }
+          })
+        }
+      />
+      {k.sorption.mode === 'koc' ? (
+        <QuantityField
+          label="Organic-carbon partition coefficient Koc"
+          field="contaminant.sorption.koc"
+          dimension="partition"
+          value={k.sorption.koc}
+          onChange={(q) => updateCase((d) => void (d.contaminant.sorption = { mode: 'koc', koc: q }))}
+          help="Kd = Koc·foc (foc is set with the aquifer). Published Koc: US EPA 1996 Soil Screening Guidance, e.g. benzene 61.7 L/kg."
+        />
+      ) : (
+        <QuantityField
+          label="Distribution coefficient Kd"
+          field="contaminant.sorption.kd"
+          dimension="partition"
+          value={k.sorption.kd}
+          onChange={(q) => updateCase((d) => void (d.contaminant.sorption = { mode: 'kd', kd: q }))}
+          help="0 for a non-sorbing solute such as nitrate (R = 1, common practice)."
+        />
+      )}
+      <OptionalQuantityField
+        label="Biodegradation"
+        field="contaminant.halfLife"
+        dimension="time"
+        value={k.halfLife}
+        offLabel="None (cautious)"
+        onLabel="Half-life"
+        fallback={preset?.halfLife ? { value: Number((preset.halfLife.max / 365.25).toPrecision(3)), unit: 'yr' } : { value: 2, unit: 'yr' }}
+        onChange={(q) => updateCase((d) => void (d.contaminant.halfLife = q))}
+        help={
+          preset?.halfLife
+            ? `Usual range ${citeValue(preset.halfLife, 'd')}. Half-lives are site-specific; the longest is the cautious end.`
+            : 'First-order half-life in groundwater; site-specific. Leave off unless your site has a measured rate.'
+        }
+      />
+      {k.halfLife && (
+        <Segmented
+          label="Degradation acts on"
+          value={k.decayPhase}
+          options={[
+            { id: 'dissolved-and-sorbed', label: 'Dissolved and sorbed' },
+            { id: 'dissolved-only', label: 'Dissolved only' },
+          ]}
+          onChange={(v) => updateCase((d) => void (d.contaminant.decayPhase = v))}
+        />
+      )}
+    </div>
+  );
+}
+
+function PresetCard({ p }: { p: ContaminantPreset }) {
+  return (
+    <div class="dg-preset" data-testid="preset-card">
+      <ul>
+        {p.koc && <li>Koc {citeValue(p.koc, 'L/kg')}</li>}
+        {p.kd && <li>Kd {citeValue(p.kd, 'L/kg')}</li>}
+        {p.halfLife ? (
+          <li>Half-life {citeValue({ ...p.halfLife, min: round(p.halfLife.min), max: round(p.halfLife.max) }, 'd')}</li>
+        ) : (
+          <li>No published half-life range on record.</li>
+        )}
+        {p.limits.map((l) => (
+          <li key={l.authority}>
+            Example limit: {fmtNum(l.value)} mg/L{l.basis ? ` ${l.basis}` : ''} — {l.source}
+            {provenanceLabel(l) ? ` (${provenanceLabel(l)})` : ''}
+          </li>
+        ))}
+        {p.notes.map((n) => (
+          <li key={n}>{n}</li>
+        ))}
+      </ul>
+      <p class="dg-governs">The limit that applies at your site under local rules always governs; set it under “What is at risk?”.</p>
+    </div>
+  );
+}
+
+const round = (v: number) => Number(v.toPrecision(3));
+

@@ -1,0 +1,17 @@
+/**
+ * Screen-only state (not part of the case, never saved): the active map tool, the selected map
+ * point, the play-back time of the plume animation, and whether basemap tiles are loading.
+ */
+import { signal } from '@preact/signals';
+
+export type MapTool = 'move' | 'trace-footprint' | 'place-source' | 'add-receptor' | 'add-head';
+
+export const mapTool = signal<MapTool>('move');
+/** id of the selected receptor or head reading */
+export const selectedId = signal<string | null>(null);
+/** while the plume animation plays: the time shown, d; null when not playing */
+export const playTime = signal<number | null>(null);
+/** 'ok' tiles load; 'failed' none could load (offline, no signal) so the site grid shows; 'off' no tile URL */
+export const tileState = signal<'loading' | 'ok' | 'failed' | 'off'>('loading');
+/** which panel section is open on narrow screens */
+export const openSection = signal<'release' | 'flow' | 'receptors' | 'results'>('release');

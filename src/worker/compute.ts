@@ -1,0 +1,154 @@
+/**
+ * What the workers compute, as plain functions (tested in Node, run in the workers):
+ * - evaluateCase: whole-case screening (src/case/screen.ts) plus breakthrough curves at every
+ *   receptor and the centreline profile, both solutions, in internal units.
+ * - plumeForCase: the concentration lattice at the view time on the flow-aligned frame
+ *   (core concentrationGrid), filled contours at the limit and its multiples (src/geo/contours.ts
+ *   over d3-contour), mapped to the case's map coordinates as GeoJSON.
+ * No DOM here: both run under the WebWorker lib (tsconfig.worker.json).
+ */
+import type { Case } from '../case/schema';
+import { screenCase } from '../case/screen';
+import { prepareCase, type PreparedCase } from '../case/prepare';
+import { breakthroughCurve, concentrationGrid, plumeLength, sampleTimes, concentration, type ScreeningModel } from '../core';
+import { contourBands, contoursToGeoJSON } from '../geo/contours';
+import type { Evaluation, PlumeLayer, ReceptorRow } from './protocol';
+
+const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+/** The limit and these multiples of it are drawn (when below the source concentration). */
+export const BAND_MULTIPLES = [1, 10, 100, 1000] as const;
+
+export function evaluateCase(c: Case): Evaluation {
+  const t0 = now();
+  const s = screenCase(c);
+  const p = s.prepared;
+  const t1 = now();
+  const other = p.model.solution === 'domenico' ? 'exact' : 'domenico';
+  const otherApplies = other === 'exact' || p.model.v > 0;
+  const curveTimes = sampleTimes(p.horizon, 60);
+  const receptors: ReceptorRow[] = s.results.map(({ receptor, result }) => {
+    const { en: _en, pumping: _pumping, ...place } = receptor;
+    return {
+      ...place,
+      ...result,
+      warnings: result.warnings.map((w) => ({ ...w })),
+      curve: Array.from(breakthroughCurve(p.model, receptor, curveTimes)),
+      curveAlternate: otherApplies ? Array.from(breakthroughCurve(p.model, receptor, curveTimes, other)) : null,
+    };
+  });
+  const profile = centrelineProfile(p, s.plumeLength.steady, otherApplies ? other : null);
+  const t2 = now();
+  const dr = p.derived.dispersivityRelation;
+  return {
+    caseId: c.id,
+    caseStamp: c.modified,
+    solution: p.model.solution,
+    limit: p.limit,
+    horizon: p.horizon,
+    viewTime: p.viewTime,
+    derived: {
+      v: p.derived.v,
+      R: p.derived.R,
+      kd: p.derived.kd,
+      ax: p.derived.ax,
+      ay: p.derived.ay,
+      az: p.derived.az,
+      decay: p.derived.decay,
+      gradient: p.derived.gradient,
+      azimuthDeg: p.derived.azimuthDeg,
+      width: p.derived.width,
+      dispersivityRelation: dr.mode === 'estimate' ? (dr.citation ?? dr.relation) : null,
+      dispersivityScale: dr.scaleDistance,
+      widthFromFootprint: p.derived.widthFromFootprint,
+      headFit: p.derived.headFit ? { residuals: [...p.derived.headFit.residuals], readingIds: [...p.derived.headFit.readingIds] } : null,
+    },
+    curveTimes,
+    receptors,
+    plumeLength: s.plumeLength.atViewTime,
+    plumeLengthSteady: s.plumeLength.steady,
+    profile,
+    plume: null,
+    warnings: s.warnings.map((w) => ({ ...w })),
+    caution: s.caution,
+    timing: { screenMs: t1 - t0, curvesMs: t2 - t1 },
+  };
+}
+
+/** Centreline (y = 0, map depth) concentrations at the view time out past the plume and receptors. */
+function centrelineProfile(p: PreparedCase, steadyLength: number | null, other: 'domenico' | 'exact' | null): Evaluation['profile'] {
+  const far = Math.max(...p.receptors.map((r) => r.x).filter((x) => x > 0), 0);
+  const x1 = Math.max(1.2 * (steadyLength ?? 0), 1.1 * far, 10 * p.model.width, 10);
+  const n = 120;
+  const xs: number[] = [];
+  for (let k = 1; k <= n; k++) xs.push((x1 * k) / n);
+  const t = p.viewTime;
+  const at = (m: ScreeningModel) => xs.map((x) => concentration(m, { x, y: 0, z: p.depth }, t));
+  return {
+    xs,
+    values: at(p.model),
+    alternate: other ? at({ ...p.model, solution: other }) : null,
+    time: t,
+  };
+}
+
+export interface Lattice {
+  xs: Float64Array;
+  ys: Float64Array;
+  extent: PlumeLayer['extent'];
+}
+
+/**
+ * The flow-aligned lattice for the map: x from a little upgradient of the source plane (where the
+ * solutions give zero, so the bands close along the plane) to past the plume's reach at the
+ * horizon (or steady state) and the farthest receptor; y symmetric, wide enough for the source
+ * width plus four transverse spreading lengths 2·√(αT·x) at the far end and every receptor.
+ * Sized for the horizon, so the frame stays put while the time slider moves.
+ */
+export function latticeFor(p: PreparedCase, gridSize: number): Lattice {
+  const m = p.model;
+  const reachT = Number.isFinite(p.viewTime) ? p.horizon : Infinity;
+  const reach = plumeLength(m, p.limit, p.depth, reachT) ?? 0;
+  const far = Math.max(0, ...p.receptors.map((r) => r.x));
+  const x1 = Math.max(1.15 * reach, 1.1 * far, 4 * m.width, 20);
+  const x0 = -0.04 * x1;
+  const spread = 4 * 2 * Math.sqrt(m.ay * x1);
+  const side = Math.max(...p.receptors.map((r) => Math.abs(r.y) * 1.15), 0);
+  const y1 = Math.max(m.width / 2 + spread, side, m.width);
+  const n = Math.max(8, Math.floor(gridSize));
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) xs[i] = x0 + ((x1 - x0) * i) / (n - 1);
+  for (let j = 0; j < n; j++) ys[j] = -y1 + (2 * y1 * j) / (n - 1);
+  return { xs, ys, extent: { x0, x1, y0: -y1, y1 } };
+}
+
+export function bandThresholds(limit: number, c0: number): number[] {
+  return BAND_MULTIPLES.map((k) => k * limit).filter((t) => t < c0);
+}
+
+/** Contours at time t (d; Infinity: steady state) on a gridSize × gridSize lattice. */
+export function plumeForCase(c: Case, t: number | null, gridSize: number, lattice?: Lattice): PlumeLayer {
+  const t0 = now();
+  const p = prepareCase(c);
+  const time = t ?? p.viewTime;
+  const lat = lattice ?? latticeFor(p, gridSize);
+  const t1 = now();
+  const values = concentrationGrid(p.model, lat.xs, lat.ys, p.depth, time);
+  const t2 = now();
+  const thresholds = bandThresholds(p.limit, p.model.c0);
+  const bands = contourBands({ values, xs: lat.xs, ys: lat.ys, thresholds });
+  const geojson = contoursToGeoJSON(bands, p.toMap, (b) => ({ multiple: b.threshold / p.limit })) as PlumeLayer['geojson'];
+  const t3 = now();
+  return {
+    caseStamp: c.modified,
+    solution: p.model.solution,
+    time,
+    depth: p.depth,
+    thresholds,
+    geojson,
+    extent: lat.extent,
+    gridSize: lat.xs.length,
+    timing: { gridMs: t2 - t1, contourMs: t3 - t2, totalMs: t3 - t0 },
+  };
+}

@@ -1,0 +1,90 @@
+/**
+ * The shape of the results the screen shows (and the report reads from `currentResults`).
+ * Everything is in internal units (m, d, mg/L); the components convert for display.
+ * Produced in the worker (src/worker/screening.ts) from src/case/screen.ts and src/core, read by
+ * the screen and the report through `currentResults` (src/ui/state.ts).
+ */
+import type { FeatureCollection, MultiPolygon } from 'geojson';
+import type { ExportReceptorResult } from '../case/export-results';
+
+export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-horizon';
+
+export interface WarningItem {
+  code: string;
+  message: string;
+  field?: string;
+}
+
+/** A receptor's figures: the export layer's row (src/case/export-results.ts) with the other solution. */
+export interface ReceptorRow extends ExportReceptorResult {
+  status: ReceptorStatus;
+  /** the other solution, when it applies; the screen shows it where it differs by more than a few percent */
+  alternate: {
+    solution: 'domenico' | 'exact';
+    arrival: number | null;
+    atHorizon: number;
+    peak: { c: number; t: number };
+    relDiff: number;
+  } | null;
+  warnings: WarningItem[];
+  /** breakthrough curve (screen average) at `curveTimes` for the chosen and the other solution */
+  curve: number[];
+  curveAlternate: number[] | null;
+}
+
+export interface PlumeLayer {
+  /** `modified` of the case the contours belong to */
+  caseStamp: string;
+  solution: 'domenico' | 'exact';
+  /** view time of the contours, d (Infinity: steady state) */
+  time: number;
+  /** depth of the map slice below the water table, m */
+  depth: number;
+  thresholds: number[];
+  /** one MultiPolygon feature per non-empty band C ≥ threshold; properties.multiple = threshold / limit */
+  geojson: FeatureCollection<MultiPolygon, { threshold: number; multiple: number; label: string }>;
+  /** flow-frame extent of the lattice, m */
+  extent: { x0: number; x1: number; y0: number; y1: number };
+  gridSize: number;
+  /** worker-side milliseconds: lattice values (the engine's pure compute), contouring, everything */
+  timing: { gridMs: number; contourMs: number; totalMs: number };
+}
+
+export interface Evaluation {
+  caseId: string;
+  /** `modified` of the case these results belong to */
+  caseStamp: string;
+  solution: 'domenico' | 'exact';
+  limit: number;
+  horizon: number;
+  viewTime: number;
+  derived: {
+    v: number;
+    R: number;
+    kd: number;
+    ax: number;
+    ay: number;
+    az: number;
+    decay: number;
+    gradient: number;
+    azimuthDeg: number;
+    width: number;
+    /** relation and citation when the dispersivity was estimated; null when given */
+    dispersivityRelation: string | null;
+    /** distance the dispersivity was scaled from, m */
+    dispersivityScale: number | null;
+    widthFromFootprint: boolean;
+    headFit: { residuals: number[]; readingIds: string[] } | null;
+  };
+  curveTimes: number[];
+  receptors: ReceptorRow[];
+  /** centreline distance to the limit at the map depth at the view time, m (null: the source itself is below it) */
+  plumeLength: number | null;
+  /** the same at steady state */
+  plumeLengthSteady: number | null;
+  profile: { xs: number[]; values: number[]; alternate: number[] | null; time: number };
+  plume: PlumeLayer | null;
+  warnings: WarningItem[];
+  caution: string;
+  timing: { screenMs: number; curvesMs: number };
+}
