@@ -19,7 +19,8 @@
  * x–z term (two erf per column) and an x–y term (two erf per cell; one when the y values are
  * symmetric about 0, by mirroring). So a grid costs at most two error-function calls per cell.
  */
-import { depthFactor, erfRatioSafe, type DepthSpan } from './spread';
+import { depthFactor, erfRatioSafe, spreadFactor, type DepthSpan } from './spread';
+import { erfDiff } from '../special/erf';
 import { lnCdf, pistonCdf } from './oneD';
 
 export interface DomenicoParams {
@@ -48,7 +49,7 @@ export function domenicoXTerm(x: number, t: number, p: DomenicoParams, logScale 
 export function domenicoYTerm(x: number, y: number, p: DomenicoParams): number {
   const s = 2 * Math.sqrt(p.ay * Math.max(x, 0));
   const h = 0.5 * p.width;
-  return 0.5 * (erfRatioSafe(y + h, s) - erfRatioSafe(y - h, s));
+  return spreadFactor(y, h, s);
 }
 
 /** Vertical factor at x for a depth or screen. */
@@ -99,7 +100,7 @@ export function domenicoGridInto(
     const s = 2 * Math.sqrt(p.ay * Math.max(x, 0));
     for (let j = jStart; j < ny; j++) {
       const y = ys[j];
-      out[row + j] = XZ * (erfRatioSafe(y + h, s) - erfRatioSafe(y - h, s));
+      out[row + j] = XZ * (s > 0 ? erfDiff((y + h) / s, (y - h) / s) : erfRatioSafe(y + h, s) - erfRatioSafe(y - h, s));
     }
     if (sym) for (let j = 0; j < jStart; j++) out[row + j] = out[row + ny - 1 - j];
   }

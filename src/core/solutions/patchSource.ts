@@ -17,8 +17,10 @@
  * (oneD.ts), turns the integral into  F(t) · ∫₀¹ Y·Z dq  with a bounded integrand in [0, 1]
  * whatever the Peclet number; the sharp arrival peak of f disappears into the measure. Near
  * q = 0 (τ → 0) Y·Z behaves like a fractional power of q, so the integral is taken in σ = −ln q,
- * ∫₀^∞ e^{−σ}·Y·Z dσ, where that end becomes a smooth exponential tail (cut at σ = 40). The σ
- * integral is computed by adaptive 7/15-point Gauss–Kronrod quadrature, vector-valued over a
+ * ∫ e^{−σ}·Y·Z dσ, where that end becomes a smooth exponential tail (cut at σ = 40); likewise the
+ * late arrivals (q → 1, where Y·Z can be far larger than at typical times for points far off the
+ * axis or below the source) are integrated in ρ = −ln(1 − q), ∫ e^{−ρ}·Y·Z dρ (cut at ρ = 36). Both
+ * pieces is computed by adaptive 7/15-point Gauss–Kronrod quadrature, vector-valued over a
  * whole column of y values at one x, so every cell of a column shares the same nodes τ(q) (each
  * τ from a safeguarded Newton solve of ln F(τ) = ln F(t) − σ). Panels are bisected, worst first,
  * until the summed QUADPACK error estimate (from |Kronrod − Gauss|) is below relTol·max(column) + absTol.
@@ -26,7 +28,8 @@
  * Stated accuracy: error estimate ≤ relTol × (largest C/C0 in the column) + absTol, with
  * relTol = 1e-6 and absTol = 1e-13 by default (per panel the QUADPACK estimate resasc·min(1, (200|K − G|/resasc)^1.5), Piessens et al. 1983).
  */
-import { depthFactor, erfRatioSafe, type DepthSpan } from './spread';
+import { depthFactor, erfRatioSafe, spreadFactor, type DepthSpan } from './spread';
+import { erfDiff } from '../special/erf';
 import { GAUSS_W, KRONROD_W, panelNodes } from '../special/gaussKronrod';
 import { invertLnCdf, lnCdf } from './oneD';
 
@@ -62,13 +65,18 @@ interface Panel {
   b: number;
   kron: Float64Array;
   err: number;
+  /** true: a late-arrival panel in ρ = −ln(1 − q); false: an early-arrival panel in σ = −ln q */
+  late: boolean;
 }
+
+/** the early piece covers q ∈ (0, ½] (σ ∈ [ln 2, 40]), the late piece q ∈ [½, 1) (ρ ∈ [ln 2, 36];
+ * beyond ρ = 36, 1 − e^{−ρ} rounds to 1 and the neglected mass e^{−36} ≈ 2e-16) */
+const RHO_MAX = 36;
 
 /** the σ = −ln q range integrated; the neglected part of ∫₀¹ dq is e^{−40} ≈ 4e-18 */
 const SIGMA_MAX = 40;
 
 const nodeBuf = new Float64Array(15);
-const tauBuf = new Float64Array(15);
 const zBuf = new Float64Array(15);
 const sBuf = new Float64Array(15);
 const gBuf = new Float64Array(15);
@@ -82,18 +90,19 @@ function evalPanel(
   lnFt: number,
   p: PatchParams,
   tMax: number,
+  late: boolean,
 ): Panel {
   panelNodes(a, b, nodeBuf);
   const halfW = 0.5 * p.width;
   const h = 0.5 * (b - a);
-  // centre first, as the Newton start for the others
-  const tc = invertLnCdf(lnFt - nodeBuf[14], x, p.v, p.Dx, p.lam, tMax);
+  // centre first, as the Newton start for the others. Early piece: q = e^{−σ}, dq = e^{−σ}dσ;
+  // late piece: q = 1 − e^{−ρ}, dq = e^{−ρ}dρ (ln q = log1p(−e^{−ρ}))
+  const lnQ = (u: number) => (late ? Math.log1p(-Math.exp(-u)) : -u);
+  const tc = invertLnCdf(lnFt + lnQ(nodeBuf[14]), x, p.v, p.Dx, p.lam, tMax);
   for (let k = 0; k < 15; k++) {
-    const sigma = nodeBuf[k];
-    const tau = k === 14 ? tc : invertLnCdf(lnFt - sigma, x, p.v, p.Dx, p.lam, tMax, tc);
-    tauBuf[k] = tau;
-    // dq = e^{−σ} dσ
-    zBuf[k] = Math.exp(-sigma) * depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau));
+    const u = nodeBuf[k];
+    const tau = k === 14 ? tc : invertLnCdf(lnFt + lnQ(u), x, p.v, p.Dx, p.lam, tMax, tc);
+    zBuf[k] = Math.exp(-u) * depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau));
     sBuf[k] = 2 * Math.sqrt(p.Dy * tau);
   }
   const ny = ys.length;
@@ -112,7 +121,7 @@ function evalPanel(
         continue;
       }
       const s = sBuf[k];
-      const g = 0.5 * (erfRatioSafe(y + halfW, s) - erfRatioSafe(y - halfW, s)) * zf;
+      const g = 0.5 * (s > 0 ? erfDiff((y + halfW) / s, (y - halfW) / s) : erfRatioSafe(y + halfW, s) - erfRatioSafe(y - halfW, s)) * zf;
       gBuf[k] = g;
       K += KRONROD_W[k] * g;
       G += GAUSS_W[k] * g;
@@ -129,7 +138,7 @@ function evalPanel(
     if (resasc > 0 && e > 0) e = resasc * Math.min(1, Math.pow((200 * e) / resasc, 1.5));
     if (e > err) err = e;
   }
-  return { a, b, kron, err };
+  return { a, b, kron, err, late };
 }
 
 /**
@@ -159,9 +168,14 @@ export function exactColumn(
     for (let j = 0; j < ny; j++) out[offset + j * stride] = 0;
     return { errorEstimate: 0, panels: 0 };
   }
+  // Early arrivals in σ = −ln q, late arrivals in ρ = −ln(1 − q): both ends of the q interval
+  // become smooth exponential tails, where Y·Z can still carry most of the concentration (points
+  // near the source edge at early arrivals; far off the axis or below the source at late ones).
   const panels: Panel[] = [
-    evalPanel(0, 3, x, ys, depth, lnFt, p, t),
-    evalPanel(3, SIGMA_MAX, x, ys, depth, lnFt, p, t),
+    evalPanel(Math.LN2, 3, x, ys, depth, lnFt, p, t, false),
+    evalPanel(3, SIGMA_MAX, x, ys, depth, lnFt, p, t, false),
+    evalPanel(Math.LN2, 3, x, ys, depth, lnFt, p, t, true),
+    evalPanel(3, RHO_MAX, x, ys, depth, lnFt, p, t, true),
   ];
   const total = new Float64Array(ny);
   const sumUp = () => {
@@ -183,8 +197,8 @@ export function exactColumn(
     const pw = panels[worst];
     const mid = 0.5 * (pw.a + pw.b);
     if (!(mid > pw.a && mid < pw.b)) break;
-    panels[worst] = evalPanel(pw.a, mid, x, ys, depth, lnFt, p, t);
-    panels.push(evalPanel(mid, pw.b, x, ys, depth, lnFt, p, t));
+    panels[worst] = evalPanel(pw.a, mid, x, ys, depth, lnFt, p, t, pw.late);
+    panels.push(evalPanel(mid, pw.b, x, ys, depth, lnFt, p, t, pw.late));
     ({ e, m } = sumUp());
   }
   for (let j = 0; j < ny; j++) {

@@ -3,7 +3,7 @@
  * ½[erf((c + h)/s) − erf((c − h)/s)] for a source of half-extent h spread over length s, its
  * s → 0 limit, and its average over a well screen.
  */
-import { erf } from '../special/erf';
+import { erf, erfDiff } from '../special/erf';
 
 const INV_SQRT_PI = 0.5641895835477563;
 
@@ -24,8 +24,9 @@ function ierf(w: number): number {
   return w * erf(w) + INV_SQRT_PI * Math.exp(-w * w);
 }
 
-/** ½[erf((c + h)/s) − erf((c − h)/s)]: the lateral or vertical factor at one point. */
+/** ½[erf((c + h)/s) − erf((c − h)/s)]: the lateral or vertical factor at one point (h ≥ 0). */
 export function spreadFactor(c: number, h: number, s: number): number {
+  if (s > 0) return 0.5 * erfDiff((c + h) / s, (c - h) / s);
   return 0.5 * (erfRatioSafe(c + h, s) - erfRatioSafe(c - h, s));
 }
 

@@ -135,3 +135,24 @@ export function erfcx(x: number): number {
   }
   return r;
 }
+
+/**
+ * erfc(y) for y ≥ 0.46875 with a single exp(−y²): relative error ≤ (y² + 4)·ε, i.e. below 1e-13 for
+ * y < 27. Used where differences of error functions are formed (see erfDiff), where the last ulp
+ * of Cody's split exponential is not worth its second exp.
+ */
+export function erfcTail(y: number): number {
+  if (y >= XBIG) return 0;
+  return Math.exp(-y * y) * (y <= 4 ? erfcxMid(y) : erfcxLarge(y));
+}
+
+/**
+ * erf(a) − erf(b) without cancellation: when a and b lie on the same side beyond ±0.46875 the
+ * difference is taken between complementary error functions, erfc(b) − erfc(a) (or the mirrored
+ * form), so a difference of two numbers near ±1 keeps its relative accuracy (to ~1e-13).
+ */
+export function erfDiff(a: number, b: number): number {
+  if (a > THRESH && b > THRESH) return erfcTail(b) - erfcTail(a);
+  if (a < -THRESH && b < -THRESH) return erfcTail(-a) - erfcTail(-b);
+  return erf(a) - erf(b);
+}
