@@ -1,0 +1,171 @@
+/**
+ * The command line end to end: builds dist-cli/screen.mjs with scripts/build-cli.mjs, runs it on
+ * the demo cases in every format, and checks exit codes and messages for bad input. The figures
+ * printed are compared with screenCase run in-process on the same file (the CLI must print the
+ * engine's numbers, not its own).
+ */
+import { beforeAll, describe, expect, test } from 'vitest';
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parseCaseFile } from '../../src/case/io';
+import { screenCase } from '../../src/case/screen';
+import { SCREENING_CAUTION } from '../../src/case/caution';
+
+const CLI = 'dist-cli/screen.mjs';
+let dir: string;
+
+function run(...args: string[]) {
+  const r = spawnSync(process.execPath, [CLI, ...args], { encoding: 'utf8', timeout: 60_000 });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+beforeAll(() => {
+  execFileSync(process.execPath, ['scripts/build-cli.mjs', '--quiet'], { stdio: 'inherit' });
+  dir = mkdtempSync(join(tmpdir(), 'dg-cli-'));
+}, 120_000);
+
+function writeCase(name: string, body: string): string {
+  const p = join(dir, name);
+  writeFileSync(p, body);
+  return p;
+}
+
+const demo = (f: string) => `cases/${f}.json`;
+const screened = (f: string) => {
+  const r = parseCaseFile(readFileSync(f, 'utf8'));
+  if (!r.ok) throw new Error(r.errors.join('; '));
+  return screenCase(r.case);
+};
+
+describe('formats', () => {
+  test('table: sections, units, receptor rows and the caution', () => {
+    const { code, out, err } = run(demo('fuel-release-farm-well'));
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    for (const s of ['Derived parameters', 'seepage velocity v = K·i/nₑ', 'retardation R = 1 + ρb·Kd/n', 'dispersivity αL / αT / αV', 'Xu & Eckstein 1995', 'Receptors', 'Warnings', 'CAUTION']) expect(out).toContain(s);
+    for (const unit of ['m/d', 'x (m)', 'C at horizon (mg/L)', 'peak (mg/L) at (yr)', 'arrival at limit']) expect(out).toContain(unit);
+    expect(out).toContain('Farm supply well');
+    expect(out).toContain("Neighbour's garden well");
+    expect(out.replace(/\s+/g, ' ')).toContain(SCREENING_CAUTION);
+    // the seepage velocity printed is the engine's: 12 m/d × 0.004 / 0.25 = 0.192 m/d
+    expect(out).toMatch(/seepage velocity v = K·i\/nₑ\s+0\.192 m\/d/);
+  });
+
+  test('table: the other solution is printed where it differs by more than 5 %', () => {
+    const s = screened(demo('fuel-release-farm-well'));
+    const differing = s.results.filter((r) => (r.result.alternate?.relDiff ?? 0) > 0.05);
+    expect(differing.length).toBeGreaterThan(0); // this demo case has such receptors
+    const { out } = run(demo('fuel-release-farm-well'));
+    expect(out).toContain('Where the other solution differs by more than 5 %');
+    for (const r of differing) expect(out).toContain(`${r.receptor.name}: exact rectangular-source solution gives arrival`);
+  });
+
+  test('json: the engine figures in internal units, with units, warnings, caution and assumptions', () => {
+    const { code, out } = run(demo('solvent-release-creek'), '--format', 'json');
+    expect(code).toBe(0);
+    const j = JSON.parse(out);
+    const s = screened(demo('solvent-release-creek'));
+    expect(j.units).toMatchObject({ length: 'm', time: 'd', concentration: 'mg/L' });
+    expect(j.receptors).toHaveLength(s.results.length);
+    j.receptors.forEach((r: any, i: number) => {
+      const e = s.results[i];
+      expect(r.name).toBe(e.receptor.name);
+      expect(r.x).toBe(e.receptor.x);
+      expect(r.arrival).toBe(e.result.arrival);
+      expect(r.atHorizon).toBe(e.result.atHorizon);
+      expect(r.peak).toEqual(e.result.peak);
+      expect(r.status).toBe(e.result.status);
+      expect(r.alternate?.solution).toBe(e.result.alternate?.solution);
+    });
+    expect(j.derived.v).toBe(s.prepared.derived.v);
+    expect(j.derived.R).toBe(s.prepared.derived.R);
+    expect(j.caution).toBe(SCREENING_CAUTION);
+    expect(j.assumptions.length).toBeGreaterThan(5);
+    expect(j.model.duration).toBeNull(); // continuous release: Infinity is written as null in JSON
+  });
+
+  test('csv: caution lines, a header with units, one row per receptor', () => {
+    const { code, out } = run(demo('v1-compact-example'), '--format=csv');
+    expect(code).toBe(0);
+    const lines = out.split('\r\n').filter(Boolean);
+    const comments = lines.filter((l) => l.startsWith('#'));
+    expect(comments.join(' ')).toMatch(/Screening-level estimates only/);
+    const rows = lines.filter((l) => !l.startsWith('#'));
+    const header = rows[0].split(',');
+    expect(header).toContain('arrival_d');
+    expect(header).toContain('c_horizon_mg_per_L');
+    expect(header).toContain('x_m');
+    const s = screened(demo('v1-compact-example'));
+    expect(rows).toHaveLength(1 + s.results.length);
+    // a name with a comma is quoted (RFC 4180)
+    expect(rows[1]).toContain('"House well, Orchard Lane"');
+    const idx = header.indexOf('c_horizon_mg_per_L');
+    // split the quoted row by a CSV-aware pattern
+    const cells = rows[1].match(/("([^"]|"")*"|[^,]*)(,|$)/g)!.map((c) => c.replace(/,$/, ''));
+    expect(Number(cells[idx])).toBe(s.results[0].result.atHorizon);
+  });
+
+  test('every demo case screens in every format (exit 0)', () => {
+    for (const f of ['fuel-release-farm-well', 'solvent-release-creek', 'nitrate-field-supply', 'v1-compact-example'])
+      for (const fmt of ['table', 'json', 'csv']) expect(run(demo(f), '--format', fmt).code, `${f} ${fmt}`).toBe(0);
+  });
+
+  test('--help', () => {
+    const { code, out } = run('--help');
+    expect(code).toBe(0);
+    expect(out).toMatch(/Usage:/);
+    expect(out).toMatch(/--format table\|json\|csv/);
+    expect(out).toMatch(/Exit codes/);
+  });
+});
+
+describe('bad input: non-zero exit and a message naming the problem', () => {
+  test('usage errors exit 2', () => {
+    expect(run().code).toBe(2);
+    expect(run().err).toMatch(/no case file given/);
+    const bad = run(demo('v1-compact-example'), '--format', 'xml');
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/--format must be table, json or csv \(got "xml"\)/);
+    expect(run('--verbose', 'a.json').err).toMatch(/unknown option --verbose/);
+    expect(run('a.json', 'b.json').err).toMatch(/only one case file/);
+  });
+
+  test('missing file and directory exit 3', () => {
+    const r = run(join(dir, 'no-such-case.json'));
+    expect(r.code).toBe(3);
+    expect(r.err).toMatch(/cannot read .*no-such-case\.json: no such file/);
+    const d = run(dir);
+    expect(d.code).toBe(3);
+    expect(d.err).toMatch(/is a directory/);
+  });
+
+  test('not JSON, wrong format, future version, schema field: exit 4 with the reason', () => {
+    const notJson = run(writeCase('broken.json', '{ "format": '));
+    expect(notJson.code).toBe(4);
+    expect(notJson.err).toMatch(/not valid JSON/);
+    const foreign = run(writeCase('foreign.json', JSON.stringify({ type: 'FeatureCollection', features: [] })));
+    expect(foreign.code).toBe(4);
+    expect(foreign.err).toMatch(/format is missing/);
+    const future = run(writeCase('future.json', JSON.stringify({ format: 'downgradient-case', version: 7 })));
+    expect(future.code).toBe(4);
+    expect(future.err).toMatch(/version 7 is newer/);
+    const v1 = JSON.parse(readFileSync(demo('v1-compact-example'), 'utf8'));
+    v1.aquifer.K = 'fast';
+    const schema = run(writeCase('schema.json', JSON.stringify(v1)));
+    expect(schema.code).toBe(4);
+    expect(schema.err).toMatch(/aquifer\.K: expected a number, got "fast"/);
+    expect(schema.out).toBe('');
+  });
+
+  test('a value outside its range: exit 5 naming the case field and the accepted range', () => {
+    const v1 = JSON.parse(readFileSync(demo('v1-compact-example'), 'utf8'));
+    v1.aquifer.effectivePorosity = 1.25;
+    const r = run(writeCase('range.json', JSON.stringify(v1)));
+    expect(r.code).toBe(5);
+    expect(r.err).toMatch(/aquifer\.effectivePorosity = 1\.25 is not accepted/);
+    expect(r.err).toMatch(/accepted: in \(0, 1\)/);
+    expect(r.out).toBe('');
+  });
+});
