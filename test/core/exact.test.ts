@@ -123,6 +123,24 @@ describe('against the independent tanh-sinh quadrature of the Wexler integral', 
     log.assertNone();
   });
 
+  it('steady state (t = Infinity) against the quadrature to a time T where the remaining passage mass is below e^-50', () => {
+    const log = new MismatchLog();
+    for (const p of [
+      { ...base, x: 30, y: 6, z: 1, t: Infinity },
+      { ...base, x: 120, y: 14, z: 0, t: Infinity, decay: 1e-3 },
+      { ...base, x: 8, y: 0, z: 5, t: Infinity, R: 4 },
+    ]) {
+      const r = retarded(p);
+      const mu = p.x / r.v;
+      const pe = (p.x * r.v) / r.Dx;
+      // tail of the passage density beyond T ~ exp(−Pe·(T/μ)/4) ≤ e^-50
+      const T = mu * Math.max(200, 200 / pe);
+      const ref = patchReference({ ...p, t: T });
+      log.check('steady state', p, patchSourceExact(p), ref, engineTol(ref));
+    }
+    log.assertNone();
+  });
+
   it('150 seeded random cases (seed 1992)', () => {
     const rng = new Prng(1992);
     const log = new MismatchLog();
