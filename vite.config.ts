@@ -76,7 +76,7 @@ export default defineConfig({
       injectRegister: false,
       // the manifest is the static public/manifest.webmanifest, linked by the plugin above
       manifest: false,
-      includeAssets: ['icons/*.png', 'manifest.webmanifest'],
+      // icons and the manifest are precached through globPatterns (listing them again duplicates entries)
       workbox: {
         globPatterns: ['**/*.{js,css,html,svg,png,webmanifest,json}'],
         navigateFallback: 'index.html',

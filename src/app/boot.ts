@@ -1,10 +1,26 @@
 /**
- * Start-up: decides which case the app opens with and what the shell gets from the storage and
- * offline layers. (The store layer replaces the in-memory start with the last case on the device.)
+ * Start-up: opens the case store, replays edits a closed tab left unsaved, opens the last case (or
+ * the newest, or a new one), starts autosave, asks for persistent storage, registers the service
+ * worker, and hands the header its case menu and status area.
+ *
+ * If IndexedDB cannot be opened at all, the app still runs on a new case in memory and says so
+ * (export keeps the work); nothing is written anywhere else.
  */
 import type { ComponentType } from 'preact';
+import { effect } from '@preact/signals';
 import type { Case } from '../case/schema';
 import { newCase } from '../case/defaults';
+import { CaseStore } from '../store/cases';
+import { Autosaver } from '../store/autosave';
+import { Journal, recoverJournal, type Recovery } from '../store/journal';
+import { openCaseChannel } from '../store/channel';
+import { requestPersistence } from '../store/quota';
+import { currentCase, replaceCase } from '../ui/state';
+import { libraryChanged, notify, online, saveState, session, storageUnavailable } from './session';
+import { refreshStorageInfo } from './actions';
+import { registerServiceWorker } from './serviceWorker';
+import { CaseMenu } from '../ui/library/CaseMenu';
+import { StatusArea } from '../ui/library/StatusArea';
 
 export interface AppSlots {
   /** case library / files menu shown in the header, provided by the storage layer */
@@ -18,6 +34,99 @@ export interface BootResult {
   slots: AppSlots;
 }
 
+function localStorageOrNull(): Storage | null {
+  try {
+    return globalThis.localStorage ?? null;
+  } catch {
+    return null;
+  }
+}
+
+function reportRecoveries(rs: Recovery[]): void {
+  for (const r of rs) {
+    if (r.outcome === 'saved') notify({ tone: 'info', text: `Recovered unsaved edits to “${r.name}” from the last session.`, timeoutMs: 8000 });
+    if (r.outcome === 'saved-as-copy')
+      notify({ tone: 'warn', text: `Unsaved edits from the last session were overtaken by a later save; they are kept as “${r.name}”.` });
+    if (r.outcome === 'unreadable') notify({ tone: 'warn', text: 'A damaged copy of unsaved edits was found and left untouched.' });
+  }
+}
+
+async function openInitial(store: CaseStore): Promise<{ c: Case; revision: number | null }> {
+  const ids = [await store.lastOpenId(), ...(await store.list()).map((s) => s.id)].filter((x): x is string => !!x);
+  for (const id of ids) {
+    const loaded = await store.load(id);
+    if (loaded?.read.ok) return { c: loaded.read.case, revision: loaded.record.revision };
+    if (loaded && !loaded.read.ok) {
+      notify({ tone: 'warn', text: `“${loaded.record.name}” could not be opened (${loaded.read.error}); it is kept on the device unchanged.` });
+    }
+  }
+  return { c: newCase(), revision: null };
+}
+
 export async function boot(): Promise<BootResult> {
-  return { initialCase: newCase(), slots: {} };
+  const slots: AppSlots = { caseMenu: CaseMenu, status: StatusArea };
+  window.addEventListener('online', () => (online.value = true));
+  window.addEventListener('offline', () => (online.value = false));
+
+  let store: CaseStore;
+  try {
+    store = await CaseStore.open({
+      events: (e) => {
+        if (e.type === 'blocked') notify({ tone: 'warn', text: 'Close other Downgradient tabs still running an older version so storage can upgrade.' });
+      },
+    });
+  } catch (e) {
+    storageUnavailable.value =
+      `Cases cannot be stored in this browser (${e instanceof Error ? e.message : String(e)}). ` +
+      'You can still screen; use Export to keep your work as a file.';
+    const c = newCase();
+    replaceCase(c);
+    return { initialCase: c, slots };
+  }
+
+  const journal = new Journal(localStorageOrNull());
+  try {
+    reportRecoveries(await recoverJournal(store, journal));
+  } catch {
+    notify({ tone: 'warn', text: 'Unsaved edits from the last session could not be replayed yet; they are kept and retried next start.' });
+  }
+  const { c, revision } = await openInitial(store);
+
+  const autosaver = new Autosaver(store, {
+    journal,
+    channel: openCaseChannel(),
+    onState: (s) => {
+      saveState.value = s;
+      if (s.kind === 'saved') libraryChanged();
+    },
+    onRemoteUpdate: (theirs) => {
+      replaceCase(theirs);
+      notify({ tone: 'info', text: 'This case was changed in another tab or window; showing the latest version.', timeoutMs: 6000 });
+    },
+  });
+  session.store = store;
+  session.autosaver = autosaver;
+
+  autosaver.open(c, revision);
+  replaceCase(c);
+  let lastId = c.id;
+  void store.setLastOpenId(c.id).catch(() => {});
+  effect(() => {
+    const cur = currentCase.value;
+    autosaver.change(cur);
+    if (cur.id !== lastId) {
+      lastId = cur.id;
+      void store.setLastOpenId(cur.id).catch(() => {});
+    }
+  });
+
+  // Flush when the page may be going away: closed tab, app switch, screen off, dead battery.
+  window.addEventListener('pagehide', () => autosaver.emergency());
+  document.addEventListener('visibilitychange', () => {
+    if (document.visibilityState === 'hidden') autosaver.emergency();
+  });
+
+  void requestPersistence().then(refreshStorageInfo);
+  if (import.meta.env.PROD) registerServiceWorker();
+  return { initialCase: c, slots };
 }

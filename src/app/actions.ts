@@ -1,0 +1,182 @@
+/**
+ * What the case library, file menu and conflict dialog do, over the store and the autosaver.
+ * Every action that replaces the case on screen first saves the one that was there.
+ */
+import type { Case } from '../case/schema';
+import { newCase } from '../case/defaults';
+import { parseCaseFile, serializeCase, DEFAULT_MAX_BYTES } from '../case/io';
+import { currentCase, replaceCase } from '../ui/state';
+import type { ConflictChoice } from '../store/autosave';
+import { StorageFullError } from '../store/cases';
+import { storageInfo } from '../store/quota';
+import { libraryChanged, notify, session, storage } from './session';
+
+function need() {
+  const { store, autosaver } = session;
+  if (!store || !autosaver) throw new Error('Case storage is not available in this browser; use Export to keep your work.');
+  return { store, autosaver };
+}
+
+function message(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+export async function refreshStorageInfo(): Promise<void> {
+  storage.value = await storageInfo();
+}
+
+/** Put a case on screen that the autosaver already tracks at `revision`. */
+function show(c: Case, revision: number | null): void {
+  const { store, autosaver } = need();
+  autosaver.open(c, revision);
+  replaceCase(c);
+  void store.setLastOpenId(c.id).catch(() => {});
+}
+
+export async function openStoredCase(id: string): Promise<boolean> {
+  const { store, autosaver } = need();
+  await autosaver.flush();
+  const loaded = await store.load(id);
+  if (!loaded) {
+    notify({ tone: 'error', text: 'That case is no longer on this device (deleted in another tab?).', timeoutMs: 8000 });
+    libraryChanged();
+    return false;
+  }
+  if (!loaded.read.ok) {
+    notify({ tone: 'error', text: `“${loaded.record.name}” cannot be opened: ${loaded.read.error}. It is kept on the device unchanged.` });
+    return false;
+  }
+  show(loaded.read.case, loaded.record.revision);
+  return true;
+}
+
+export async function startNewCase(): Promise<void> {
+  const { autosaver } = need();
+  await autosaver.flush();
+  const c = newCase();
+  show(c, null);
+  libraryChanged();
+}
+
+export async function renameStored(id: string, name: string): Promise<string | null> {
+  const { store, autosaver } = need();
+  try {
+    if (id === currentCase.peek().id) {
+      // the open case: rename on screen, autosave stores it
+      const trimmed = name.trim();
+      if (trimmed.length < 1 || trimmed.length > 200) return 'Case name: 1 to 200 characters.';
+      replaceCase({ ...currentCase.peek(), name: trimmed, modified: new Date().toISOString() });
+      await autosaver.flush();
+    } else {
+      await store.rename(id, name);
+    }
+    libraryChanged();
+    return null;
+  } catch (e) {
+    return message(e);
+  }
+}
+
+export async function duplicateAsVariant(id: string): Promise<void> {
+  const { store, autosaver } = need();
+  await autosaver.flush();
+  try {
+    const v = await store.duplicateAsVariant(id);
+    show(v.case, v.record.revision);
+    libraryChanged();
+    notify({ tone: 'info', text: `Opened “${v.case.name}”, a what-if copy. The original is unchanged.`, timeoutMs: 6000 });
+  } catch (e) {
+    notify({ tone: 'error', text: `Could not make a what-if copy: ${message(e)}` });
+  }
+}
+
+export async function deleteWithUndo(id: string): Promise<void> {
+  const { store, autosaver } = need();
+  const wasOpen = id === currentCase.peek().id;
+  if (wasOpen) await autosaver.flush();
+  try {
+    const entry = await store.remove(id);
+    libraryChanged();
+    if (wasOpen) {
+      const rest = await store.list();
+      if (rest.length) await openStoredCase(rest[0].id);
+      else await startNewCase();
+    }
+    notify({
+      tone: 'info',
+      text: `Deleted “${entry.record.name}”. It stays recoverable for 30 days.`,
+      timeoutMs: 12000,
+      action: {
+        label: 'Undo',
+        run: async () => {
+          const back = await store.restore(id);
+          libraryChanged();
+          if (wasOpen) await openStoredCase(back.id);
+        },
+      },
+    });
+  } catch (e) {
+    notify({ tone: 'error', text: `Could not delete: ${message(e)}` });
+  }
+}
+
+export async function restoreDeleted(id: string): Promise<void> {
+  const { store } = need();
+  try {
+    await store.restore(id);
+    libraryChanged();
+  } catch (e) {
+    notify({ tone: 'error', text: `Could not restore: ${message(e)}` });
+  }
+}
+
+export type ImportOutcome = { ok: true; name: string; note: string | null } | { ok: false; errors: string[] };
+
+/**
+ * Import a case file. A file that is malformed, too large, of an unknown version or hostile is
+ * rejected with what is wrong, and nothing stored changes. An imported case whose id is already
+ * on the device with different content is stored as a separate copy (new id).
+ */
+export async function importCaseText(text: string, fileName = 'the file'): Promise<ImportOutcome> {
+  const parsed = parseCaseFile(text, { maxBytes: DEFAULT_MAX_BYTES });
+  if (!parsed.ok) return { ok: false, errors: parsed.errors.map((e) => `${fileName}: ${e}`) };
+  const { store, autosaver } = need();
+  await autosaver.flush();
+  const c = parsed.case;
+  try {
+    const existing = await store.getRecord(c.id);
+    if (existing && JSON.stringify(existing.data) === JSON.stringify(c)) {
+      show(c, existing.revision);
+      return { ok: true, name: c.name, note: 'This exact case was already on the device; it is now open.' };
+    }
+    if (existing) {
+      const copy = await store.saveAsNew(c);
+      show(copy.case, copy.record.revision);
+      libraryChanged();
+      return { ok: true, name: c.name, note: 'A different version of this case is on the device; the file was stored beside it as a separate copy.' };
+    }
+    const r = await store.save(c, null);
+    if (r.status !== 'saved') throw new Error('the case appeared in storage meanwhile; import again');
+    show(c, r.record.revision);
+    libraryChanged();
+    return { ok: true, name: c.name, note: null };
+  } catch (e) {
+    if (e instanceof StorageFullError) return { ok: false, errors: [e.message] };
+    return { ok: false, errors: [`${fileName}: could not be stored: ${message(e)}`] };
+  }
+}
+
+export function caseFileText(c: Case = currentCase.peek()): string {
+  return serializeCase(c);
+}
+
+export async function resolveConflict(choice: ConflictChoice): Promise<void> {
+  const { autosaver } = need();
+  try {
+    const c = await autosaver.resolve(choice);
+    replaceCase(c);
+    libraryChanged();
+  } catch (e) {
+    notify({ tone: 'error', text: message(e) });
+  }
+}

@@ -1,0 +1,72 @@
+/**
+ * Service-worker registration and updates (workbox-window). The worker itself is generated at
+ * build by vite-plugin-pwa (precached app shell, runtime tile cache; see vite.config.ts) and
+ * exists only in the production build.
+ *
+ * A new version installs in the background and waits. The status area offers "Update"; applying
+ * it first saves the open case (and refuses while it cannot be saved, e.g. storage full), then
+ * tells the waiting worker to take over, and reloads once it controls the page. Unsaved work is
+ * never discarded by an update.
+ */
+import { Workbox } from 'workbox-window';
+import { offlineReady, updateWaiting, notify, session } from './session';
+
+export async function saveBeforeReload(): Promise<boolean> {
+  const a = session.autosaver;
+  if (!a) return true;
+  await a.flush();
+  if (a.isDirty()) {
+    a.emergency();
+    notify({
+      tone: 'warn',
+      text: 'The update waits: the latest changes could not be saved yet. Free some space or export the case, then update.',
+      timeoutMs: 10000,
+    });
+    return false;
+  }
+  return true;
+}
+
+export function registerServiceWorker(url = './sw.js'): Workbox | null {
+  if (!('serviceWorker' in navigator)) return null;
+  const wb = new Workbox(url, { type: 'classic' });
+  let reloading = false;
+
+  const offerUpdate = () => {
+    updateWaiting.value = {
+      apply: async () => {
+        if (!(await saveBeforeReload())) return;
+        wb.addEventListener('controlling', () => {
+          if (reloading) return;
+          reloading = true;
+          window.location.reload();
+        });
+        wb.messageSkipWaiting();
+      },
+    };
+  };
+
+  wb.addEventListener('waiting', offerUpdate);
+  wb.addEventListener('activated', (e) => {
+    if (!e.isUpdate) offlineReady.value = true;
+  });
+  wb.addEventListener('controlling', () => {
+    offlineReady.value = true;
+  });
+  wb.register()
+    .then((reg) => {
+      if (navigator.serviceWorker.controller) offlineReady.value = true;
+      // look for a new version when the app comes back to the foreground, at most hourly
+      let last = Date.now();
+      document.addEventListener('visibilitychange', () => {
+        if (document.visibilityState === 'visible' && navigator.onLine && Date.now() - last > 3600_000) {
+          last = Date.now();
+          void reg?.update().catch(() => {});
+        }
+      });
+    })
+    .catch((e) => {
+      notify({ tone: 'warn', text: `Offline use is not available in this browser session (${e instanceof Error ? e.message : String(e)}).` });
+    });
+  return wb;
+}

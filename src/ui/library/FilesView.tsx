@@ -1,0 +1,125 @@
+/**
+ * Files out (case file, GeoJSON, CSV tables, share, printable report) and in (case file import
+ * with validation: a rejected file changes nothing stored, and the message says what is wrong).
+ */
+import { useState } from 'preact/hooks';
+import { currentCase, currentResults } from '../state';
+import { importCaseText } from '../../app/actions';
+import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
+import { caseFile, curvesCsvFile, geojsonFile, receptorCsvFile, type Built } from './outputs';
+import { reportOpen } from './ReportView';
+import { DEFAULT_MAX_BYTES } from '../../case/io';
+import { SCREENING_CAUTION } from '../../case/caution';
+import { sheet } from './CaseMenu';
+
+type Msg = { tone: 'ok' | 'error'; lines: string[] } | null;
+
+export function FilesView() {
+  const [msg, setMsg] = useState<Msg>(null);
+  const [busy, setBusy] = useState(false);
+  const c = currentCase.value;
+  const r = currentResults.value;
+  const share = canShareFiles();
+
+  const out = (build: () => Built) => {
+    const b = build();
+    if (!b.ok) return setMsg({ tone: 'error', lines: [b.error] });
+    downloadFile(b.file);
+    setMsg({ tone: 'ok', lines: [`Saved ${b.file.name} to your downloads.`] });
+  };
+
+  const shareAll = async () => {
+    const files: OutFile[] = [];
+    const errors: string[] = [];
+    for (const b of [caseFile(c), geojsonFile(c, r), receptorCsvFile(c, r)]) {
+      if (b.ok) files.push(b.file);
+      else errors.push(b.error);
+    }
+    const ok = await shareFiles(files, c.name, `${c.name} — screening files. ${SCREENING_CAUTION}`);
+    setMsg(ok ? { tone: 'ok', lines: [`Shared ${files.map((f) => f.name).join(', ')}.`, ...errors] } : { tone: 'error', lines: ['Sharing was cancelled or is not possible for these files.', ...errors] });
+  };
+
+  const onImport = async (input: HTMLInputElement) => {
+    const file = input.files?.[0];
+    input.value = '';
+    if (!file) return;
+    setBusy(true);
+    try {
+      if (file.size > DEFAULT_MAX_BYTES) {
+        setMsg({ tone: 'error', lines: [`${file.name}: the file is ${(file.size / 1048576).toFixed(1)} MB, larger than the ${DEFAULT_MAX_BYTES / 1048576} MB accepted for a case file. Nothing was imported.`] });
+        return;
+      }
+      const text = await file.text();
+      const res = await importCaseText(text, file.name);
+      if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” and opened it.`, ...(res.note ? [res.note] : [])] });
+      else setMsg({ tone: 'error', lines: [...res.errors, 'Nothing was imported; the cases on this device are unchanged.'] });
+    } catch (e) {
+      setMsg({ tone: 'error', lines: [`${file.name}: could not be read (${e instanceof Error ? e.message : String(e)}). Nothing was imported.`] });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <section aria-label="Files">
+      <h2 class="dg-lib-h">Save the open case as a file</h2>
+      <p class="dg-lib-note">“{c.name}”</p>
+      <div class="dg-lib-grid">
+        <button type="button" class="dg-lib-btn" data-testid="export-case" onClick={() => out(() => caseFile(c))}>
+          Case file (.json)
+          <small>re-opens in Downgradient on any device</small>
+        </button>
+        <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => out(() => geojsonFile(c, r))}>
+          Map layers (GeoJSON)
+          <small>source, receptors, flow arrow, plume contours for a GIS</small>
+        </button>
+        <button type="button" class="dg-lib-btn" data-testid="export-table" onClick={() => out(() => receptorCsvFile(c, r))}>
+          Receptor table (CSV)
+          <small>arrival, peak and steady values per receptor</small>
+        </button>
+        <button type="button" class="dg-lib-btn" data-testid="export-curves" onClick={() => out(() => curvesCsvFile(c, r))}>
+          Breakthrough curves (CSV)
+          <small>concentration over time at each receptor</small>
+        </button>
+        <button
+          type="button"
+          class="dg-lib-btn"
+          data-testid="open-report"
+          onClick={() => {
+            sheet.value = null;
+            reportOpen.value = true;
+          }}
+        >
+          Printable report
+          <small>preview, then print or save as PDF</small>
+        </button>
+        {share && (
+          <button type="button" class="dg-lib-btn" onClick={() => void shareAll()}>
+            Share…
+            <small>case file, GeoJSON and table to another app</small>
+          </button>
+        )}
+      </div>
+
+      <h2 class="dg-lib-h">Open a case file</h2>
+      <label class="dg-lib-btn is-primary dg-lib-file">
+        {busy ? 'Reading…' : 'Choose a case file…'}
+        <input
+          type="file"
+          accept=".json,application/json"
+          data-testid="import-input"
+          disabled={busy}
+          onChange={(e) => void onImport(e.target as HTMLInputElement)}
+        />
+      </label>
+      <p class="dg-lib-note">The file is checked before anything is stored: size (up to 2 MB), JSON, format, version and every field.</p>
+      {msg && (
+        <div class={`dg-lib-msg ${msg.tone === 'error' ? 'is-error' : 'is-ok'}`} role={msg.tone === 'error' ? 'alert' : 'status'} data-testid="files-message">
+          {msg.lines.map((l, i) => (
+            <p key={i}>{l}</p>
+          ))}
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,136 @@
+/**
+ * The header's status area: network state and offline readiness, whether the case is saved,
+ * the update prompt, the two-tab conflict choice, and short notices (with Undo after a delete).
+ * Everything is visible text or a button; nothing depends on hover.
+ */
+import { useEffect, useRef } from 'preact/hooks';
+import { createPortal } from 'preact/compat';
+import { dismiss, notices, offlineReady, online, saveState, updateWaiting } from '../../app/session';
+import { resolveConflict } from '../../app/actions';
+import { currentCase } from '../state';
+import { ReportHost } from './ReportView';
+import './library.css';
+
+function SaveChip() {
+  const s = saveState.value;
+  const text =
+    s.kind === 'saved'
+      ? 'Saved on this device'
+      : s.kind === 'pending' || s.kind === 'saving'
+        ? 'Saving…'
+        : s.kind === 'storage-full'
+          ? 'Not saved: storage full'
+          : s.kind === 'conflict'
+            ? 'Not saved: changed elsewhere'
+            : 'Not saved yet';
+  const tone = s.kind === 'saved' ? 'ok' : s.kind === 'pending' || s.kind === 'saving' ? 'busy' : 'bad';
+  return (
+    <span class={`dg-chip is-${tone}`} role="status" data-testid="save-state" data-state={s.kind}>
+      {text}
+    </span>
+  );
+}
+
+function NetChip() {
+  if (online.value) {
+    return offlineReady.value ? (
+      <span class="dg-chip is-ok" data-testid="net-state" data-state="online">
+        Ready offline
+      </span>
+    ) : null;
+  }
+  return (
+    <span class="dg-chip is-warn" role="status" data-testid="net-state" data-state="offline">
+      Offline — working on this device
+    </span>
+  );
+}
+
+function ConflictDialog() {
+  const s = saveState.value;
+  const ref = useRef<HTMLDialogElement>(null);
+  useEffect(() => {
+    if (ref.current && !ref.current.open) ref.current.showModal();
+  }, []);
+  if (s.kind !== 'conflict') return null;
+  const theirsName = s.theirsCase?.name ?? s.theirs?.name ?? null;
+  const when = s.theirs ? new Date(s.theirs.savedAt).toLocaleString() : null;
+  return (
+    <dialog ref={ref} class="dg-lib-dialog" aria-labelledby="dg-conflict-title" data-testid="conflict-dialog" onCancel={(e) => e.preventDefault()}>
+      <h2 id="dg-conflict-title">This case was changed somewhere else</h2>
+      <p>
+        {s.theirs
+          ? `Another tab or window saved “${theirsName}” at ${when}, while this one has changes of its own. Nothing has been overwritten. Choose what to keep:`
+          : 'The stored copy of this case was deleted or replaced in another tab or window, while this one has changes of its own. Nothing has been overwritten. Choose what to keep:'}
+      </p>
+      <div class="dg-lib-grid">
+        <button type="button" class="dg-lib-btn is-primary" onClick={() => void resolveConflict('copy')}>
+          Save mine as a copy
+          <small>both versions are kept</small>
+        </button>
+        <button type="button" class="dg-lib-btn" onClick={() => void resolveConflict('mine')}>
+          Keep mine
+          <small>replaces the other version</small>
+        </button>
+        <button type="button" class="dg-lib-btn" disabled={!s.theirsCase} onClick={() => void resolveConflict('theirs')}>
+          Take theirs
+          <small>{s.theirsCase ? 'drops the changes made here' : 'not available'}</small>
+        </button>
+      </div>
+      <p class="dg-lib-note">Open now: “{currentCase.value.name}”.</p>
+    </dialog>
+  );
+}
+
+function Notices() {
+  const list = notices.value;
+  const s = saveState.value;
+  return createPortal(
+    <div class="dg-notices" aria-live="polite">
+      {(s.kind === 'storage-full' || s.kind === 'error') && (
+        <div class="dg-notice is-error" role="alert" data-testid="storage-full">
+          <p>{s.message}</p>
+        </div>
+      )}
+      {list.map((n) => (
+        <div key={n.id} class={`dg-notice is-${n.tone}`}>
+          <p>{n.text}</p>
+          {n.action && (
+            <button
+              type="button"
+              class="dg-lib-btn is-primary"
+              onClick={() => {
+                dismiss(n.id);
+                void n.action!.run();
+              }}
+            >
+              {n.action.label}
+            </button>
+          )}
+          <button type="button" class="dg-lib-btn" aria-label="Dismiss" onClick={() => dismiss(n.id)}>
+            OK
+          </button>
+        </div>
+      ))}
+    </div>,
+    document.body,
+  );
+}
+
+export function StatusArea() {
+  const upd = updateWaiting.value;
+  return (
+    <span class="dg-status">
+      <NetChip />
+      <SaveChip />
+      {upd && (
+        <button type="button" class="dg-lib-btn is-primary" data-testid="apply-update" onClick={() => void upd.apply()}>
+          Update ready — save and restart
+        </button>
+      )}
+      {saveState.value.kind === 'conflict' && createPortal(<ConflictDialog key={String(saveState.value.theirs?.revision)} />, document.body)}
+      <Notices />
+      <ReportHost />
+    </span>
+  );
+}

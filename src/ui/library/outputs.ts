@@ -1,0 +1,44 @@
+/**
+ * The files the app writes for the open case, built from the case and the latest results.
+ */
+import type { Case } from '../../case/schema';
+import { serializeCase } from '../../case/io';
+import { caseToGeoJSON } from '../../case/export-geojson';
+import { breakthroughCsv, fileStem, receptorTableCsv } from '../../case/export-csv';
+import type { Evaluation } from '../results';
+import type { OutFile } from './download';
+import { APP_VERSION } from './version';
+
+export type Built = { ok: true; file: OutFile } | { ok: false; error: string };
+
+/** Results belong to this case only if they were computed from its current inputs. */
+export function resultsFor(c: Case, r: Evaluation | null): Evaluation | null {
+  return r && r.caseId === c.id && r.caseStamp === c.modified ? r : null;
+}
+
+const NOT_READY = 'Results for the current inputs are not ready yet (or the inputs are not valid); wait for them, then export.';
+
+export function caseFile(c: Case): Built {
+  return { ok: true, file: { name: `${fileStem(c)}.case.json`, type: 'application/json', text: serializeCase(c) } };
+}
+
+export function geojsonFile(c: Case, r: Evaluation | null): Built {
+  const res = resultsFor(c, r);
+  if (!res) return { ok: false, error: `GeoJSON: ${NOT_READY}` };
+  const out = caseToGeoJSON(c, res, { appVersion: APP_VERSION });
+  if (!out.ok) return out;
+  return { ok: true, file: { name: `${fileStem(c)}.geojson`, type: 'application/geo+json', text: out.text } };
+}
+
+export function receptorCsvFile(c: Case, r: Evaluation | null): Built {
+  const res = resultsFor(c, r);
+  if (!res) return { ok: false, error: `Receptor table: ${NOT_READY}` };
+  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res) } };
+}
+
+export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
+  const res = resultsFor(c, r);
+  if (!res) return { ok: false, error: `Breakthrough curves: ${NOT_READY}` };
+  if (res.receptors.length === 0) return { ok: false, error: 'Breakthrough curves: the case has no receptors yet.' };
+  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res) } };
+}
