@@ -55,6 +55,7 @@ function describe(issue: Issue, base: readonly PathKey[]): string[] {
   const input = (issue as { input?: unknown }).input;
   switch (issue.code) {
     case 'invalid_type': {
+      if (typeof input === 'number') return [`${at}: expected a finite number, got ${input} (a number too large to represent, or not a number)`];
       const want = TYPE_WORDS[issue.expected] ?? issue.expected;
       return input === undefined ? [`${at} is missing: expected ${want}`] : [`${at}: expected ${want}, got ${show(input)}`];
     }

@@ -28,6 +28,7 @@ describe('rejection table: each bad file → its message, nothing thrown', () =>
     ['absurd nesting', '{"a":' + '['.repeat(100_000) + ']'.repeat(100_000) + '}', new RegExp(`more than ${MAX_DEPTH} levels deep`)],
     ['overlong string', text({ ...c, notes: 'x'.repeat(150_000) }), /text value of 150000 characters is longer than the 100000 accepted/],
     ['schema: notes over 20 000 characters', text({ ...c, notes: 'x'.repeat(20_001) }), /^notes: .* is too large; accepted: at most 20000 characters/],
+    ['a number too large for a double (1e400 → Infinity)', serializeCase(c).replace('"effectivePorosity": 0.25', '"effectivePorosity": 1e400'), /^aquifer\.effectivePorosity: expected a finite number, got Infinity/],
     ['schema: name too long', text({ ...c, name: 'n'.repeat(300) }), /^name: .* is too large; accepted: at most 200 characters/],
     ['schema: porosity as text', text({ ...c, aquifer: { ...c.aquifer, effectivePorosity: '0.3' } }), /^aquifer\.effectivePorosity: expected a number, got "0\.3"/],
     ['schema: wrong unit dimension', text({ ...c, aquifer: { ...c.aquifer, hydraulicConductivity: { value: 1, unit: 'mg/L' } } }), /^aquifer\.hydraulicConductivity\.unit: "mg\/L" must be a conductivity unit \(K:m\/d, K:m\/s/],
