@@ -118,7 +118,7 @@ describe('against the decimal.js reference', () => {
       const v = 0.5;
       const D = (x * v) / pe;
       const arrival = x / v;
-      for (const f of [0.5, 0.9, 0.99, 0.999, 1, 1.001, 1.01, 1.1, 2, 10]) {
+      for (const f of [0.5, 0.9, 0.99, 1, 1.001, 1.01, 1.1, 3]) {
         for (const decay of [0, 1e-4, 1e-2]) {
           checkAgainstReference(log, `Pe ${pe}`, { x, t: arrival * f, v, D, decay });
         }
