@@ -62,7 +62,7 @@ export const ASSUMPTIONS: readonly Assumption[] = Object.freeze([
   },
   {
     id: 'boundary',
-    text: 'The water table is a no-flux upper boundary (mirror image); the aquifer has no lower boundary, so a thin aquifer is diluted less than shown.',
+    text: 'The water table is a no-flux upper boundary (mirror image); the aquifer has no lower boundary, so where a shallow aquifer base stops the plume spreading downwards, concentrations can be higher than shown.',
   },
   {
     id: 'receptor',

@@ -218,7 +218,9 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
   L.push('');
   L.push('CAUTION');
   L.push(...wrap(SCREENING_CAUTION, 96, '  '));
-  L.push('  Assumptions: ' + ASSUMPTIONS.map((a) => a.id).join(', ') + ' (full text with --format json).');
+  L.push('');
+  L.push('Assumptions behind these figures');
+  for (const a of ASSUMPTIONS) L.push(...wrap(`- ${a.text}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
   return L.join('\n') + '\n';
 }
 
