@@ -8,6 +8,7 @@ import {
   requireNonNegative,
   requirePositive,
   requireRetardation,
+  WORKING_MAX,
   type Warning,
 } from './validation';
 
@@ -24,7 +25,8 @@ export function validateModel(m: ScreeningModel): Warning[] {
   requirePositive('thickness', m.thickness);
   requireNonNegative('c0', m.c0);
   requireNonNegative('sourceDecay', m.sourceDecay);
-  if (!(m.duration > 0)) throw new ValidationError('duration', m.duration, 'a number > 0 (Infinity for a continuous release)');
+  if (!(m.duration > 0) || (m.duration !== Infinity && !(m.duration <= WORKING_MAX)))
+    throw new ValidationError('duration', m.duration, `a number > 0 and ≤ ${WORKING_MAX} (Infinity for a continuous release)`);
   if (m.decayPhase !== 'dissolved-and-sorbed' && m.decayPhase !== 'dissolved-only')
     throw new ValidationError('decayPhase', m.decayPhase, "'dissolved-and-sorbed' or 'dissolved-only'");
   if (m.solution !== 'domenico' && m.solution !== 'exact')

@@ -35,25 +35,44 @@ function formatValue(v: unknown): string {
   }
 }
 
-/** A finite number (throws otherwise). */
+/**
+ * The engine's working range: magnitudes up to 1e30 and, for non-zero values, down to 1e-30.
+ * Every physically meaningful screening value lies far inside it (in m, d, mg/L), and within it
+ * no intermediate product or quotient of the solutions can overflow or underflow into NaN.
+ */
+export const WORKING_MAX = 1e30;
+export const WORKING_MIN = 1e-30;
+const RANGE_NOTE = `(magnitude between ${WORKING_MIN} and ${WORKING_MAX}, or 0)`;
+
+function inWorkingRange(v: number): boolean {
+  const a = Math.abs(v);
+  return a === 0 || (a >= WORKING_MIN && a <= WORKING_MAX);
+}
+
+/** A finite number within the working range (throws otherwise). */
 export function requireFinite(field: string, v: unknown): number {
-  if (typeof v !== 'number' || !Number.isFinite(v)) throw new ValidationError(field, v, 'a finite number');
+  if (typeof v !== 'number' || !Number.isFinite(v) || !inWorkingRange(v))
+    throw new ValidationError(field, v, `a finite number ${RANGE_NOTE}`);
   return v;
 }
 
 export function requirePositive(field: string, v: unknown): number {
-  if (typeof v !== 'number' || !Number.isFinite(v) || !(v > 0)) throw new ValidationError(field, v, 'a finite number > 0');
+  if (typeof v !== 'number' || !Number.isFinite(v) || !(v > 0) || !inWorkingRange(v))
+    throw new ValidationError(field, v, `a finite number > 0, between ${WORKING_MIN} and ${WORKING_MAX}`);
   return v;
 }
 
 export function requireNonNegative(field: string, v: unknown): number {
-  if (typeof v !== 'number' || !Number.isFinite(v) || !(v >= 0)) throw new ValidationError(field, v, 'a finite number ≥ 0');
+  if (typeof v !== 'number' || !Number.isFinite(v) || !(v >= 0) || !inWorkingRange(v))
+    throw new ValidationError(field, v, `a finite number ≥ 0 ${RANGE_NOTE}`);
   return v;
 }
 
 /** A non-negative number or +Infinity (used for times where Infinity means steady state). */
 export function requireTime(field: string, v: unknown): number {
-  if (typeof v !== 'number' || Number.isNaN(v) || !(v >= 0)) throw new ValidationError(field, v, 'a number ≥ 0 (or Infinity for steady state)');
+  if (v === Infinity) return v;
+  if (typeof v !== 'number' || !Number.isFinite(v) || !(v >= 0) || !inWorkingRange(v))
+    throw new ValidationError(field, v, `a number ≥ 0 ${RANGE_NOTE}, or Infinity for steady state`);
   return v;
 }
 
@@ -70,7 +89,8 @@ export function requireInRange(field: string, v: unknown, lo: number, hi: number
 /** R ≥ 1 */
 export function requireRetardation(field: string, v: unknown): number {
   if (v === undefined) return 1;
-  if (typeof v !== 'number' || !Number.isFinite(v) || !(v >= 1)) throw new ValidationError(field, v, 'a finite number ≥ 1');
+  if (typeof v !== 'number' || !Number.isFinite(v) || !(v >= 1) || v > WORKING_MAX)
+    throw new ValidationError(field, v, `a finite number ≥ 1 and ≤ ${WORKING_MAX}`);
   return v;
 }
 
