@@ -14,6 +14,7 @@ import { screenCase, type ScreeningResult } from '../case/screen';
 import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
 import { ValidationError } from '../core';
 import type { Case } from '../case/schema';
+import { csvRecords, type Cell } from '../case/export-csv';
 
 export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase: 4, invalidValue: 5 } as const;
 type Format = 'table' | 'json' | 'csv';
@@ -37,7 +38,8 @@ dispersivities and the relation used); warnings; and the screening caution.
 Formats:
   table  (default) readable text; times in years, lengths in m, concentrations in mg/L
   json   every figure in internal units (m, d, mg/L), with a "units" key
-  csv    one row per receptor, units in the column names; the caution as leading # lines
+  csv    one row per receptor, units in the column names, internal units; the caution as the
+         last record
 
 Exit codes: 0 screened, 2 bad arguments, 3 file cannot be read, 4 not a valid case file,
 5 a value outside its accepted range, 1 unexpected failure.
@@ -265,38 +267,24 @@ function formatJson(c: Case, s: ScreeningResult, source: string): string {
   return JSON.stringify(out, null, 2) + '\n';
 }
 
-/** RFC 4180 quoting; a leading = + - @ is neutralised so a spreadsheet never runs a formula. */
-export function csvCell(v: string | number | null): string {
-  if (v === null) return '';
-  let s = typeof v === 'number' ? String(v) : v;
-  if (typeof v === 'string' && /^[=+\-@\t\r]/.test(s)) s = "'" + s;
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-function formatCsv(c: Case, s: ScreeningResult): string {
-  const head = [
+/** One row per receptor (RFC 4180 via the app's CSV writer, numbers unrounded in internal units,
+ * units in the column names), then the caution as a final record, as in the app's CSV exports. */
+function formatCsv(s: ScreeningResult): string {
+  const head: Cell[] = [
     'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
     'other_solution', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
   ];
-  const lines = [
-    ...wrap(SCREENING_CAUTION, 200).map((l) => '# ' + l),
-    `# case: ${c.name.replace(/[\r\n]+/g, ' ')}`,
-    head.join(','),
-  ];
-  for (const { receptor: r, result: x } of s.results) {
+  const rows: Cell[][] = s.results.map(({ receptor: r, result: x }) => {
     const a = x.alternate;
-    lines.push(
-      [
-        r.id, r.name, r.kind, r.x, r.y, r.distance, r.zTop, r.zBottom, x.solution, x.arrival, x.atHorizon, x.peak.c, x.peak.t,
-        x.steady, x.status, s.prepared.limit, s.prepared.horizon,
-        a?.solution ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
-      ]
-        .map(csvCell)
-        .join(','),
-    );
-  }
-  return lines.join('\r\n') + '\r\n';
+    return [
+      r.id, r.name, r.kind, r.x, r.y, r.distance, r.zTop, r.zBottom, x.solution, x.arrival, x.atHorizon, x.peak.c, x.peak.t,
+      x.steady, x.status, s.prepared.limit, s.prepared.horizon,
+      a?.solution ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
+    ];
+  });
+  const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];
+  return csvRecords([head, ...rows, caution]);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -349,7 +337,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   const version = (JSON.parse(text.replace(/^\uFEFF/, '')) as { version?: number }).version;
   const source = `${args.file} (version ${version}${version !== c.version ? `, read as version ${c.version}` : ''})`;
-  out(args.format === 'json' ? formatJson(c, result, args.file) : args.format === 'csv' ? formatCsv(c, result) : formatTable(c, result, source));
+  out(args.format === 'json' ? formatJson(c, result, args.file) : args.format === 'csv' ? formatCsv(result) : formatTable(c, result, source));
   return EXIT.ok;
 }
 

@@ -86,25 +86,43 @@ describe('formats', () => {
     expect(j.model.duration).toBeNull(); // continuous release: Infinity is written as null in JSON
   });
 
-  test('csv: caution lines, a header with units, one row per receptor', () => {
+  test('csv: a header with units, one row per receptor, the caution as the last record', () => {
     const { code, out } = run(demo('v1-compact-example'), '--format=csv');
     expect(code).toBe(0);
-    const lines = out.split('\r\n').filter(Boolean);
-    const comments = lines.filter((l) => l.startsWith('#'));
-    expect(comments.join(' ')).toMatch(/Screening-level estimates only/);
-    const rows = lines.filter((l) => !l.startsWith('#'));
+    expect(out.endsWith('\r\n')).toBe(true);
+    const rows = out.split('\r\n').filter(Boolean);
     const header = rows[0].split(',');
     expect(header).toContain('arrival_d');
     expect(header).toContain('c_horizon_mg_per_L');
     expect(header).toContain('x_m');
     const s = screened(demo('v1-compact-example'));
-    expect(rows).toHaveLength(1 + s.results.length);
-    // a name with a comma is quoted (RFC 4180)
+    expect(rows).toHaveLength(1 + s.results.length + 1);
+    const last = rows[rows.length - 1];
+    expect(last.startsWith('screening caution,"Screening-level estimates only.')).toBe(true);
+    // RFC 4180: every record has the header's number of fields; a name with a comma is quoted
+    // a minimal RFC 4180 field splitter for one record (no embedded line breaks in these rows)
+    const split = (row: string) => {
+      const out: string[] = [];
+      let cur = '';
+      let quoted = false;
+      for (let i = 0; i < row.length; i++) {
+        const ch = row[i];
+        if (quoted) {
+          if (ch === '"' && row[i + 1] === '"') (cur += '"'), i++;
+          else if (ch === '"') quoted = false;
+          else cur += ch;
+        } else if (ch === '"') quoted = true;
+        else if (ch === ',') out.push(cur), (cur = '');
+        else cur += ch;
+      }
+      out.push(cur);
+      return out;
+    };
+    for (const r of rows) expect(split(r)).toHaveLength(header.length);
     expect(rows[1]).toContain('"House well, Orchard Lane"');
-    const idx = header.indexOf('c_horizon_mg_per_L');
-    // split the quoted row by a CSV-aware pattern
-    const cells = rows[1].match(/("([^"]|"")*"|[^,]*)(,|$)/g)!.map((c) => c.replace(/,$/, ''));
-    expect(Number(cells[idx])).toBe(s.results[0].result.atHorizon);
+    const cells = split(rows[1]);
+    expect(Number(cells[header.indexOf('c_horizon_mg_per_L')])).toBe(s.results[0].result.atHorizon);
+    expect(Number(cells[header.indexOf('x_m')])).toBe(s.results[0].receptor.x);
   });
 
   test('every demo case screens in every format (exit 0)', () => {
