@@ -15,6 +15,7 @@ import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
 import { ValidationError } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
+import { SOLUTION_LABEL } from '../case/export-results';
 
 export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase: 4, invalidValue: 5 } as const;
 type Format = 'table' | 'json' | 'csv';
@@ -99,10 +100,6 @@ const STATUS_WORDS: Record<string, string> = {
   'not-reached-in-horizon': 'reaches limit after horizon',
 };
 
-const SOLUTION_WORDS: Record<string, string> = {
-  domenico: 'Domenico 1987 approximation',
-  exact: 'exact rectangular-source solution',
-};
 
 type Row = ScreeningResult['results'][number];
 
@@ -144,7 +141,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
   L.push(`Case file: ${source}`);
   L.push(`Contaminant: ${c.contaminant.name}   source ${sig(m.c0)} mg/L   limit ${sig(p.limit)} mg/L`);
   if (c.contaminant.limitNote) L.push(...wrap(`Limit note: ${c.contaminant.limitNote}`, 96));
-  L.push(`Solution: ${SOLUTION_WORDS[m.solution]} (the other solution is computed beside it)`);
+  L.push(`Solution: ${SOLUTION_LABEL[m.solution]} (the other solution is computed beside it)`);
   L.push(`Horizon: ${years(p.horizon)} yr (${sig(p.horizon, 5)} d)`);
   L.push('');
   L.push('Derived parameters');
@@ -207,7 +204,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
       for (const { receptor: r, result: x } of others) {
         const a = x.alternate!;
         L.push(
-          `  ${r.name || r.id}: ${SOLUTION_WORDS[a.solution]} gives arrival ${arrivalText(a.arrival, a.arrival === null ? 'below-limit' : '')}, ` +
+          `  ${r.name || r.id}: ${SOLUTION_LABEL[a.solution]} gives arrival ${arrivalText(a.arrival, a.arrival === null ? 'below-limit' : '')}, ` +
             `${conc(a.atHorizon, p.limit)} mg/L at the horizon, peak ${conc(a.peak.c, p.limit)} mg/L at ${years(a.peak.t)} yr (${sig(100 * a.relDiff, 2)} % apart)`,
         );
       }
