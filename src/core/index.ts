@@ -26,7 +26,7 @@ export {
 } from './hydro';
 export { fitHeadPlane, type HeadPoint, type HeadPlaneFit } from './headPlane';
 export { ValidationError, type Warning } from './validation';
-export { validateModel } from './validateModel';
+export { validateModel, domenicoAdmits, domenicoSourceDecayLimit } from './validateModel';
 export {
   concentration,
   screenAverage,

@@ -14,7 +14,7 @@
 import type { ScreeningModel, SolutionKind } from './model';
 import { relativeAt, relativeGrid, kinetics } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
-import { validateModel } from './validateModel';
+import { domenicoAdmits, validateModel } from './validateModel';
 import { ValidationError, requireFinite, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
 
 export interface Receptor {
@@ -288,7 +288,7 @@ export interface SolutionFigures {
 
 export interface ReceptorResult extends SolutionFigures {
   status: ReceptorStatus;
-  /** the other solution's figures, where it applies (Domenico needs v > 0) */
+  /** the other solution's figures, where it applies (Domenico needs v > 0 and a source decline within its limit) */
   alternate: (SolutionFigures & { relDiff: number }) | null;
   warnings: Warning[];
 }
@@ -319,7 +319,7 @@ export function evaluateReceptor(m: ScreeningModel, r: Receptor, limit: number, 
   const warnings: Warning[] = [];
   const otherKind: SolutionKind = m.solution === 'domenico' ? 'exact' : 'domenico';
   let alternate: ReceptorResult['alternate'] = null;
-  if (otherKind === 'exact' || m.v > 0) {
+  if (otherKind === 'exact' || domenicoAdmits(m)) {
     const alt = figures(m, otherKind, r, limit, horizon);
     const floor = 1e-3 * limit;
     const relDiff = Math.max(

@@ -4,10 +4,12 @@
  *
  * - Retardation divides v and every D; decay on dissolved and sorbed mass keeps λ, dissolved-only
  *   decay uses λ/R.
- * - A source declining as C0·e^{−γt} is exact by Duhamel's principle: C = e^{−γt}·S(λ − γ), where
- *   S is the constant-source solution with the decay rate reduced by γ. That needs
- *   v² + 4(λ − γ)Dx > 0 (retarded quantities), checked in validation.
- * - A release of finite duration T is the superposition C(t) = e^{−γt}[S(t) − S(t − T)].
+ * - A source declining as C0·e^{−γt} (Duhamel's principle): the exact solution carries the factor
+ *   e^{−γ(t − τ)} inside its time integral; Domenico's closed form becomes e^{−γt}·S(λ − γ), the
+ *   constant-source form with the rate reduced by γ, which needs v² + 4(λ − γ)Dx > 0 (retarded),
+ *   checked in validation for Domenico only.
+ * - A release of finite duration T is the superposition C(t) = U(t) − e^{−γT}·U(t − T), where U is
+ *   the response to the (declining) source switched on at 0.
  * - Steady state (t = Infinity) exists for a continuous constant source only; otherwise it is 0.
  */
 import type { DepthSpan } from './solutions/spread';
@@ -34,8 +36,10 @@ export function kinetics(m: ScreeningModel): Kinetics {
   const Dy = (m.ay * m.v + De) / R;
   const Dz = (m.az * m.v + De) / R;
   const lamBase = m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay;
-  const lam = lamBase - m.sourceDecay;
-  const patch: PatchParams = { v, Dx, Dy, Dz, lam, width: m.width, thickness: m.thickness };
+  const gamma = m.sourceDecay;
+  // exact solution: the decline enters the integrand; Domenico: folded into the rate (closed form)
+  const patch: PatchParams = { v, Dx, Dy, Dz, lam: lamBase, gamma, width: m.width, thickness: m.thickness };
+  const lam = lamBase - gamma;
   const dom: DomenicoParams = {
     v,
     Dx,
@@ -72,7 +76,7 @@ function unitGrid(
     return 0;
   }
   if (kind === 'domenico') {
-    domenicoGridInto(xs, ys, depth, t, k.dom, logScale, out);
+    domenicoGridInto(xs, ys, depth, t, k.dom, logScale - (t === Infinity ? 0 : k.gamma * t), out);
     return 0;
   }
   const p = k.patch;
@@ -98,7 +102,8 @@ function unitGrid(
 /** Exact solution where the quadrature does not apply: x ≤ 0 or Dx = 0 (a sharp front). */
 function limitCase(x: number, y: number, depth: DepthSpan, t: number, p: PatchParams, logScale: number): number {
   if (x < 0) return 0;
-  if (x === 0) return Math.exp(logScale) * spreadFactor(y, 0.5 * p.width, 0) * depthFactor(depth, p.thickness, 0);
+  const decline = (age: number) => (p.gamma > 0 ? p.gamma * age : 0);
+  if (x === 0) return Math.exp(logScale - decline(t)) * spreadFactor(y, 0.5 * p.width, 0) * depthFactor(depth, p.thickness, 0);
   if (!(p.v > 0)) return 0;
   const arrival = x / p.v;
   if (t < arrival) return 0;
@@ -106,7 +111,7 @@ function limitCase(x: number, y: number, depth: DepthSpan, t: number, p: PatchPa
   const tau = arrival;
   return (
     w *
-    Math.exp(logScale - p.lam * arrival) *
+    Math.exp(logScale - p.lam * arrival - decline(t - arrival)) *
     spreadFactor(y, 0.5 * p.width, 2 * Math.sqrt(p.Dy * tau)) *
     depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau))
   );
@@ -134,11 +139,10 @@ export function relativeGrid(
     }
     return unitGrid(kind, k, xs, ys, depth, Infinity, 0, out, opts);
   }
-  const logScale = -k.gamma * t;
-  let err = unitGrid(kind, k, xs, ys, depth, t, logScale, out, opts);
+  let err = unitGrid(kind, k, xs, ys, depth, t, 0, out, opts);
   if (k.duration < t) {
     const later = new Float64Array(out.length);
-    err += unitGrid(kind, k, xs, ys, depth, t - k.duration, logScale, later, opts);
+    err += unitGrid(kind, k, xs, ys, depth, t - k.duration, -k.gamma * k.duration, later, opts);
     for (let i = 0; i < out.length; i++) out[i] = Math.max(0, out[i] - later[i]);
   }
   return err;
@@ -158,10 +162,10 @@ export function relativeAt(
 ): number {
   if (kind === 'domenico') {
     const k = kinetics(m);
+    if (x < 0) return 0;
     if (t === Infinity) return k.continuousConstant ? domenicoPoint(x, y, depth, Infinity, k.dom, 0) : 0;
-    const logScale = -k.gamma * t;
-    let c = x < 0 ? 0 : domenicoPoint(x, y, depth, t, k.dom, logScale);
-    if (k.duration < t && c > 0) c = Math.max(0, c - domenicoPoint(x, y, depth, t - k.duration, k.dom, logScale));
+    let c = domenicoPoint(x, y, depth, t, k.dom, -k.gamma * t);
+    if (k.duration < t && c > 0) c = Math.max(0, c - domenicoPoint(x, y, depth, t - k.duration, k.dom, -k.gamma * t));
     return c;
   }
   relativeGrid(m, kind, [x], [y], depth, t, one, opts);

@@ -37,15 +37,13 @@ export function validateModel(m: ScreeningModel): Warning[] {
   const Dx = (m.ax * m.v + m.diffusion) / R;
   if (m.solution === 'domenico' && !(m.v > 0))
     throw new ValidationError('v', m.v, 'a number > 0 for the Domenico solution (use the exact solution for no flow)');
-  const lam = (m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay) - m.sourceDecay;
-  if (lam < 0 && !(v * v + 4 * lam * Dx > 0)) {
-    const lamBase = lam + m.sourceDecay;
-    const limit = lamBase + (v * v) / (4 * Dx);
+  if (m.solution === 'domenico' && !domenicoAdmits(m)) {
+    const limit = domenicoSourceDecayLimit(m);
     throw new ValidationError(
       'sourceDecay',
       m.sourceDecay,
-      `below ${limit.toPrecision(4)} 1/d`,
-      `the source declines faster than the solutions can represent with this velocity and dispersion; it must be below ${limit.toPrecision(4)} 1/d (λ + v²/(4·Dx), retarded)`,
+      `below ${limit.toPrecision(4)} 1/d for the Domenico solution`,
+      `the source declines faster than Domenico's closed form can represent with this velocity and dispersion; it must be below ${limit.toPrecision(4)} 1/d (λ + v²/(4·Dx), retarded), or use the exact solution, which has no such limit`,
     );
   }
   if (!(m.v > 0) && !(Dx > 0))
@@ -55,4 +53,18 @@ export function validateModel(m: ScreeningModel): Warning[] {
       field: 'v',
     });
   return warnings;
+}
+
+/** The fastest source decline Domenico's closed form admits: λ + v²/(4·Dx) with retarded v, Dx. */
+export function domenicoSourceDecayLimit(m: ScreeningModel): number {
+  const R = m.R;
+  const v = m.v / R;
+  const Dx = (m.ax * m.v + m.diffusion) / R;
+  const lamBase = m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay;
+  return Dx > 0 ? lamBase + (v * v) / (4 * Dx) : Infinity;
+}
+
+/** Whether Domenico's closed form applies: v > 0 and the source decline within its limit. */
+export function domenicoAdmits(m: ScreeningModel): boolean {
+  return m.v > 0 && m.sourceDecay < domenicoSourceDecayLimit(m);
 }

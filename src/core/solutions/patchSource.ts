@@ -1,6 +1,7 @@
 /**
  * Exact solution for a vertical rectangular source plane at x = 0 (width W centred on y = 0,
- * thickness H down from the water table) held at C0 from t = 0, in a semi-infinite aquifer
+ * thickness H down from the water table) held at C0 from t = 0 (or at C0·e^{−γt}, a declining
+ * source, which multiplies the integrand by e^{−γ(t − τ)} — Duhamel's principle), in a semi-infinite aquifer
  * x > 0 with uniform flow along x, first-order decay and no flux across the water table z = 0
  * (an image source above it, so the source spans −H…H in an infinite medium):
  *
@@ -40,8 +41,10 @@ export interface PatchParams {
   readonly Dx: number;
   readonly Dy: number;
   readonly Dz: number;
-  /** effective first-order rate (may be negative when a declining source is folded in) */
+  /** effective first-order decay rate λ ≥ 0 */
   readonly lam: number;
+  /** first-order decline of the source concentration γ ≥ 0: the source is C0·e^{−γt'} */
+  readonly gamma: number;
   readonly width: number;
   readonly thickness: number;
 }
@@ -102,7 +105,9 @@ function evalPanel(
   for (let k = 0; k < 15; k++) {
     const u = nodeBuf[k];
     const tau = k === 14 ? tc : invertLnCdf(lnFt + lnQ(u), x, p.v, p.Dx, p.lam, tMax, tc);
-    zBuf[k] = Math.exp(-u) * depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau));
+    // a declining source contributes C0·e^{−γ(t − τ)} for the mass arriving after travel time τ
+    const decline = p.gamma > 0 ? Math.exp(-p.gamma * (tMax - tau)) : 1;
+    zBuf[k] = decline * Math.exp(-u) * depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau));
     sBuf[k] = 2 * Math.sqrt(p.Dy * tau);
   }
   const ny = ys.length;
