@@ -1,7 +1,8 @@
 /**
  * `npm run bench`: throughput of the transport engine, printed from one run.
  *
- * Figures (cells per second, median of repetitions, ≥ 0.5 s of repetitions each; see timing.ts):
+ * Figures (cells per second, median of repetitions, ≥ 0.5 s of repetitions each, the JS ones in
+ * interleaved rounds so their ratios see the same machine load; see timing.ts):
  *   - a bare loop of erf (src/core/special/erf.ts) over the very arguments the Domenico grid's
  *     lateral factor passes to it: the machine's unit of work;
  *   - domenicoGrid, 512 × 512, with y values mirrored about the axis (as a map grid centred on the
@@ -15,13 +16,13 @@
  * Options: --no-numpy (JS figures only), --json <file> (also write every figure as JSON).
  * Nothing here asserts on time; tests never do.
  */
-import { cpus } from 'node:os';
+import { cpus, loadavg } from 'node:os';
 import { writeFileSync } from 'node:fs';
 import { erf } from '../src/core/special/erf';
 import { breakthroughCurve, domenicoGrid, patchSourceExactGrid } from '../src/core/index';
 import type { ScreeningModel } from '../src/core/model';
-import { DEFAULT_RULES, sumOf, timeFigure, type Timing } from './timing';
-import { runNumpy, type NumpyAnswer, type NumpyGrid } from './numpyRunner';
+import { DEFAULT_RULES, batched, localTimer, sumOf, timeRounds, type Result, type Timer, type Timing } from './timing';
+import { NumpyProcess, type NumpyInfo, type NumpyGrid } from './numpyRunner';
 import { ratio, sci, seconds, si, table, targetTable, type Target } from './report';
 import { AX, AY, AZ, DECAY, R, T, THICKNESS, V, WIDTH, Z, benchModel, benchTimes, benchWells, gridXs, gridYs } from './scenario';
 import { measureContourPipeline } from './contourPipeline';
@@ -58,14 +59,23 @@ function lateralArguments(xs: Float64Array, ys: Float64Array): Float64Array {
   return args;
 }
 
-function main(): void {
+async function main(): Promise<void> {
   const withNumpy = !process.argv.includes('--no-numpy');
   const jsonPath = argValue('--json');
   const rules = DEFAULT_RULES;
+  const started = performance.now();
+  const phases: [string, number][] = [];
+  let phaseStart = started;
+  const phase = (name: string) => {
+    const t = performance.now();
+    phases.push([name, (t - phaseStart) / 1000]);
+    phaseStart = t;
+  };
   console.log('Downgradient benchmark: transport engine throughput');
   console.log(`node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'} (${cpus().length} cores; all figures single-threaded)`);
+  const loadAtStart = loadavg()[0];
   console.log(
-    `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up; inputs built before the clock`,
+    `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up, JS figures in interleaved rounds; inputs built before the clock`,
   );
   console.log(
     `scenario (invented): v = ${V} m/d, R = ${R}, αx/αy/αz = ${AX}/${AY}/${AZ} m, half-life 730 d, source ${WIDTH} m × ${THICKNESS} m, z = ${Z} m, t = ${T} d\n`,
@@ -91,95 +101,132 @@ function main(): void {
     exact: { ...base, xs: eXs, ys: eYs },
   };
 
-  // ---- the unit of work: a bare erf loop
-  const erfTiming = timeFigure(() => {
+  // ---- numpy: the same grids, with the JS results for the agreement check
+  let numpy: { proc: NumpyProcess; info: NumpyInfo } | null = null;
+  let numpyError: string | null = null;
+  if (withNumpy) {
+    const jsGrid = (label: string, p: typeof grids.domSym, values: Float64Array): NumpyGrid => ({ label, ...p, jsGrid: values });
+    try {
+      numpy = await NumpyProcess.start({
+        relTol: REL_TOL,
+        absTol: ABS_TOL,
+        floor: FLOOR,
+        domenico: [
+          jsGrid('mirrored', grids.domSym, domenicoGrid(grids.domSym)),
+          jsGrid('not mirrored', grids.domAsym, domenicoGrid(grids.domAsym)),
+        ],
+        exact: [jsGrid('mirrored', grids.exact, patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL }))],
+      });
+    } catch (e) {
+      numpyError = (e as Error).message;
+    }
+  }
+
+  // ---- the unit of work (a bare erf loop) and the figures, timed in interleaved rounds so the
+  // erf-times-per-cell ratios see the same machine load
+  const erfLoop = () => {
     let s = 0;
     for (let k = 0; k < erfArgs.length; k++) s += erf(erfArgs[k]);
     return s;
-  }, rules);
-  const secPerErf = erfTiming.medianSeconds / erfArgs.length;
-  const erfPerSecond = 1 / secPerErf;
-  const figure = (label: string, cells: number, timing: Timing): Figure => ({
+  };
+  const curves = (model: ScreeningModel) => () => {
+    let s = 0;
+    for (const w of wells) s += sumOf(breakthroughCurve(model, w, times));
+    return s;
+  };
+  // fast computations are batched to ≥ 30 ms per repetition so that every round stays short
+  const local = (run: () => Result) => batched((calls) => localTimer(run, calls));
+  const remote = (name: string) => batched((calls) => numpy!.proc.timer(name, calls));
+  phase('numpy start and checks');
+  const npTimers: Record<string, Timer> = numpy
+    ? {
+        npErf: await remote('erf'),
+        npDomSym: await remote('domenico:0'),
+        npDomAsym: await remote('domenico:1'),
+        npExact: await remote('exact:0'),
+      }
+    : {};
+  const timed: Record<string, Timing> = await timeRounds(
+    {
+      erf: await local(erfLoop),
+      domSym: await local(() => domenicoGrid(grids.domSym)),
+      domAsym: await local(() => domenicoGrid(grids.domAsym)),
+      exact: await local(() => patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL })),
+      btcDomenico: await local(curves(models[0][1])),
+      ...npTimers,
+    },
+    rules,
+  );
+  phase('grids, erf and Domenico curves (interleaved, with numpy)');
+  // seconds per repetition for the exact model's curves: three repetitions make its median
+  // (each round pairs them with ≥ 0.2 s of the erf loop, so three rounds cover its 0.5 s too)
+  const slow = await timeRounds(
+    { erf: await batched((calls) => localTimer(erfLoop, calls), 0.2), btcExact: localTimer(curves(models[1][1])) },
+    { ...rules, minReps: 3, warmupSeconds: 0 },
+  );
+  const erfTiming = timed.erf;
+  const erfPerSecond = erfArgs.length / erfTiming.medianSeconds;
+  const figure = (label: string, cells: number, timing: Timing, erfPair: Timing): Figure => ({
     label,
     cells,
     timing,
     cellsPerSecond: cells / timing.medianSeconds,
-    erfTimesPerCell: timing.medianSeconds / cells / secPerErf,
+    erfTimesPerCell: timing.medianSeconds / cells / (erfPair.medianSeconds / erfArgs.length),
   });
+  const domSym = figure('Domenico grid 512×512, y mirrored', dXs.length * dYsSym.length, timed.domSym, timed.erf);
+  const domAsym = figure('Domenico grid 512×512, y not mirrored', dXs.length * dYsAsym.length, timed.domAsym, timed.erf);
+  const exact = figure(`exact grid 64×64 (relTol ${REL_TOL.toExponential(0)}), y mirrored`, eXs.length * eYs.length, timed.exact, timed.erf);
+  const nValues = wells.length * times.length;
+  const btc = [
+    figure(`breakthrough ${wells.length} wells × ${times.length} times, ${models[0][0]}`, nValues, timed.btcDomenico, timed.erf),
+    figure(`breakthrough ${wells.length} wells × ${times.length} times, ${models[1][0]}`, nValues, slow.btcExact, slow.erf),
+  ];
 
-  // ---- grids
-  const domSym = figure('Domenico grid 512×512, y mirrored', dXs.length * dYsSym.length, timeFigure(() => domenicoGrid(grids.domSym), rules));
-  const domAsym = figure('Domenico grid 512×512, y not mirrored', dXs.length * dYsAsym.length, timeFigure(() => domenicoGrid(grids.domAsym), rules));
-  const exact = figure(
-    `exact grid 64×64 (relTol ${REL_TOL.toExponential(0)}), y mirrored`,
-    eXs.length * eYs.length,
-    timeFigure(() => patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL }), rules),
+  phase('exact curves');
+  await numpy?.proc.stop();
+  const np = numpy?.info ?? null;
+  const npTiming = (key: string) => (np ? timed[key] : undefined);
+  const npFigures = [npTiming('npDomSym'), npTiming('npDomAsym'), npTiming('npExact')].map((t, k) =>
+    t ? { timing: t, cellsPerSecond: [domSym, domAsym, exact][k].cells / t.medianSeconds } : null,
   );
-
-  // ---- breakthrough curves
-  const btc = models.map(([name, model]) =>
-    figure(
-      `breakthrough ${wells.length} wells × ${times.length} times, ${name}`,
-      wells.length * times.length,
-      timeFigure(
-        () => {
-          let s = 0;
-          for (const w of wells) s += sumOf(breakthroughCurve(model, w, times));
-          return s;
-        },
-        // seconds per repetition for the exact model: three repetitions make its median
-        model.solution === 'exact' ? { ...rules, minReps: 3, warmupSeconds: 0 } : rules,
-      ),
-    ),
-  );
-
-  // ---- numpy, on the same grids; the JS results go along for the agreement check
-  let numpy: NumpyAnswer | { error: string } | null = null;
-  if (withNumpy) {
-    const jsGrid = (label: string, p: typeof grids.domSym, values: Float64Array): NumpyGrid => ({ label, ...p, jsGrid: values });
-    numpy = runNumpy({
-      rules,
-      relTol: REL_TOL,
-      absTol: ABS_TOL,
-      floor: FLOOR,
-      domenico: [
-        jsGrid('sym', grids.domSym, domenicoGrid(grids.domSym)),
-        jsGrid('asym', grids.domAsym, domenicoGrid(grids.domAsym)),
-      ],
-      exact: [jsGrid('sym', grids.exact, patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL }))],
-    });
-  }
-  const np = numpy && !('error' in numpy) ? numpy : null;
-  const npFigures = np ? [np.domenico[0], np.domenico[1], np.exact[0]] : [];
 
   // ---- contour pipeline (issue 3)
-  const contour = measureContourPipeline(benchModel('domenico'), { n: 256, z: Z, t: T, rules });
+  const contour = await measureContourPipeline(benchModel('domenico'), { n: 256, z: Z, t: T, rules });
+
+  phase('contour pipeline');
 
   // ---- print
+  const spread = (t: { minSeconds: number; maxSeconds: number; medianSeconds: number }) =>
+    `${((100 * (t.maxSeconds - t.minSeconds)) / t.medianSeconds).toFixed(0)} %`;
   const rows = [domSym, domAsym, exact].map((f, k) => {
     const n = npFigures[k];
     return [
       f.label,
       `${si(f.cellsPerSecond)}cells/s`,
       seconds(f.timing.medianSeconds),
+      spread(f.timing),
       `${f.erfTimesPerCell.toFixed(2)}`,
       n ? `${si(n.cellsPerSecond)}cells/s` : '—',
+      n ? spread(n.timing) : '',
       n ? ratio(f.cellsPerSecond / n.cellsPerSecond) : '—',
     ];
   });
   for (const f of btc) {
-    rows.push([f.label, `${si(f.cellsPerSecond)}values/s`, seconds(f.timing.medianSeconds), f.erfTimesPerCell.toFixed(2), '', '']);
+    rows.push([f.label, `${si(f.cellsPerSecond)}values/s`, seconds(f.timing.medianSeconds), spread(f.timing), f.erfTimesPerCell.toFixed(2), '', '', '']);
   }
   console.log(`bare erf loop: ${si(erfPerSecond)}calls/s (${seconds(erfTiming.medianSeconds)} per ${erfArgs.length} calls on the Domenico grid's own arguments)\n`);
-  console.log(table(['figure', 'JS rate', 'JS median', 'erf-times/cell', 'numpy rate', 'JS/numpy'], rows));
-  console.log('');
+  console.log(table(['figure', 'JS rate', 'JS median', 'spread', 'erf-times/cell', 'numpy rate', 'spread', 'JS/numpy'], rows));
+  console.log(
+    `(spread: (slowest − fastest repetition)/median; load average ${loadAtStart.toFixed(1)} at the start, ${loadavg()[0].toFixed(1)} at the end on ${cpus().length} cores — other work on the machine moves the figures, compare ratios from one run)\n`,
+  );
 
-  if (numpy && 'error' in numpy) console.log(`numpy comparison not run: ${numpy.error}\n`);
+  if (numpyError) console.log(`numpy comparison not run: ${numpyError}\n`);
   if (np) {
     const e = np.exact[0];
+    const npErfPerSecond = np.erfCalls / timed.npErf.medianSeconds;
     console.log(`numpy ${np.numpy}, scipy ${np.scipy}, python ${np.python} (bench/numpy_grids.py, one thread)`);
     console.log(
-      `  scipy.special.erf on the same ${np.erf.calls} arguments: ${si(np.erf.callsPerSecond)}calls/s; JS erf / scipy erf = ${ratio(erfPerSecond / np.erf.callsPerSecond)}`,
+      `  scipy.special.erf on the same ${np.erfCalls} arguments: ${si(npErfPerSecond)}calls/s; JS erf / scipy erf = ${ratio(erfPerSecond / npErfPerSecond)}`,
     );
     console.log(
       `  exact grid in numpy: ${e.nodes}-point Gauss–Legendre per column; against a ${e.fineNodes}-point rule: column-relative error ${sci(e.achievedRelError)} (wanted ≤ ${REL_TOL.toExponential(0)}), cell-relative ${sci(e.achievedCellRelError)} (floor ${FLOOR})`,
@@ -200,7 +247,10 @@ function main(): void {
     `  concentrationGrid ${seconds(contour.compute.medianSeconds)}; + contourBands ${seconds(contour.total.medianSeconds)}; (compute + contour)/compute = ${ratio(contour.ratio)}; ${contour.rings} rings\n`,
   );
 
-  const npRatio = (k: number) => (npFigures[k] ? [domSym, domAsym, exact][k].cellsPerSecond / npFigures[k].cellsPerSecond : null);
+  const npRatio = (k: number) => {
+    const n = npFigures[k];
+    return n ? [domSym, domAsym, exact][k].cellsPerSecond / n.cellsPerSecond : null;
+  };
   const targets: Target[] = [
     { name: 'Domenico grid vs numpy (mirrored)', wanted: '≥ 3×', measured: ratio(npRatio(0) ?? NaN), met: npRatio(0) === null ? null : npRatio(0)! >= 3 },
     { name: 'Domenico grid vs numpy (not mirrored)', wanted: '≥ 3×', measured: ratio(npRatio(1) ?? NaN), met: npRatio(1) === null ? null : npRatio(1)! >= 3 },
@@ -211,17 +261,24 @@ function main(): void {
   console.log(targetTable(targets));
 
   const sink =
-    erfTiming.sink +
-    [domSym, domAsym, exact, ...btc].reduce((s, f) => s + f.timing.sink, 0) +
+    Object.values(timed).reduce((s, t) => s + t.sink, 0) +
+    slow.erf.sink +
+    slow.btcExact.sink +
     contour.compute.sink +
     contour.total.sink;
   console.log(`\nsink (sum of every result, so nothing is optimised away): ${sink}`);
+  console.log(
+    `bench ran in ${((performance.now() - started) / 1000).toFixed(1)} s (${phases.map(([n, t]) => `${n} ${t.toFixed(1)} s`).join('; ')})`,
+  );
 
   if (jsonPath) {
-    const out = { erfPerSecond, erf: erfTiming, figures: [domSym, domAsym, exact, ...btc], numpy, contour, targets };
+    const out = { erfPerSecond, erf: erfTiming, figures: [domSym, domAsym, exact, ...btc], numpy: np, numpyTimings: npFigures, numpyError, contour, targets };
     writeFileSync(jsonPath, JSON.stringify(out, (_k, v: unknown) => (v === Infinity ? 'Infinity' : v), 2));
     console.log(`figures written to ${jsonPath}`);
   }
 }
 
-main();
+main().catch((e: unknown) => {
+  console.error(e);
+  process.exitCode = 1;
+});

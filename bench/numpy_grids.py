@@ -3,12 +3,12 @@
 Vectorised numpy/scipy evaluation of the two concentration grids that `npm run bench` times in
 JavaScript, so the benchmark can print a JS/numpy ratio for equal work.
 
-Usage: bench/bench.ts runs `python3 bench/numpy_grids.py` as a child process, writes one JSON
-object to its stdin (timing rules, tolerances, and lists of Domenico and exact grids, each with its
-parameters and the whole JS result as `jsGrid`) and reads one JSON object from its stdout: for each
-grid the median time, cells per second, and the JS grid's difference from the numpy one, and
-the rate of scipy's erf on the arguments of the last Domenico grid's lateral factor. Run it by
-hand with `--self-test` for a built-in invented scenario without JS grids.
+Usage: bench/bench.ts runs `python3 bench/numpy_grids.py` as a child process and talks to it in
+lines of JSON (see serve()): first the configuration (tolerances, and lists of Domenico and exact
+grids, each with its parameters and the whole JS result as `jsGrid`), answered with the checks
+(accuracy of the chosen rule, agreement with the JS grids); then one request per timed
+repetition, so bench.ts can interleave numpy's repetitions with its own and both see the same
+machine load. Run it by hand with `--self-test` for a built-in invented scenario.
 
 Both grids are evaluated in the flow-aligned frame of the project (x downgradient from the source
 plane, y across the flow with the source centred on y = 0, z depth below the water table), with
@@ -22,7 +22,8 @@ y values are symmetric):
              · erfc[(x − (v/R)t·√(1 + 4λαx R/v)) / (2√(αx (v/R) t))]
              · [erf((y + W/2)/(2√(αy x))) − erf((y − W/2)/(2√(αy x)))]
              · [erf((z + H)/(2√(αz x))) − erf((z − H)/(2√(αz x)))]
-  (t = ∞: the erfc factor is 2.)
+  (t = ∞: the erfc factor is 2.) Each erf difference is formed as a difference of erfc values of
+the mirrored pair (erf_diff), which keeps its relative accuracy in the far field, as the JS does.
 
 Exact rectangular-source solution (continuous source of width W centred on y = 0 and thickness H
 down from the water table on the plane x = 0, semi-infinite aquifer in x and in depth with no flux
@@ -48,6 +49,7 @@ max |a − b| / (column max of |b| + absTol/relTol). Cell-by-cell relative diffe
 |a − b| / max(|b|, floor) are printed beside it for information.
 """
 
+import functools
 import json
 import math
 import platform
@@ -64,6 +66,16 @@ W_LOW = -6.5
 TAIL = 40.0
 NODE_LADDER = (8, 12, 16, 20, 24, 28, 32, 40, 48, 56, 64, 80, 96, 128, 160, 192, 256, 384, 512)
 FINE_NODES = 1024
+
+
+def erf_diff(a, b):
+    """erf(a) − erf(b) without cancellation where a and b lie on the same side of 0 (the far
+    field, where both are near ±1): with the pair mirrored so that a + b ≥ 0 it is
+    erfc(b) − erfc(a), a difference of numbers that are small there (as the JS erfDiff)."""
+    flip = (a + b) < 0.0
+    a2 = np.where(flip, -b, a)
+    b2 = np.where(flip, -a, b)
+    return erfc(b2) - erfc(a2)
 
 
 def _mirror_split(ys):
@@ -101,18 +113,23 @@ def domenico_grid(p):
     else:
         fx *= 2.0
     sz = 1.0 / (2.0 * np.sqrt(az * xs))
-    fx *= erf((z + h) * sz) - erf((z - h) * sz)
+    fx *= erf_diff((z + h) * sz, (z - h) * sz)
     fx *= 0.125
     sy = (1.0 / (2.0 * np.sqrt(ay * xs)))[:, None]
-    fy = erf((ys + half_w)[None, :] * sy)
-    fy -= erf((ys - half_w)[None, :] * sy)
+    fy = erf_diff((ys + half_w)[None, :] * sy, (ys - half_w)[None, :] * sy)
     fy *= fx[:, None]
     return _mirror_join(fy, start, ys_all.size)
 
 
+@functools.lru_cache(maxsize=None)
+def _legendre(n):
+    """n-point Gauss–Legendre rule on [−1, 1], computed once (like the JS rule's constant tables)."""
+    return np.polynomial.legendre.leggauss(n)
+
+
 def _w_nodes(xs, t, u, dx, n):
     """Gauss–Legendre nodes and weights in w for every x column: arrays of shape (nx, n)."""
-    g, gw = np.polynomial.legendre.leggauss(n)
+    g, gw = _legendre(n)
     if math.isfinite(t):
         a = (xs - u * t) / (2.0 * math.sqrt(dx * t))
         a = np.maximum(a, W_LOW)
@@ -143,10 +160,9 @@ def exact_grid(p, n):
     tau = s * s
     kern = wt * (0.25 * INV_SQRT_PI2) * np.exp(-w * w - lam * tau) * (xc / (xc + u * tau))
     szz = 1.0 / (2.0 * math.sqrt(dz) * s)
-    kern *= erf((z + h) * szz) - erf((z - h) * szz)
+    kern *= erf_diff((z + h) * szz, (z - h) * szz)
     sy = (1.0 / (2.0 * math.sqrt(dy) * s))[:, :, None]
-    fy = erf((ys + half_w)[None, None, :] * sy)
-    fy -= erf((ys - half_w)[None, None, :] * sy)
+    fy = erf_diff((ys + half_w)[None, None, :] * sy, (ys - half_w)[None, None, :] * sy)
     # sum over the nodes of each column: (nx, 1, n) @ (nx, n, ny)
     return _mirror_join(np.matmul(kern[:, None, :], fy)[:, 0, :], start, ys_all.size)
 
@@ -199,18 +215,15 @@ def ogata_banks_check(p, n):
 
 
 def time_figure(fn, min_seconds, min_reps):
-    """Median seconds of one call; repeats until ≥ min_seconds and ≥ min_reps (after a warm-up)."""
-    sink = float(np.sum(fn()))
+    """For --self-test: median seconds of one call; repeats until ≥ min_seconds and ≥ min_reps
+    (after a warm-up call)."""
+    fn()
     times = []
-    total = 0.0
-    while total < min_seconds or len(times) < min_reps:
+    while sum(times) < min_seconds or len(times) < min_reps:
         t0 = time.perf_counter()
-        r = fn()
-        dt = time.perf_counter() - t0
-        sink += float(r[0, 0]) + float(r[-1, -1])
-        times.append(dt)
-        total += dt
-    return statistics.median(times), len(times), sink
+        fn()
+        times.append(time.perf_counter() - t0)
+    return statistics.median(times)
 
 
 def compare_js_grid(ref, js, rel_tol, abs_tol, floor):
@@ -228,8 +241,6 @@ def self_test_input():
     base = dict(z=1.0, t=3650.0, v=0.3, ax=8.0, ay=0.8, az=0.08, width=30.0, thickness=5.0,
                 R=1.8, decay=math.log(2) / 730)
     return {
-        "minSeconds": 0.5,
-        "minReps": 5,
         "floor": 1e-12,
         "relTol": 1e-6,
         "absTol": 1e-13,
@@ -238,59 +249,83 @@ def self_test_input():
     }
 
 
-def main():
-    if "--self-test" in sys.argv:
-        cfg = self_test_input()
-    else:
-        cfg = json.load(sys.stdin)
-    min_s, min_reps = cfg.get("minSeconds", 0.5), cfg.get("minReps", 5)
+def setup(cfg):
+    """Checks (accuracy of the chosen rule, agreement with the JS grids) and the timed
+    computations: returns (info, runners), runners a dict name → function returning an array."""
     floor = cfg.get("floor", 1e-12)
-    out = {
-        "python": platform.python_version(),
-        "numpy": np.__version__,
-        "scipy": scipy.__version__,
+    rel_tol = cfg.get("relTol", 1e-6)
+    abs_tol = cfg.get("absTol", 1e-13)
+    info = {
+        "python": platform.python_version(), "numpy": np.__version__, "scipy": scipy.__version__,
+        "relTol": rel_tol, "absTol": abs_tol, "floor": floor, "domenico": [], "exact": [],
     }
+    runners = {}
 
-    # scipy's erf on the arguments of the Domenico lateral factor of the last (unmirrored) grid,
+    # scipy's erf on the arguments of the lateral factor of the last (unmirrored) Domenico grid,
     # the counterpart of the JS bare erf loop
     lp = cfg["domenico"][-1]
     sy = (1.0 / (2.0 * np.sqrt(lp["ay"] * np.asarray(lp["xs"], dtype=float))))[:, None]
     ys = np.asarray(lp["ys"], dtype=float)[None, :]
     args = np.concatenate([((ys + lp["width"] / 2) * sy).ravel(), ((ys - lp["width"] / 2) * sy).ravel()])
-    med, reps, sink = time_figure(lambda: erf(args)[None, :], min_s, min_reps)
-    out["erf"] = {"calls": int(args.size), "medianSeconds": med, "reps": reps,
-                  "callsPerSecond": args.size / med, "sink": sink}
+    runners["erf"] = lambda: erf(args)
+    info["erfCalls"] = int(args.size)
 
-    rel_tol = cfg.get("relTol", 1e-6)
-    abs_tol = cfg.get("absTol", 1e-13)
-    out["domenico"] = []
-    for dp in cfg["domenico"]:
-        med, reps, sink = time_figure(lambda: domenico_grid(dp), min_s, min_reps)
-        cells = len(dp["xs"]) * len(dp["ys"])
+    for k, dp in enumerate(cfg["domenico"]):
         js_col, js_cell = compare_js_grid(domenico_grid(dp), dp.get("jsGrid"), rel_tol, abs_tol, floor)
-        out["domenico"].append({
-            "label": dp.get("label", ""), "cells": cells, "medianSeconds": med, "reps": reps,
-            "cellsPerSecond": cells / med, "jsVsNumpyColumnRel": js_col, "jsVsNumpyCellRel": js_cell,
-            "sink": sink,
+        info["domenico"].append({
+            "label": dp.get("label", ""), "cells": len(dp["xs"]) * len(dp["ys"]),
+            "jsVsNumpyColumnRel": js_col, "jsVsNumpyCellRel": js_cell,
         })
+        runners[f"domenico:{k}"] = lambda dp=dp: domenico_grid(dp)
 
-    out["exact"] = []
-    for ep in cfg["exact"]:
+    for k, ep in enumerate(cfg["exact"]):
         n, tried, fine = choose_nodes(ep, rel_tol, abs_tol, floor)
-        med, reps, sink = time_figure(lambda: exact_grid(ep, n), min_s, min_reps)
-        cells = len(ep["xs"]) * len(ep["ys"])
         js_col, js_cell = compare_js_grid(fine, ep.get("jsGrid"), rel_tol, abs_tol, floor)
-        out["exact"].append({
-            "label": ep.get("label", ""), "cells": cells, "nodes": n, "fineNodes": FINE_NODES,
-            "achievedRelError": tried[-1]["relError"], "achievedCellRelError": tried[-1]["cellRelError"],
-            "ladder": tried, "ogataBanksCheck": ogata_banks_check(dict(ep, floor=floor), n),
-            "medianSeconds": med, "reps": reps, "cellsPerSecond": cells / med,
-            "jsVsFineColumnRel": js_col, "jsVsFineCellRel": js_cell, "sink": sink,
+        info["exact"].append({
+            "label": ep.get("label", ""), "cells": len(ep["xs"]) * len(ep["ys"]), "nodes": n,
+            "fineNodes": FINE_NODES, "achievedRelError": tried[-1]["relError"],
+            "achievedCellRelError": tried[-1]["cellRelError"], "ladder": tried,
+            "ogataBanksCheck": ogata_banks_check(dict(ep, floor=floor), n),
+            "jsVsFineColumnRel": js_col, "jsVsFineCellRel": js_cell,
         })
-    out["relTol"], out["absTol"], out["floor"] = rel_tol, abs_tol, floor
-    json.dump(out, sys.stdout)
+        runners[f"exact:{k}"] = lambda ep=ep, n=n: exact_grid(ep, n)
+    return info, runners
+
+
+def serve():
+    """Line protocol on stdin/stdout: first line the configuration, answered by {"ready": info};
+    then {"run": name, "calls": k} per repetition, answered by {"seconds": s, "calls": k,
+    "sink": x} (the clock covers the k calls only; the results are summed into the sink after it
+    stops); {"quit": true} ends."""
+    cfg = json.loads(sys.stdin.readline())
+    info, runners = setup(cfg)
+    sys.stdout.write(json.dumps({"ready": info, "runners": sorted(runners)}) + "\n")
+    sys.stdout.flush()
+    for line in sys.stdin:
+        cmd = json.loads(line)
+        if cmd.get("quit"):
+            break
+        fn = runners[cmd["run"]]
+        calls = int(cmd.get("calls", 1))
+        results = [None] * calls
+        t0 = time.perf_counter()
+        for c in range(calls):
+            results[c] = fn()
+        dt = time.perf_counter() - t0
+        sink = float(sum(np.sum(r) for r in results))
+        sys.stdout.write(json.dumps({"seconds": dt, "calls": calls, "sink": sink}) + "\n")
+        sys.stdout.flush()
+
+
+def self_test():
+    info, runners = setup(self_test_input())
+    rates = {}
+    for name, fn in runners.items():
+        med = time_figure(fn, 0.5, 5)
+        rates[name] = {"medianSeconds": med}
+    json.dump({"info": info, "timings": rates}, sys.stdout, indent=1)
     sys.stdout.write("\n")
 
 
 if __name__ == "__main__":
-    main()
+    self_test() if "--self-test" in sys.argv else serve()

@@ -1,30 +1,45 @@
 /**
  * Timing rules of `npm run bench` (STYLE: inputs built before the clock starts, results consumed
  * into a sink, at least `minSeconds` of repetitions per figure, the median reported).
- * Pure apart from reading the clock; nothing here asserts on time.
+ * Several computations are timed in interleaved rounds (each round runs every one once, in turn),
+ * so a change in the machine's load during the run touches all of them alike and the ratios
+ * between them stay fair. A timer may be remote (the numpy process timing its own repetition).
+ * Nothing here asserts on time.
  */
 
 export interface TimingRules {
-  /** keep repeating until the repetitions add up to at least this many seconds */
+  /** keep going until every computation's repetitions add up to at least this many seconds */
   readonly minSeconds: number;
-  /** and until at least this many repetitions were timed */
+  /** and until every computation was timed at least this many times */
   readonly minReps: number;
-  /** untimed warm-up (JIT), seconds */
+  /** untimed warm-up rounds (JIT) for at least this long, seconds; 0: none */
   readonly warmupSeconds: number;
 }
 
 export const DEFAULT_RULES: TimingRules = { minSeconds: 0.5, minReps: 7, warmupSeconds: 0.15 };
 
 export interface Timing {
-  /** median seconds of one repetition */
+  /** median seconds of one call (a repetition may batch several calls) */
   readonly medianSeconds: number;
   readonly reps: number;
-  /** smallest and largest repetition, seconds: the spread of the figure */
+  /** fastest and slowest repetition, seconds per call: the spread of the figure */
   readonly minSeconds: number;
   readonly maxSeconds: number;
-  /** sum of values taken from every result, printed so no result can be optimised away */
+  /** sum of every result, printed so no result can be optimised away */
   readonly sink: number;
 }
+
+/** One timed repetition of `calls` calls: its seconds and a number summed from its results. */
+export interface Sample {
+  readonly seconds: number;
+  readonly calls: number;
+  readonly sink: number;
+}
+
+export type Timer = () => Sample | Promise<Sample>;
+
+/** A timed call returns its result: an array (summed into the sink) or a number. */
+export type Result = ArrayLike<number> | number;
 
 export function median(values: readonly number[]): number {
   if (values.length === 0) throw new RangeError('median of no values');
@@ -33,7 +48,7 @@ export function median(values: readonly number[]): number {
   return s.length % 2 === 1 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
 
-/** Sum of a typed array (consumes a result); plain loop, its cost is outside the timed call. */
+/** Sum of an array (consumes a result). */
 export function sumOf(values: ArrayLike<number>): number {
   let s = 0;
   for (let i = 0; i < values.length; i++) s += values[i];
@@ -42,37 +57,52 @@ export function sumOf(values: ArrayLike<number>): number {
 
 const now = (): number => performance.now() / 1000;
 
-/** A timed call returns its result: an array (summed into the sink) or a number. */
-export type Result = ArrayLike<number> | number;
-
-function consume(r: Result): number {
-  return typeof r === 'number' ? r : sumOf(r);
+/** Times `calls` calls of `run` in this process; the results are summed after the clock stops. */
+export function localTimer(run: () => Result, calls = 1): Timer {
+  const results: Result[] = new Array(calls);
+  return () => {
+    const t0 = now();
+    for (let c = 0; c < calls; c++) results[c] = run();
+    const seconds = now() - t0;
+    let sink = 0;
+    for (const r of results) sink += typeof r === 'number' ? r : sumOf(r);
+    return { seconds, calls, sink };
+  };
 }
 
 /**
- * Time `run`. Each result is summed into the sink after the clock stops, so the clock covers the
- * computation only and no result can be optimised away.
+ * A timer whose repetition takes at least `repSeconds`: fast computations are batched, so a
+ * round of interleaved figures is not dictated by the fastest one. `make(calls)` builds the timer;
+ * one single call (after one untimed call) measures the batch size.
  */
-export function timeFigure(run: () => Result, rules: TimingRules = DEFAULT_RULES): Timing {
-  let sink = 0;
+export async function batched(make: (calls: number) => Timer, repSeconds = 0.03): Promise<Timer> {
+  await make(1)();
+  const one = await make(1)();
+  const calls = Math.max(1, Math.ceil(repSeconds / Math.max(one.seconds, 1e-9)));
+  return make(calls);
+}
+
+/** Interleaved rounds over `timers` (see the header); every round is complete. */
+export async function timeRounds<K extends string>(timers: Record<K, Timer>, rules: TimingRules = DEFAULT_RULES): Promise<Record<K, Timing>> {
+  const keys = Object.keys(timers) as K[];
+  const sinks = new Map<K, number>(keys.map((k) => [k, 0]));
+  const times = new Map<K, number[]>(keys.map((k) => [k, []]));
   const warmEnd = now() + rules.warmupSeconds;
-  do sink += consume(run());
-  while (now() < warmEnd);
-  const times: number[] = [];
-  let total = 0;
-  while (total < rules.minSeconds || times.length < rules.minReps) {
-    const t0 = now();
-    const r = run();
-    const dt = now() - t0;
-    sink += consume(r);
-    times.push(dt);
-    total += dt;
+  while (now() < warmEnd) for (const k of keys) sinks.set(k, sinks.get(k)! + (await timers[k]()).sink);
+  const totals = new Map<K, number>(keys.map((k) => [k, 0]));
+  const done = (k: K) => times.get(k)!.length >= rules.minReps && totals.get(k)! >= rules.minSeconds;
+  while (!keys.every(done)) {
+    for (const k of keys) {
+      const s = await timers[k]();
+      times.get(k)!.push(s.seconds / s.calls);
+      totals.set(k, totals.get(k)! + s.seconds);
+      sinks.set(k, sinks.get(k)! + s.sink);
+    }
   }
-  return {
-    medianSeconds: median(times),
-    reps: times.length,
-    minSeconds: Math.min(...times),
-    maxSeconds: Math.max(...times),
-    sink,
-  };
+  const out = {} as Record<K, Timing>;
+  for (const k of keys) {
+    const ts = times.get(k)!;
+    out[k] = { medianSeconds: median(ts), reps: ts.length, minSeconds: Math.min(...ts), maxSeconds: Math.max(...ts), sink: sinks.get(k)! };
+  }
+  return out;
 }
