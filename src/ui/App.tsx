@@ -15,6 +15,7 @@ import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
 import { SettingsDialog } from './panels/SettingsDialog';
 import { DEMO_CASES } from './demos';
+import { openSections } from './view';
 import { startEvaluation } from './evaluation';
 import './app.css';
 
@@ -96,7 +97,11 @@ function DemoPicker() {
         const el = e.target as HTMLSelectElement;
         const d = DEMO_CASES.find((x) => x.file === el.value);
         el.value = '';
-        if (d) replaceCase(d.build());
+        if (d) {
+          replaceCase(d.build());
+          // a demo opens on its results; the inputs are one tap away
+          openSections.value = new Set();
+        }
       }}
     >
       <option value="">Demo cases…</option>

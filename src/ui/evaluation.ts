@@ -8,7 +8,7 @@
 import { effect, signal } from '@preact/signals';
 import { wrap, type Remote } from 'comlink';
 import type { Case } from '../case/schema';
-import { prepareCase } from '../case/prepare';
+import { prepareCase, type PreparedCase } from '../case/prepare';
 import { ValidationError } from '../core';
 import type { ScreeningApi } from '../worker/screening';
 import type { Evaluation, PlumeLayer } from './results';
@@ -67,6 +67,9 @@ export const latencySamples: LatencySample[] = [];
 let latestPlume: PlumeLayer | null = null;
 let latestEval: Evaluation | null = null;
 const pendingInputs = new Map<string, number>();
+
+/** The current case prepared for the engine (null while an input is invalid): map geometry. */
+export const preparedCase = signal<PreparedCase | null>(null);
 
 /** The contours on the map (they can arrive before the receptor results). */
 export const currentPlume = signal<PlumeLayer | null>(null);
@@ -129,11 +132,14 @@ export function startEvaluation(): () => void {
     const play = playTime.value;
     let viewTime: number;
     try {
-      viewTime = prepareCase(c).viewTime;
+      const prepared = prepareCase(c);
+      viewTime = prepared.viewTime;
+      preparedCase.value = prepared;
       inputIssue.value = null;
     } catch (e) {
       if (e instanceof ValidationError) inputIssue.value = { field: e.field, message: e.message };
       else inputIssue.value = { field: '', message: describe(e) };
+      preparedCase.value = null;
       return;
     }
     evaluationError.value = null;

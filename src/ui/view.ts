@@ -13,5 +13,6 @@ export const selectedId = signal<string | null>(null);
 export const playTime = signal<number | null>(null);
 /** 'ok' tiles load; 'failed' none could load (offline, no signal) so the site grid shows; 'off' no tile URL */
 export const tileState = signal<'loading' | 'ok' | 'failed' | 'off'>('loading');
-/** which panel section is open on narrow screens */
-export const openSection = signal<'release' | 'flow' | 'receptors' | 'results'>('release');
+export type SectionId = 'release' | 'flow' | 'risk' | 'results';
+/** which panel sections are open (several may be) */
+export const openSections = signal<Set<SectionId>>(new Set<SectionId>(['release', 'results']));

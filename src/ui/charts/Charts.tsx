@@ -25,6 +25,8 @@ function Frame(props: {
   sy: Scale;
   children: ComponentChildren;
   testid?: string;
+  /** names of the solid and dashed curves, shown under the chart */
+  legend?: { main: string; alt: string | null };
 }) {
   const { sx, sy } = props;
   return (
@@ -59,6 +61,21 @@ function Frame(props: {
         </text>
         {props.children}
       </svg>
+      {props.legend && (
+        <p class="dg-chart-key">
+          <span class="dg-key-line" aria-hidden="true" />
+          {props.legend.main}
+          {props.legend.alt && (
+            <>
+              {'  '}
+              <span class="dg-key-line dg-key-alt" aria-hidden="true" />
+              {props.legend.alt}
+            </>
+          )}{' '}
+          <span class="dg-key-line dg-key-limit" aria-hidden="true" />
+          limit
+        </p>
+      )}
     </figure>
   );
 }
@@ -73,6 +90,11 @@ function LimitLine({ sy, limit, label }: { sy: Scale; limit: number; label: stri
       </text>
     </g>
   );
+}
+
+function solutionKey(solution: string, withAlt: boolean): { main: string; alt: string | null } {
+  const name = (s: string) => (s === 'domenico' ? 'Domenico (approximate)' : 'exact solution');
+  return { main: name(solution), alt: withAlt ? name(solution === 'domenico' ? 'exact' : 'domenico') : null };
 }
 
 /** Time axis unit: years when the horizon is longer than two years, else days. */
@@ -101,7 +123,6 @@ export function BreakthroughChart(props: {
   const lim = toC(props.limit);
   const sx = linearScale(0, toT(props.horizon), M.l, W - M.r);
   const sy = concentrationScale([...vs, ...(alt ?? [])], lim, H - M.b, M.t);
-  const other = props.solution === 'domenico' ? 'exact' : 'Domenico';
   return (
     <Frame
       title={`Breakthrough at ${props.name}`}
@@ -110,6 +131,7 @@ export function BreakthroughChart(props: {
       sx={sx}
       sy={sy}
       testid="breakthrough-chart"
+      legend={solutionKey(props.solution, !!alt)}
     >
       <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
       {alt && <path d={pathOf(ts, alt, sx, sy)} class="dg-chart-alt" />}
@@ -122,11 +144,6 @@ export function BreakthroughChart(props: {
             reaches limit: {Number(toT(props.arrival).toPrecision(3))} {UNITS[tu].label}
           </text>
         </g>
-      )}
-      {alt && (
-        <text x={M.l + 6} y={M.t + 13} class="dg-chart-legend">
-          — {props.solution === 'domenico' ? 'Domenico' : 'exact'} · - - {other}
-        </text>
       )}
     </Frame>
   );
@@ -162,6 +179,7 @@ export function ProfileChart(props: {
       sx={sx}
       sy={sy}
       testid="profile-chart"
+      legend={solutionKey(props.solution, !!alt)}
     >
       <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
       {alt && <path d={pathOf(xs, alt, sx, sy)} class="dg-chart-alt" />}

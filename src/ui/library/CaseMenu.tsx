@@ -10,7 +10,7 @@ import type { CaseSummary } from '../../store/cases';
 import type { TrashRecord } from '../../store/schema';
 import { formatBytes } from '../../store/quota';
 import { currentCase } from '../state';
-import { libraryVersion, session, storage, storageUnavailable } from '../../app/session';
+import { libraryVersion, offlineReady, session, storage, storageUnavailable } from '../../app/session';
 import {
   deleteWithUndo,
   duplicateAsVariant,
@@ -108,7 +108,7 @@ function StorageLine() {
         : '';
   return (
     <p class="dg-lib-storage" data-testid="storage-line">
-      {used}. {kept}
+      {used}. {kept} {offlineReady.value ? 'The app itself is kept for use with no network.' : ''}
     </p>
   );
 }

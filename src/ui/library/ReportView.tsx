@@ -110,11 +110,6 @@ export function Report() {
 
       {!results && <p class="dg-report-missing">Results for the current inputs are not available (still computing, or the inputs are not valid). Only the inputs are shown.</p>}
 
-      <section class="dg-report-section">
-        <h2>Site plan</h2>
-        <SitePlan c={c} prepared={prepared} results={results} />
-      </section>
-
       {results && (
         <section class="dg-report-section">
           <h2>Receptors</h2>
@@ -172,6 +167,11 @@ export function Report() {
           )}
         </section>
       )}
+
+      <section class="dg-report-section">
+        <h2>Site plan</h2>
+        <SitePlan c={c} prepared={prepared} results={results} />
+      </section>
 
       {results && results.receptors.length > 0 && (
         <section class="dg-report-section dg-report-charts">

@@ -37,7 +37,7 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
   for (const b of bands) for (const poly of b.polys) pts.push(...poly[0]);
   let arrow: [[number, number], [number, number]] | null = null;
   if (prepared) {
-    const reach = Math.max(results?.plumeLength ?? 0, ...prepared.receptors.map((r) => r.x), 20) * 0.6;
+    const reach = Math.max(results?.plumeLength ?? 0, ...prepared.receptors.map((r) => r.x), 20) * 0.35;
     arrow = [en(prepared.toMap(0, 0)), en(prepared.toMap(reach, 0))];
   }
 

@@ -15,7 +15,7 @@ function SaveChip() {
   const s = saveState.value;
   const text =
     s.kind === 'saved'
-      ? 'Saved on this device'
+      ? 'Saved'
       : s.kind === 'pending' || s.kind === 'saving'
         ? 'Saving…'
         : s.kind === 'storage-full'
@@ -23,25 +23,20 @@ function SaveChip() {
           : s.kind === 'conflict'
             ? 'Not saved: changed elsewhere'
             : 'Not saved yet';
+  const title = s.kind === 'saved' ? 'Every change is saved on this device' : undefined;
   const tone = s.kind === 'saved' ? 'ok' : s.kind === 'pending' || s.kind === 'saving' ? 'busy' : 'bad';
   return (
-    <span class={`dg-chip is-${tone}`} role="status" data-testid="save-state" data-state={s.kind}>
+    <span class={`dg-chip is-${tone}`} role="status" aria-label={title} data-testid="save-state" data-state={s.kind}>
       {text}
     </span>
   );
 }
 
 function NetChip() {
-  if (online.value) {
-    return offlineReady.value ? (
-      <span class="dg-chip is-ok" data-testid="net-state" data-state="online">
-        Ready offline
-      </span>
-    ) : null;
-  }
+  if (online.value) return null;
   return (
-    <span class="dg-chip is-warn" role="status" data-testid="net-state" data-state="offline">
-      Offline — working on this device
+    <span class="dg-chip is-warn" role="status" data-testid="net-state" data-state="offline" aria-label={offlineReady.value ? 'Offline: the app, its computations and saving keep working on this device' : 'Offline'}>
+      Offline
     </span>
   );
 }

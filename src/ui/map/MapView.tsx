@@ -29,15 +29,19 @@ export function MapView({ frameKey }: { frameKey: string }) {
   }, [frameKey]);
   return (
     <div class="dg-map-wrap">
-      <div ref={ref} class="dg-map" role="application" aria-label="Site map" />
       <MapTools />
-      <PlumeKey />
-      <TimeBar />
-      {tileState.value === 'failed' && (
-        <p class="dg-map-note" role="status">
-          Basemap tiles cannot load (offline or no signal): site grid shown. Distances, results and editing work as usual.
-        </p>
-      )}
+      <div class="dg-map-box">
+        <div ref={ref} class="dg-map" role="application" aria-label="Site map" />
+      </div>
+      <div class="dg-map-foot">
+        {tileState.value === 'failed' && (
+          <p class="dg-map-note" role="status" data-testid="tiles-failed">
+            No basemap (offline or no signal): site grid shown; everything else works.
+          </p>
+        )}
+        <PlumeKey />
+        <TimeBar />
+      </div>
     </div>
   );
 }
@@ -45,7 +49,7 @@ export function MapView({ frameKey }: { frameKey: string }) {
 const TOOLS: { id: MapTool; label: string; hint: string }[] = [
   { id: 'move', label: 'Pan', hint: 'Pan and zoom; drag any mark to move it' },
   { id: 'place-source', label: 'Release here', hint: 'Tap the map to put the release point there' },
-  { id: 'trace-footprint', label: 'Trace outline', hint: 'Trace the release outline with a finger; lift to close it' },
+  { id: 'trace-footprint', label: 'Outline', hint: 'Trace the release outline with a finger; lift to close it' },
   { id: 'add-receptor', label: '+ Receptor', hint: 'Tap the map to add a well or other point of concern' },
   { id: 'add-head', label: '+ Water level', hint: 'Tap each monitoring well (three or more) and enter its water level' },
 ];
@@ -78,16 +82,18 @@ function PlumeKey() {
   if (!p) return null;
   return (
     <div class="dg-plume-key" aria-label="Plume legend">
-      <strong>Plume {p.time === Infinity ? 'at steady state' : `after ${fmtTime(p.time)}`}</strong>
+      <strong>
+        Plume {p.time === Infinity ? 'at steady state' : `after ${fmtTime(p.time)}`}, {p.depth} m below water table — screening estimate (
+        {p.solution === 'domenico' ? 'Domenico' : 'exact solution'}):
+      </strong>
       <ul>
         {p.thresholds.map((t, k) => (
           <li key={t}>
             <span class={`dg-swatch dg-band-${Math.min(k, 3)}`} aria-hidden="true" />
-            {k === 0 ? '≥ limit' : `≥ ${Math.round(t / p.thresholds[0])} × limit`}
+            {k === 0 ? '≥ limit' : `≥ ${Math.round(t / p.thresholds[0])}×`}
           </li>
         ))}
       </ul>
-      <span class="dg-key-note">Screening estimate, {p.solution === 'domenico' ? 'Domenico' : 'exact solution'}, {p.depth} m depth</span>
     </div>
   );
 }

@@ -14,7 +14,7 @@ import { makeLocalFrame } from '../../geo/projection';
 import { currentCase, currentResults, updateCase, registerMapElement } from '../state';
 import { mapTool, selectedId, tileState } from '../view';
 import { settings } from '../settings';
-import { currentPlume } from '../evaluation';
+import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
 import { newId } from '../../case/defaults';
@@ -64,7 +64,7 @@ export class SiteMap {
     } as L.MapOptions);
     this.map.attributionControl.setPrefix(false);
     registerMapElement(el);
-    L.control.scale({ metric: true, imperial: true, position: 'bottomleft', maxWidth: 160 }).addTo(this.map);
+    L.control.scale({ metric: true, imperial: true, position: 'bottomleft', maxWidth: 140 }).addTo(this.map);
     new NorthArrow({ position: 'topright' }).addTo(this.map);
 
     const lf = makeLocalFrame(c.site.frame, c.site.datum);
@@ -98,6 +98,18 @@ export class SiteMap {
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
     this.disposers.push(effect(() => this.syncCase(currentCase.value, selectedId.value, currentResults.value)));
     this.disposers.push(effect(() => this.syncPlume(currentPlume.value)));
+    this.disposers.push(
+      effect(() => {
+        // the source plane the solutions use: across the flow at the release, the width they use
+        const p = preparedCase.value;
+        if (!p) {
+          this.sourcePlane.setLatLngs([]);
+          return;
+        }
+        const w = p.derived.width / 2;
+        this.sourcePlane.setLatLngs([toLatLng(p.toMap(0, -w)), toLatLng(p.toMap(0, w))]);
+      }),
+    );
     this.disposers.push(effect(() => this.syncFlowArrow(currentCase.value, currentResults.value?.derived.azimuthDeg ?? null)));
     this.disposers.push(
       effect(() => {

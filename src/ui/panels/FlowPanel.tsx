@@ -1,6 +1,7 @@
 /** Which way the water goes and how fast: flow direction (arrow or water levels) and the aquifer. */
+import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
-import { QuantityField, NumberField, Segmented, fmtNum } from '../fields';
+import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId } from '../view';
 import { MATERIAL_PRESETS, materialPreset, FIELD_RANGES, citeValue } from '../../case/presets';
 import type { Case } from '../../case/schema';
@@ -16,12 +17,14 @@ export function FlowPanel() {
   const c = currentCase.value;
   const flow = c.site.flow;
   const r = currentResults.value;
+  const k = c.aquifer.hydraulicConductivity;
+  const summary =
+    (flow.method === 'direction'
+      ? `Towards ${fmtNum(flow.azimuthDeg)}°, gradient ${fmtNum(flow.gradient)}`
+      : `From ${flow.readings.length} water levels${r ? `: towards ${fmtNum(r.derived.azimuthDeg, 3)}°, gradient ${fmtNum(r.derived.gradient, 2)}` : ''}`) +
+    `; K ${fmtNum(k.value)} ${unitLabel(k.unit)}${r ? `, v ${fmtNum(r.derived.v, 3)} m/d, R ${fmtNum(r.derived.R, 3)}` : ''}`;
   return (
-    <section class="dg-section" aria-labelledby="sec-flow" data-section="flow">
-      <h2 id="sec-flow">
-        <span class="dg-sec-mark dg-sec-flow" aria-hidden="true" />
-        Which way does the water go?
-      </h2>
+    <Section id="flow" title="Which way does the water go?" summary={summary}>
       <Segmented
         label="Flow from"
         value={flow.method}
@@ -71,7 +74,7 @@ export function FlowPanel() {
         </p>
       )}
       <Aquifer c={c} />
-    </section>
+    </Section>
   );
 }
 

@@ -1,6 +1,7 @@
 /** What is at risk: the limit that governs, the time horizon, and the receptors on the map. */
+import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
-import { QuantityField } from '../fields';
+import { QuantityField, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId } from '../view';
 import type { ReceptorKind } from '../../case/schema';
 import { activeSiteMap } from '../map/MapView';
@@ -17,12 +18,10 @@ export const KIND_LABEL: Record<ReceptorKind, string> = {
 export function ReceptorsPanel() {
   const c = currentCase.value;
   const k = c.contaminant;
+  const n = c.site.receptors.length;
+  const summary = `${n} receptor${n === 1 ? '' : 's'}; limit ${fmtNum(k.limit.value)} ${unitLabel(k.limit.unit)} (your local limit governs); horizon ${fmtNum(c.evaluation.horizon.value)} ${unitLabel(c.evaluation.horizon.unit)}`;
   return (
-    <section class="dg-section" aria-labelledby="sec-risk" data-section="receptors">
-      <h2 id="sec-risk">
-        <span class="dg-sec-mark dg-sec-risk" aria-hidden="true" />
-        What is at risk?
-      </h2>
+    <Section id="risk" title="What is at risk?" summary={summary}>
       <QuantityField
         label="Limit at the receptors"
         field="contaminant.limit"
@@ -138,6 +137,6 @@ export function ReceptorsPanel() {
           );
         })}
       </ol>
-    </section>
+    </Section>
   );
 }

@@ -1,6 +1,7 @@
 /** Where the release is and what it releases: source geometry and strength, and the contaminant. */
+import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
-import { QuantityField, OptionalQuantityField, Segmented, fmtNum } from '../fields';
+import { QuantityField, OptionalQuantityField, Segmented, fmtNum, unitLabel } from '../fields';
 import { mapTool } from '../view';
 import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, type ContaminantPreset } from '../../case/presets';
 import type { Case } from '../../case/schema';
@@ -12,12 +13,9 @@ export function ReleasePanel() {
   const src = c.site.source;
   const r = currentResults.value;
   const outline = src.footprint !== null;
+  const summary = `${outline ? 'Traced outline' : 'Point'}, ${r ? fmtLength(r.derived.width) : fmtNum(src.width.value) + ' ' + unitLabel(src.width.unit)} across the flow; ${c.contaminant.name || 'contaminant'} at ${fmtNum(c.source.concentration.value)} ${unitLabel(c.source.concentration.unit)}`;
   return (
-    <section class="dg-section" aria-labelledby="sec-release" data-section="release">
-      <h2 id="sec-release">
-        <span class="dg-sec-mark dg-sec-release" aria-hidden="true" />
-        Where is the release?
-      </h2>
+    <Section id="release" title="Where is the release?" summary={summary}>
       <Segmented
         label="Shape on the map"
         value={outline ? 'outline' : 'point'}
@@ -94,7 +92,7 @@ export function ReleasePanel() {
         help="A source that is being depleted or remediated loses strength; a constant source is the cautious choice."
       />
       <Contaminant c={c} />
-    </section>
+    </Section>
   );
 }
 

@@ -4,6 +4,7 @@
  * and every warning. Results follow the inputs; while new ones are computed the old ones stay,
  * marked as updating, and while an input is invalid they are marked as not matching the inputs.
  */
+import { Section } from './Section';
 import { useState } from 'preact/hooks';
 import { currentCase, currentResults, updateCase } from '../state';
 import { Segmented } from '../fields';
@@ -27,12 +28,10 @@ export function ResultsPanel() {
   const r = currentResults.value;
   const issue = inputIssue.value;
   const stale = !!r && (r.caseStamp !== c.modified || !!issue);
+  const reach = r?.receptors.filter((x) => x.status === 'reaches-limit').length ?? 0;
+  const summary = r ? `${reach} of ${r.receptors.length} receptors reach the limit within the horizon (screening estimate)` : 'Computing…';
   return (
-    <section class="dg-section dg-results" aria-labelledby="sec-results" data-section="results" aria-busy={evaluationState.value === 'busy'}>
-      <h2 id="sec-results">
-        <span class="dg-sec-mark dg-sec-results" aria-hidden="true" />
-        What will each receptor see?
-      </h2>
+    <Section id="results" title="What will each receptor see?" summary={summary} class="dg-results" collapsible={false}>
       <Caution />
       <Segmented
         label="Solution"
@@ -59,7 +58,7 @@ export function ResultsPanel() {
           <Warnings r={r} />
         </div>
       )}
-    </section>
+    </Section>
   );
 }
 
@@ -68,7 +67,7 @@ function Caution() {
   return (
     <div class="dg-caution" role="note" data-testid="caution">
       <p>
-        <strong>Screening only.</strong> {SCREENING_CAUTION}
+        {SCREENING_CAUTION}
       </p>
       <button type="button" aria-expanded={open} onClick={() => setOpen(!open)}>
         {open ? 'Hide assumptions' : 'Assumptions behind these figures'}
@@ -126,13 +125,11 @@ function ReceptorTable({ r }: { r: Evaluation }) {
         </caption>
         <thead>
           <tr>
-            <th scope="col">Receptor</th>
-            <th scope="col">Downgradient</th>
-            <th scope="col">Off centreline</th>
+            <th scope="col">Receptor and status</th>
+            <th scope="col">Down / off the centreline</th>
             <th scope="col">Reaches limit</th>
             <th scope="col">At horizon</th>
             <th scope="col">Peak (when)</th>
-            <th scope="col">Status</th>
           </tr>
         </thead>
         <tbody>
@@ -151,9 +148,12 @@ function ReceptorTable({ r }: { r: Evaluation }) {
                   <button type="button" class="dg-linkish" onClick={() => (selectedId.value = x.id)}>
                     {x.name}
                   </button>
+                  <span class={`dg-status dg-status-${x.status}`}>{STATUS_TEXT[x.status]}</span>
                 </th>
-                <td>{fmtLength(x.x)}</td>
-                <td>{fmtLength(Math.abs(x.y))}</td>
+                <td>
+                  {fmtLength(x.x)} down
+                  <span class="dg-alt">{fmtLength(Math.abs(x.y))} off</span>
+                </td>
                 <td data-col="arrival">
                   {x.arrival === null ? 'not within horizon' : fmtTime(x.arrival)}
                   <Alt show={!!alt} text={`${an}: ${alt?.arrival === null ? 'not within horizon' : fmtTime(alt?.arrival ?? null)}`} />
@@ -165,9 +165,6 @@ function ReceptorTable({ r }: { r: Evaluation }) {
                 <td data-col="peak">
                   {fmtConc(x.peak.c)} ({fmtTime(x.peak.t)})
                   <Alt show={!!alt} text={`${an}: ${fmtConc(alt?.peak.c ?? 0)}`} />
-                </td>
-                <td>
-                  <span class={`dg-status dg-status-${x.status}`}>{STATUS_TEXT[x.status]}</span>
                 </td>
               </tr>
             );

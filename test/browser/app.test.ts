@@ -1,0 +1,207 @@
+// The field screen in a real browser (Debian chromium via playwright-core), offline: every request
+// to a host other than the app's own origin is aborted, as on a site with no signal. Checks the
+// main job end to end: open a demo case, see contours and receptor results, move the source, add
+// a receptor, change an input, and the no-tiles fallback (site grid, scale bar, north arrow).
+// Screenshots in portrait and landscape are kept in test-artifacts/ to be looked at.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { launch, newPage, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
+
+const DEMO = 'fuel-release-farm-well.json';
+let browser: Browser;
+
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+interface Opened {
+  page: Page;
+  hosts: Set<string>;
+  errors: string[];
+  close: () => Promise<void>;
+}
+
+async function open(viewport = LANDSCAPE): Promise<Opened> {
+  const base = inject('baseUrl');
+  const origin = new URL(base).origin;
+  const { context, page } = await newPage(browser, viewport);
+  const hosts = new Set<string>();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await context.route('**/*', (route) => {
+    const u = new URL(route.request().url());
+    hosts.add(u.origin);
+    // offline: only the app itself answers
+    return u.origin === origin ? route.continue() : route.abort('internetdisconnected');
+  });
+  await page.goto(base);
+  await page.waitForSelector('.dg-mark-source');
+  return { page, hosts, errors, close: () => context.close() };
+}
+
+async function openDemo(page: Page): Promise<void> {
+  await page.selectOption('select.dg-demo', DEMO);
+  await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === 2);
+  await waitSettled(page);
+}
+
+/** Results for the case on screen and contours drawn. */
+async function waitSettled(page: Page): Promise<void> {
+  await page.waitForFunction(
+    () =>
+      document.querySelector('[data-testid=results]')?.getAttribute('data-stale') === 'false' &&
+      document.querySelectorAll('path.dg-band').length > 0,
+    undefined,
+    { timeout: 30_000 },
+  );
+  await page.waitForTimeout(300);
+}
+
+const bandPaths = (page: Page) => page.$$eval('path.dg-band', (ps) => ps.map((p) => p.getAttribute('d') ?? ''));
+const tableRows = (page: Page) =>
+  page.$$eval('[data-testid=receptor-table] tbody tr', (rows) =>
+    rows.map((r) => ({ id: r.getAttribute('data-receptor'), status: r.getAttribute('data-status'), text: (r as HTMLElement).innerText })),
+  );
+
+describe('field screen', () => {
+  it('opens a demo case and shows contours, the receptor table, charts and the caution', async () => {
+    const { page, errors, close } = await open();
+    await openDemo(page);
+    // the plume: filled bands at the limit and its multiples
+    expect((await bandPaths(page)).length).toBeGreaterThanOrEqual(1);
+    const rows = await tableRows(page);
+    expect(rows.map((r) => r.id).sort()).toEqual(['farm-well', 'garden-well']);
+    for (const r of rows) expect(['reaches-limit', 'below-limit', 'not-reached-in-horizon']).toContain(r.status);
+    // caution beside the results, assumptions one tap away
+    expect(await page.textContent('[data-testid=caution]')).toMatch(/Screening-level estimates only/);
+    await page.click('[data-testid=caution] button');
+    expect(await page.$$eval('[data-testid=assumptions] li', (l) => l.length)).toBeGreaterThan(5);
+    // charts: breakthrough with the limit line, centreline profile; axes labelled with units
+    const chart = await page.textContent('[data-testid=breakthrough-chart]');
+    expect(chart).toMatch(/time since the release began \(years\)/);
+    expect(chart).toMatch(/concentration \(µg\/L\)/);
+    expect(chart).toMatch(/limit 5 µg\/L/);
+    expect(await page.textContent('[data-testid=profile-chart]')).toMatch(/distance downgradient of the source \(m\)/);
+    expect(errors).toEqual([]);
+    await close();
+  });
+
+  it('recomputes contours and receptor results when the source is dragged', async () => {
+    const { page, close } = await open();
+    await openDemo(page);
+    const before = await bandPaths(page);
+    const rowsBefore = await tableRows(page);
+    const src = await page.$('.dg-mark-source');
+    const box = (await src!.boundingBox())!;
+    const x = box.x + box.width / 2;
+    const y = box.y + box.height / 2;
+    // drag the release 60 px up-left (upgradient, away from the wells)
+    await page.mouse.move(x, y);
+    await page.mouse.down();
+    for (let k = 1; k <= 6; k++) await page.mouse.move(x - 10 * k, y - 6 * k);
+    await page.mouse.up();
+    await page.waitForFunction((b) => {
+      const now = [...document.querySelectorAll('path.dg-band')].map((p) => p.getAttribute('d'));
+      return now.length > 0 && now.join() !== b;
+    }, before.join());
+    await waitSettled(page);
+    const rowsAfter = await tableRows(page);
+    // the wells are now farther from the release: the table's figures change
+    expect(rowsAfter.map((r) => r.text)).not.toEqual(rowsBefore.map((r) => r.text));
+    await close();
+  });
+
+  it('adds a receptor by tapping the map and evaluates it', async () => {
+    const { page, close } = await open();
+    await openDemo(page);
+    await page.click('button[data-tool=add-receptor]');
+    // tap a little downgradient (the flow runs towards 110°, east-south-east) of the release
+    const src = (await (await page.$('.dg-mark-source'))!.boundingBox())!;
+    await page.mouse.click(src.x + src.width / 2 + 90, src.y + src.height / 2 + 30);
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === 3);
+    await waitSettled(page);
+    const rows = await tableRows(page);
+    const added = rows.find((r) => r.id !== 'farm-well' && r.id !== 'garden-well')!;
+    expect(added.text).toMatch(/Receptor 3/);
+    expect(['reaches-limit', 'below-limit', 'not-reached-in-horizon']).toContain(added.status);
+    expect(await page.$$eval('.dg-mark-receptor', (m) => m.length)).toBe(3);
+    await close();
+  });
+
+  it('changes results when an input changes, and names the field when an input is rejected', async () => {
+    const { page, close } = await open();
+    await openDemo(page);
+    await page.click('[data-section=release] .dg-sec-toggle');
+    const conc = page.locator('[data-field="source.concentration"] input.dg-num');
+    const rowsBefore = await tableRows(page);
+    await conc.fill('50');
+    await page.waitForFunction(
+      (b) => [...document.querySelectorAll('[data-testid=receptor-table] tbody tr')].map((r) => (r as HTMLElement).innerText).join('|') !== b,
+      rowsBefore.map((r) => r.text).join('|'),
+    );
+    // not a number: the field says so and keeps the last valid value
+    await conc.fill('abc');
+    expect(await page.textContent('[data-field="source.concentration"] .dg-field-error')).toMatch(/Source concentration.*enter a number.*50 mg\/L/);
+    // a number the engine rejects: its message, with the field, at the field and over the results
+    await conc.fill('-1');
+    await page.waitForSelector('[data-testid=input-issue]');
+    expect(await page.textContent('[data-field="source.concentration"] .dg-field-error')).toMatch(/source\.concentration/);
+    expect(await page.getAttribute('[data-testid=results]', 'data-stale')).toBe('true');
+    await conc.fill('5');
+    await waitSettled(page);
+    await close();
+  });
+
+  it('falls back to the site grid with scale bar and north arrow when tiles cannot load, and contacts no other host', async () => {
+    const { page, hosts, close } = await open();
+    await openDemo(page);
+    await page.waitForSelector('[data-testid=tiles-failed]');
+    expect(await page.$$eval('.dg-site-grid path', (p) => p.length)).toBeGreaterThan(4);
+    expect(await page.$$eval('.dg-site-grid text', (t) => t.map((x) => x.textContent))).toEqual(
+      expect.arrayContaining([expect.stringMatching(/^[EN] -?\d+ (m|km)$/)]),
+    );
+    expect(await page.$('.leaflet-control-scale-line')).not.toBeNull();
+    expect(await page.$('.dg-north')).not.toBeNull();
+    expect(await page.textContent('.leaflet-control-attribution')).toMatch(/© OpenStreetMap contributors/);
+    const base = new URL(inject('baseUrl')).origin;
+    for (const h of hosts) expect([base, 'https://tile.openstreetmap.org']).toContain(h);
+    await close();
+  });
+
+  it('has touch targets of at least 44 px', async () => {
+    const { page, close } = await open(PORTRAIT);
+    await openDemo(page);
+    const small = await page.$$eval('button, select, input:not([type=checkbox]):not([type=range]), .leaflet-bar a', (els) =>
+      els
+        .filter((e) => (e as HTMLElement).offsetParent !== null)
+        .map((e) => ({ t: (e as HTMLElement).innerText || e.getAttribute('aria-label') || e.className, r: e.getBoundingClientRect() }))
+        .filter((x) => x.r.height < 44 || x.r.width < 44)
+        .map((x) => `${x.t} ${Math.round(x.r.width)}×${Math.round(x.r.height)}`),
+    );
+    expect(small).toEqual([]);
+    await close();
+  });
+
+  for (const [name, vp] of [
+    ['landscape', LANDSCAPE],
+    ['portrait', PORTRAIT],
+  ] as const) {
+    it(`renders the demo case in ${name} (${vp.width} × ${vp.height}) — screenshot kept`, async () => {
+      const { page, close } = await open(vp);
+      await openDemo(page);
+      // map and results side by side in landscape, stacked in portrait
+      const map = (await (await page.$('.dg-map-wrap'))!.boundingBox())!;
+      const panel = (await (await page.$('.dg-panel'))!.boundingBox())!;
+      if (name === 'landscape') expect(panel.x).toBeGreaterThanOrEqual(map.x + map.width - 1);
+      else expect(panel.y).toBeGreaterThanOrEqual(map.y + map.height - 1);
+      await page.screenshot({ path: artifactPath(`app-${name}.png`) });
+      await page.click('[data-section=results] [data-testid=receptor-table]');
+      await page.evaluate(() => document.querySelector('[data-testid=receptor-table]')?.scrollIntoView());
+      await page.screenshot({ path: artifactPath(`app-${name}-results.png`) });
+      await close();
+    });
+  }
+});
