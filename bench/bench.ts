@@ -13,7 +13,8 @@
  * grids evaluated by bench/numpy_grids.py (vectorised numpy/scipy, run as a child process) and the
  * ratio JS/numpy, with the agreement of the JS grids with numpy's and numpy's own accuracy check.
  * Then the contour pipeline (bench/contourPipeline.ts). Targets are printed with whether they are met.
- * Options: --no-numpy (JS figures only), --json <file> (also write every figure as JSON).
+ * Options: --no-numpy (JS figures only), --python <command> (python3 by default),
+ * --json <file> (also write every figure as JSON).
  * Nothing here asserts on time; tests never do.
  */
 import { cpus, loadavg } from 'node:os';
@@ -116,7 +117,7 @@ async function main(): Promise<void> {
           jsGrid('not mirrored', grids.domAsym, domenicoGrid(grids.domAsym)),
         ],
         exact: [jsGrid('mirrored', grids.exact, patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL }))],
-      });
+      }, argValue('--python'));
     } catch (e) {
       numpyError = (e as Error).message;
     }

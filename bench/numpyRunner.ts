@@ -96,6 +96,8 @@ export class NumpyProcess {
     // one thread, as the JS figures: no BLAS/OpenMP thread pools behind numpy's matmul
     const env = { ...process.env, OMP_NUM_THREADS: '1', OPENBLAS_NUM_THREADS: '1', MKL_NUM_THREADS: '1' };
     this.child = spawn(python, [script], { env, stdio: ['pipe', 'pipe', 'pipe'] });
+    // a broken pipe (the script gone) surfaces through 'exit' below with the script's stderr
+    this.child.stdin!.on('error', () => {});
     this.child.stderr!.setEncoding('utf8');
     this.child.stderr!.on('data', (d: string) => (this.stderr = (this.stderr + d).slice(-4000)));
     createInterface({ input: this.child.stdout! }).on('line', (line) => this.waiting.shift()?.(line));

@@ -1,0 +1,170 @@
+// UI latency: from an input change to the redrawn plume contours on a 256 × 256 lattice, beside
+// the engine's pure compute time for the same lattice, as a ratio (target: overhead under 1.5×).
+//
+// What is timed, in one run (nothing here asserts on time):
+//   latency  performance.now() in the page just before the input event is dispatched on the
+//            source-concentration field → after the contours are on the map and the browser has
+//            painted (the screen's own sample: next animation frame + a task). It includes case
+//            preparation on the main thread, the message to the plume worker, the lattice
+//            values, contouring (d3-contour via src/geo/contours.ts), GeoJSON back to the page,
+//            the Leaflet layer and the paint — everything the user waits for. The receptor
+//            worker runs at the same time, as it does in use.
+//   compute  the lattice values alone (core concentrationGrid, the same lattice, model and time),
+//            measured inside the worker during the same runs, and again in Node on this machine
+//            (median of repetitions after warm-up) as an outside check of the same figure.
+// Ratio = median latency / median in-worker compute. Domenico and the exact solution separately.
+//
+// Usage: node bench/ui-latency.mjs [--runs 12] [--grid 256]. `npm run bench` can call it after the
+// engine benchmark (it builds the app into a temporary folder and drives Debian's chromium).
+import { build as viteBuild, preview } from 'vite';
+import { build as esbuild } from 'esbuild';
+import { chromium } from 'playwright-core';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir, cpus } from 'node:os';
+import { join, resolve } from 'node:path';
+import { execFileSync } from 'node:child_process';
+import { pathToFileURL } from 'node:url';
+
+const arg = (name, dflt) => {
+  const k = process.argv.indexOf(name);
+  return k >= 0 ? Number(process.argv[k + 1]) : dflt;
+};
+const RUNS = arg('--runs', 12);
+const GRID = arg('--grid', 256);
+const WARMUP = 3;
+const root = resolve(new URL('..', import.meta.url).pathname);
+const work = mkdtempSync(join(tmpdir(), 'dg-ui-latency-'));
+
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const n = s.length;
+  return n % 2 ? s[(n - 1) / 2] : (s[n / 2 - 1] + s[n / 2]) / 2;
+};
+const ms = (v) => `${v.toFixed(1)} ms`;
+
+function chromiumPath() {
+  for (const n of ['chromium', 'chromium-browser']) {
+    try {
+      return execFileSync('which', [n], { encoding: 'utf8' }).trim();
+    } catch {
+      /* next */
+    }
+  }
+  throw new Error('chromium not found on PATH (scripts/setup-test-env.sh installs it)');
+}
+
+// Node reference: the same engine functions, bundled (Node 20 runs no .ts)
+async function loadReference() {
+  const out = join(work, 'reference.mjs');
+  await esbuild({
+    stdin: {
+      contents: `export { prepareCase } from './src/case/prepare';
+                 export { latticeFor } from './src/worker/compute';
+                 export { concentrationGrid } from './src/core/index';`,
+      resolveDir: root,
+      loader: 'ts',
+    },
+    bundle: true,
+    platform: 'node',
+    format: 'esm',
+    outfile: out,
+    logLevel: 'error',
+  });
+  return import(pathToFileURL(out).href);
+}
+
+function nodeCompute(ref, c) {
+  const p = ref.prepareCase(c);
+  const lat = ref.latticeFor(p, GRID);
+  const once = () => ref.concentrationGrid(p.model, lat.xs, lat.ys, p.depth, p.viewTime);
+  let sink = 0;
+  for (let k = 0; k < 3; k++) sink += once()[0];
+  const times = [];
+  const t0 = performance.now();
+  while (times.length < 15 && (times.length < 5 || performance.now() - t0 < 4000)) {
+    const a = performance.now();
+    sink += once()[lat.xs.length];
+    times.push(performance.now() - a);
+  }
+  if (!Number.isFinite(sink)) throw new Error('grid values not finite');
+  return median(times);
+}
+
+async function main() {
+  const ref = await loadReference();
+  const outDir = join(work, 'app');
+  await viteBuild({ root, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+  const server = await preview({ root, build: { outDir }, preview: { host: '127.0.0.1', port: 0 }, logLevel: 'error' });
+  const base = server.resolvedUrls.local[0];
+  const browser = await chromium.launch({
+    executablePath: chromiumPath(),
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+  const rows = [];
+  try {
+    const context = await browser.newContext({ viewport: { width: 1024, height: 768 }, hasTouch: true });
+    // no basemap (nothing but the app is contacted) and the lattice size under test
+    await context.addInitScript((grid) => {
+      localStorage.setItem('downgradient.settings.v1', JSON.stringify({ tileUrl: '', tileAttribution: '', theme: 'light', gridSize: grid }));
+    }, GRID);
+    await context.route('**/*', (r) => (new URL(r.request().url()).origin === new URL(base).origin ? r.continue() : r.abort()));
+    const page = await context.newPage();
+    await page.goto(base);
+    await page.waitForSelector('.dg-mark-source');
+    await page.selectOption('select.dg-demo', 'fuel-release-farm-well.json');
+    await page.waitForSelector('path.dg-band');
+    await page.click('[data-section=release] .dg-sec-toggle');
+    for (const solution of ['domenico', 'exact']) {
+      await page.click(`[data-section=results] .dg-seg button[data-value=${solution}]`);
+      await page.waitForFunction(() => document.querySelector('[data-testid=results]')?.getAttribute('data-stale') === 'false', undefined, { timeout: 120_000 });
+      const samples = [];
+      for (let k = 0; k < WARMUP + RUNS; k++) {
+        const value = (5 + 0.25 * ((k % 8) + 1)).toFixed(2); // changes the contours every time
+        const s = await page.evaluate(async (v) => {
+          const el = document.querySelector('[data-field="source.concentration"] input.dg-num');
+          const dg = globalThis.__downgradient;
+          const before = dg.latencySamples.length;
+          const setter = Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, 'value').set;
+          const t0 = performance.now();
+          setter.call(el, v);
+          el.dispatchEvent(new Event('input', { bubbles: true }));
+          for (;;) {
+            const got = dg.latencySamples.slice(before).find((x) => x.inputAt >= t0);
+            if (got) return { latency: got.drawnAt - t0, timing: got.timing, grid: got.gridSize, solution: got.solution };
+            await new Promise((r) => setTimeout(r, 1));
+          }
+        }, value);
+        if (s.grid !== GRID || s.solution !== solution) throw new Error(`sample for ${s.solution} ${s.grid}² instead of ${solution} ${GRID}²`);
+        if (k >= WARMUP) samples.push(s);
+      }
+      const c = await page.evaluate(() => globalThis.__downgradient.currentCase());
+      const latency = median(samples.map((s) => s.latency));
+      const workerGrid = median(samples.map((s) => s.timing.gridMs));
+      const contour = median(samples.map((s) => s.timing.contourMs));
+      const workerTotal = median(samples.map((s) => s.timing.totalMs));
+      rows.push({ solution, latency, workerGrid, contour, workerTotal, node: nodeCompute(ref, c), n: samples.length });
+    }
+    await context.close();
+  } finally {
+    await browser.close();
+    await server.close();
+    rmSync(work, { recursive: true, force: true });
+  }
+
+  console.log(`UI latency: input change → contours redrawn, ${GRID} × ${GRID} lattice, ${RUNS} changes each (medians), ${cpus().length} cores, headless chromium without GPU`);
+  const head = ['solution', 'input→contours', 'grid compute (worker)', 'grid compute (Node)', 'contouring', 'worker total', 'latency / compute', 'target ≤ 1.5×'];
+  const body = rows.map((r) => {
+    const ratio = r.latency / r.workerGrid;
+    return [r.solution, ms(r.latency), ms(r.workerGrid), ms(r.node), ms(r.contour), ms(r.workerTotal), `${ratio.toFixed(2)}×`, ratio <= 1.5 ? 'met' : 'NOT met'];
+  });
+  const w = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i].length)));
+  for (const line of [head, ...body]) console.log(line.map((x, i) => x.padEnd(w[i])).join('  '));
+  const json = process.argv.indexOf('--json');
+  if (json >= 0) writeFileSync(process.argv[json + 1], JSON.stringify({ grid: GRID, runs: RUNS, rows }, null, 2));
+}
+
+main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});
