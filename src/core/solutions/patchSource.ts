@@ -79,6 +79,10 @@ const RHO_MAX = 36;
 /** the σ = −ln q range integrated; the neglected part of ∫₀¹ dq is e^{−40} ≈ 4e-18 */
 const SIGMA_MAX = 40;
 
+/** initial panels: graded so that the usual columns need little or no bisection */
+const EARLY_CUTS = [Math.LN2, 2, 5, 12, SIGMA_MAX];
+const LATE_CUTS = [Math.LN2, 2, 5, 12, RHO_MAX];
+
 const nodeBuf = new Float64Array(15);
 const zBuf = new Float64Array(15);
 const sBuf = new Float64Array(15);
@@ -176,12 +180,9 @@ export function exactColumn(
   // Early arrivals in σ = −ln q, late arrivals in ρ = −ln(1 − q): both ends of the q interval
   // become smooth exponential tails, where Y·Z can still carry most of the concentration (points
   // near the source edge at early arrivals; far off the axis or below the source at late ones).
-  const panels: Panel[] = [
-    evalPanel(Math.LN2, 3, x, ys, depth, lnFt, p, t, false),
-    evalPanel(3, SIGMA_MAX, x, ys, depth, lnFt, p, t, false),
-    evalPanel(Math.LN2, 3, x, ys, depth, lnFt, p, t, true),
-    evalPanel(3, RHO_MAX, x, ys, depth, lnFt, p, t, true),
-  ];
+  const panels: Panel[] = [];
+  for (let i = 0; i + 1 < EARLY_CUTS.length; i++) panels.push(evalPanel(EARLY_CUTS[i], EARLY_CUTS[i + 1], x, ys, depth, lnFt, p, t, false));
+  for (let i = 0; i + 1 < LATE_CUTS.length; i++) panels.push(evalPanel(LATE_CUTS[i], LATE_CUTS[i + 1], x, ys, depth, lnFt, p, t, true));
   const total = new Float64Array(ny);
   const sumUp = () => {
     total.fill(0);
