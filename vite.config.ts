@@ -62,11 +62,14 @@ function contentSecurityPolicy(): Plugin {
 }
 
 // Everything shipped is precached for offline use (see DEVELOPERS.md, "Offline").
-export default defineConfig({
+export default defineConfig(({ command }) => ({
   base: './',
   define: {
     __DG_TILE_ORIGINS__: JSON.stringify(TILE_ORIGINS),
     __APP_VERSION__: JSON.stringify(pkg.version),
+    // the service worker exists only in a build; keyed on the command, not on NODE_ENV (a build
+    // run from the test runner has NODE_ENV=test, so import.meta.env.PROD is false there)
+    __DG_SERVICE_WORKER__: JSON.stringify(command === 'build'),
   },
   plugins: [
     preact(),
@@ -109,4 +112,4 @@ export default defineConfig({
   build: { target: 'es2022', sourcemap: false, chunkSizeWarningLimit: 800 },
   server: { host: '127.0.0.1' },
   preview: { host: '127.0.0.1' },
-});
+}));

@@ -22,6 +22,9 @@ import { registerServiceWorker } from './serviceWorker';
 import { CaseMenu } from '../ui/library/CaseMenu';
 import { StatusArea } from '../ui/library/StatusArea';
 
+declare const __DG_SERVICE_WORKER__: boolean | undefined;
+const SERVICE_WORKER_BUILD = typeof __DG_SERVICE_WORKER__ !== 'undefined' && __DG_SERVICE_WORKER__;
+
 export interface AppSlots {
   /** case library / files menu shown in the header, provided by the storage layer */
   caseMenu?: ComponentType;
@@ -44,7 +47,7 @@ function localStorageOrNull(): Storage | null {
 
 function reportRecoveries(rs: Recovery[]): void {
   for (const r of rs) {
-    if (r.outcome === 'saved') notify({ tone: 'info', text: `Recovered unsaved edits to “${r.name}” from the last session.`, timeoutMs: 8000 });
+    if (r.outcome === 'saved') notify({ tone: 'info', text: `Kept the last changes to “${r.name}”, made just before the app closed.`, timeoutMs: 8000 });
     if (r.outcome === 'saved-as-copy')
       notify({ tone: 'warn', text: `Unsaved edits from the last session were overtaken by a later save; they are kept as “${r.name}”.` });
     if (r.outcome === 'unreadable') notify({ tone: 'warn', text: 'A damaged copy of unsaved edits was found and left untouched.' });
@@ -127,6 +130,6 @@ export async function boot(): Promise<BootResult> {
   });
 
   void requestPersistence().then(refreshStorageInfo);
-  if (import.meta.env.PROD) registerServiceWorker();
+  if (SERVICE_WORKER_BUILD) registerServiceWorker();
   return { initialCase: c, slots };
 }

@@ -48,7 +48,9 @@ export function registerServiceWorker(url = './sw.js'): Workbox | null {
 
   wb.addEventListener('waiting', offerUpdate);
   wb.addEventListener('activated', (e) => {
-    if (!e.isUpdate) offlineReady.value = true;
+    if (e.isUpdate) return;
+    offlineReady.value = true;
+    notify({ tone: 'info', text: 'Downgradient is now kept on this device: it opens, computes and saves with no network.', timeoutMs: 8000 });
   });
   wb.addEventListener('controlling', () => {
     offlineReady.value = true;

@@ -33,11 +33,8 @@ export const comparePair = signal<[string | null, string | null]>([null, null]);
 export function CaseMenu() {
   return (
     <>
-      <button type="button" class="dg-lib-open" aria-haspopup="dialog" onClick={() => (sheet.value = 'library')}>
+      <button type="button" class="dg-lib-open" aria-haspopup="dialog" aria-label="Cases and files" onClick={() => (sheet.value = 'library')}>
         Cases
-      </button>
-      <button type="button" class="dg-lib-open" aria-haspopup="dialog" onClick={() => (sheet.value = 'files')}>
-        Files
       </button>
       {sheet.value && createPortal(<Sheet />, document.body)}
     </>

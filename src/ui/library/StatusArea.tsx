@@ -19,9 +19,9 @@ function SaveChip() {
       : s.kind === 'pending' || s.kind === 'saving'
         ? 'Saving…'
         : s.kind === 'storage-full'
-          ? 'Not saved: storage full'
+          ? 'Storage full'
           : s.kind === 'conflict'
-            ? 'Not saved: changed elsewhere'
+            ? 'Changed elsewhere'
             : 'Not saved yet';
   const title = s.kind === 'saved' ? 'Every change is saved on this device' : undefined;
   const tone = s.kind === 'saved' ? 'ok' : s.kind === 'pending' || s.kind === 'saving' ? 'busy' : 'bad';
