@@ -42,6 +42,11 @@ const median = (xs) => {
 };
 const ms = (v) => `${v.toFixed(1)} ms`;
 
+function printTable(head, body) {
+  const w = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i].length)));
+  for (const line of [head, ...body]) console.log('  ' + line.map((x, i) => x.padEnd(w[i])).join('  '));
+}
+
 function chromiumPath() {
   for (const n of ['chromium', 'chromium-browser']) {
     try {
@@ -131,7 +136,16 @@ async function main() {
           el.dispatchEvent(new Event('input', { bubbles: true }));
           for (;;) {
             const got = dg.latencySamples.slice(before).find((x) => x.inputAt >= t0);
-            if (got) return { latency: got.drawnAt - t0, timing: got.timing, grid: got.gridSize, solution: got.solution };
+            if (got)
+              return {
+                latency: got.drawnAt - t0,
+                toWorkerResult: got.receivedAt - t0,
+                layer: got.layerAt - got.receivedAt,
+                paint: got.drawnAt - got.layerAt,
+                timing: got.timing,
+                grid: got.gridSize,
+                solution: got.solution,
+              };
             await new Promise((r) => setTimeout(r, 1));
           }
         }, value);
@@ -143,7 +157,10 @@ async function main() {
       const workerGrid = median(samples.map((s) => s.timing.gridMs));
       const contour = median(samples.map((s) => s.timing.contourMs));
       const workerTotal = median(samples.map((s) => s.timing.totalMs));
-      rows.push({ solution, latency, workerGrid, contour, workerTotal, node: nodeCompute(ref, c), n: samples.length });
+      const toWorkerResult = median(samples.map((s) => s.toWorkerResult));
+      const layer = median(samples.map((s) => s.layer));
+      const paint = median(samples.map((s) => s.paint));
+      rows.push({ solution, latency, workerGrid, contour, workerTotal, toWorkerResult, layer, paint, node: nodeCompute(ref, c), n: samples.length });
     }
     await context.close();
   } finally {
@@ -158,8 +175,12 @@ async function main() {
     const ratio = r.latency / r.workerGrid;
     return [r.solution, ms(r.latency), ms(r.workerGrid), ms(r.node), ms(r.contour), ms(r.workerTotal), `${ratio.toFixed(2)}×`, ratio <= 1.5 ? 'met' : 'NOT met'];
   });
-  const w = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i].length)));
-  for (const line of [head, ...body]) console.log(line.map((x, i) => x.padEnd(w[i])).join('  '));
+  printTable(head, body);
+  console.log('where the time goes (medians): input → worker result back on the page | Leaflet layer | wait for paint');
+  printTable(
+    ['solution', 'to worker result', 'of which in worker', 'layer', 'paint'],
+    rows.map((r) => [r.solution, ms(r.toWorkerResult), ms(r.workerTotal), ms(r.layer), ms(r.paint)]),
+  );
   const json = process.argv.indexOf('--json');
   if (json >= 0) writeFileSync(process.argv[json + 1], JSON.stringify({ grid: GRID, runs: RUNS, rows }, null, 2));
 }

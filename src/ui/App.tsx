@@ -4,6 +4,7 @@
  * receptor will see. Results follow every input without a run step.
  */
 import { useEffect, useState } from 'preact/hooks';
+import { computed } from '@preact/signals';
 import type { AppSlots } from '../app/boot';
 import type { Case } from '../case/schema';
 import { currentCase, replaceCase, updateCase } from './state';
@@ -30,7 +31,6 @@ export function App({ initialCase, slots }: AppProps) {
     return true;
   });
   useEffect(() => startEvaluation(), []);
-  const c = currentCase.value;
   const CaseMenu = slots.caseMenu;
   const Status = slots.status;
   const [showSettings, setShowSettings] = useState(false);
@@ -44,17 +44,7 @@ export function App({ initialCase, slots }: AppProps) {
           </svg>
           <span class="dg-brand-name">Downgradient</span>
         </span>
-        <input
-          class="dg-case-name"
-          aria-label="Case name"
-          value={c.name}
-          maxLength={200}
-          onChange={(e) => {
-            const name = (e.target as HTMLInputElement).value.trim();
-            if (name) updateCase((d) => void (d.name = name));
-            else (e.target as HTMLInputElement).value = currentCase.peek().name;
-          }}
-        />
+        <CaseName />
         <DemoPicker />
         {CaseMenu && <CaseMenu />}
         <span class="dg-header-gap" />
@@ -73,7 +63,7 @@ export function App({ initialCase, slots }: AppProps) {
         </button>
       </header>
       <main class="dg-main">
-        <MapView frameKey={`${c.id}|${c.site.frame}|${c.site.datum.join(',')}`} />
+        <MapView frameKey={mapKey.value} />
         <div class="dg-panel" aria-label="Inputs and results">
           <ReleasePanel />
           <FlowPanel />
@@ -83,6 +73,28 @@ export function App({ initialCase, slots }: AppProps) {
       </main>
       {showSettings && <SettingsDialog onClose={() => setShowSettings(false)} />}
     </div>
+  );
+}
+
+/** The map is rebuilt only when another case opens or the case's frame changes. */
+const mapKey = computed(() => {
+  const c = currentCase.value;
+  return `${c.id}|${c.site.frame}|${c.site.datum.join(',')}`;
+});
+
+function CaseName() {
+  return (
+    <input
+      class="dg-case-name"
+      aria-label="Case name"
+      value={currentCase.value.name}
+      maxLength={200}
+      onChange={(e) => {
+        const name = (e.target as HTMLInputElement).value.trim();
+        if (name) updateCase((d) => void (d.name = name));
+        else (e.target as HTMLInputElement).value = currentCase.peek().name;
+      }}
+    />
   );
 }
 

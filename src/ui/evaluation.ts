@@ -1,9 +1,13 @@
 /**
  * The evaluation loop: every change of the case (or of the time shown) is checked on the main
  * thread (case preparation is cheap and gives the field-named message for the inline error), then
- * sent to two workers — one draws the plume, one screens the receptors. Each worker has at most
- * one job in flight; a newer request replaces any waiting one, so fast typing or dragging never
- * piles up work and the screen always converges on the latest inputs.
+ * sent to two workers — one draws the plume, one screens the receptors.
+ * - Each worker has at most one job in flight; a newer request replaces any waiting one, so fast
+ *   typing or dragging never piles up work and the screen always converges on the latest inputs.
+ * - The plume goes first: the receptor job for an edit starts when that edit's contours are on
+ *   screen, so on a two-core tablet it does not slow the contours down.
+ * - A receptor job overtaken by a newer edit is cancelled: its worker is terminated and replaced
+ *   (the exact solution at many receptors can take seconds; its result would be thrown away).
  */
 import { effect, signal } from '@preact/signals';
 import { wrap, type Remote } from 'comlink';
@@ -20,30 +24,71 @@ import { inputIssue } from './validity';
 /** 'busy' while a worker job for the current inputs is running */
 export const evaluationState = signal<'idle' | 'busy' | 'error'>('idle');
 export const evaluationError = signal<string | null>(null);
+/** The current case prepared for the engine (null while an input is invalid): map geometry. */
+export const preparedCase = signal<PreparedCase | null>(null);
+/** The contours on the map (they arrive before the receptor results). */
+export const currentPlume = signal<PlumeLayer | null>(null);
 
-/** One worker, one job in flight, the newest waiting request wins. */
-class LatestOnly<A extends unknown[], R> {
+class Cancelled extends Error {}
+
+/** A worker that can be stopped mid-job (terminated and replaced). */
+class ScreeningWorker {
+  private worker!: Worker;
+  api!: Remote<ScreeningApi>;
+  private abort: ((e: Error) => void) | null = null;
+  constructor() {
+    this.start();
+  }
+  private start(): void {
+    this.worker = new Worker(new URL('../worker/screening.ts', import.meta.url), { type: 'module', name: 'downgradient-screening' });
+    this.api = wrap<ScreeningApi>(this.worker);
+  }
+  run<R>(job: (api: Remote<ScreeningApi>) => Promise<R>): Promise<R> {
+    return new Promise<R>((resolve, reject) => {
+      this.abort = reject;
+      job(this.api).then(resolve, reject);
+    }).finally(() => (this.abort = null));
+  }
+  cancel(): void {
+    if (!this.abort) return;
+    this.abort(new Cancelled());
+    this.worker.terminate();
+    this.start();
+  }
+  terminate(): void {
+    this.worker.terminate();
+  }
+}
+
+/** One job in flight, the newest waiting request wins; optionally cancel a running one. */
+class LatestOnly<A, R> {
   private running = false;
   private next: A | null = null;
-  constructor(private run: (...a: A) => Promise<R>, private done: (r: R, a: A) => void, private fail: (e: unknown) => void) {}
-  request(...a: A): void {
+  constructor(
+    private run: (a: A) => Promise<R>,
+    private done: (r: R, a: A) => void,
+    private fail: (e: unknown) => void,
+    private cancelRunning: (() => void) | null = null,
+  ) {}
+  request(a: A): void {
     this.next = a;
-    if (!this.running) void this.pump();
+    if (this.running) this.cancelRunning?.();
+    else void this.pump();
   }
   get busy(): boolean {
-    return this.running;
+    return this.running || this.next !== null;
   }
   private async pump(): Promise<void> {
-    while (this.next) {
+    while (this.next !== null) {
       const a = this.next;
       this.next = null;
       this.running = true;
       try {
-        const r = await this.run(...a);
-        // a newer request is waiting: these results are already out of date, skip publishing
-        if (!this.next) this.done(r, a);
+        const r = await this.run(a);
+        // a newer request is waiting: these results are already out of date
+        if (this.next === null) this.done(r, a);
       } catch (e) {
-        this.fail(e);
+        if (!(e instanceof Cancelled)) this.fail(e);
       } finally {
         this.running = false;
       }
@@ -52,9 +97,13 @@ class LatestOnly<A extends unknown[], R> {
 }
 
 export interface LatencySample {
-  /** performance.now() when the input changed */
+  /** performance.now() when the edit reached the evaluation loop */
   inputAt: number;
-  /** performance.now() after the contours were drawn (next animation frame) */
+  /** when the worker's contours arrived on the main thread */
+  receivedAt: number;
+  /** when the Leaflet layer was built and added */
+  layerAt: number;
+  /** after the browser painted the frame with the contours (next animation frame + a task) */
   drawnAt: number;
   gridSize: number;
   solution: string;
@@ -64,97 +113,97 @@ export interface LatencySample {
 /** Input-to-contours latencies, newest last (read by the latency benchmark). */
 export const latencySamples: LatencySample[] = [];
 
-let latestPlume: PlumeLayer | null = null;
-let latestEval: Evaluation | null = null;
-const pendingInputs = new Map<string, number>();
-
-/** The current case prepared for the engine (null while an input is invalid): map geometry. */
-export const preparedCase = signal<PreparedCase | null>(null);
-
-/** The contours on the map (they can arrive before the receptor results). */
-export const currentPlume = signal<PlumeLayer | null>(null);
-
-function publish(): void {
-  currentPlume.value = latestPlume;
-  if (latestEval) publishResults({ ...latestEval, plume: latestPlume });
-}
-
 function describe(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
+interface PlumeJob {
+  c: Case;
+  time: number | null;
+  grid: number;
+  key: string;
+  inputAt: number;
+}
+
 /** Start the loop; returns a function that stops it and releases the workers. */
 export function startEvaluation(): () => void {
-  const mk = () => new Worker(new URL('../worker/screening.ts', import.meta.url), { type: 'module', name: 'downgradient-screening' });
-  const plumeWorker = mk();
-  const resultWorker = mk();
-  const plumeApi: Remote<ScreeningApi> = wrap<ScreeningApi>(plumeWorker);
-  const resultApi: Remote<ScreeningApi> = wrap<ScreeningApi>(resultWorker);
+  const plumeWorker = new ScreeningWorker();
+  const resultWorker = new ScreeningWorker();
+  let latestPlume: PlumeLayer | null = null;
+  let latestEval: Evaluation | null = null;
+  let waitingEval: Case | null = null;
+
+  const publish = () => {
+    currentPlume.value = latestPlume;
+    if (latestEval) publishResults({ ...latestEval, plume: latestPlume });
+  };
   const onFail = (e: unknown) => {
     evaluationState.value = 'error';
     evaluationError.value = `The engine could not finish: ${describe(e)}`;
   };
+  const settle = () => {
+    if (!plumes.busy && !evals.busy && evaluationState.peek() !== 'error') evaluationState.value = 'idle';
+  };
+  const startWaitingEval = () => {
+    if (waitingEval) evals.request(waitingEval);
+    waitingEval = null;
+  };
 
-  const plumes = new LatestOnly(
-    (c: Case, time: number | null, grid: number) => plumeApi.plume(c, time, grid),
-    (p) => {
+  const plumes: LatestOnly<PlumeJob, PlumeLayer> = new LatestOnly(
+    (j) => plumeWorker.run((api) => api.plume(j.c, j.time, j.grid)),
+    (p, j) => {
+      const receivedAt = performance.now();
       latestPlume = p;
-      const inputAt = pendingInputs.get(p.caseStamp + '|' + p.time);
-      if (inputAt !== undefined) pendingInputs.delete(p.caseStamp + '|' + p.time);
-      publish();
-      if (inputAt !== undefined)
-        afterPaint(() =>
-          latencySamples.push({ inputAt, drawnAt: performance.now(), gridSize: p.gridSize, solution: p.solution, timing: p.timing }),
-        );
-      settle();
+      publish(); // the map draws the new layer synchronously in its effect
+      const layerAt = performance.now();
+      afterPaint(() => {
+        latencySamples.push({ inputAt: j.inputAt, receivedAt, layerAt, drawnAt: performance.now(), gridSize: p.gridSize, solution: p.solution, timing: p.timing });
+        if (latencySamples.length > 200) latencySamples.splice(0, 100);
+        // the receptor job starts once the contours are on screen
+        startWaitingEval();
+        settle();
+      });
     },
-    onFail,
+    (e) => {
+      onFail(e);
+      startWaitingEval();
+    },
   );
-  const evals = new LatestOnly(
-    (c: Case) => resultApi.evaluate(c),
+  const evals: LatestOnly<Case, Evaluation> = new LatestOnly(
+    (c) => resultWorker.run((api) => api.evaluate(c)),
     (e) => {
       latestEval = e;
       publish();
       settle();
     },
     onFail,
+    () => resultWorker.cancel(),
   );
-  function settle() {
-    if (!plumes.busy && !evals.busy) {
-      if (evaluationState.peek() !== 'error') evaluationState.value = 'idle';
-    }
-  }
 
   let lastEvalStamp = '';
   const stop = effect(() => {
     const c = currentCase.value;
     const grid = settings.value.gridSize;
-    const play = playTime.value;
-    let viewTime: number;
+    const time = playTime.value;
+    const inputAt = performance.now();
     try {
-      const prepared = prepareCase(c);
-      viewTime = prepared.viewTime;
-      preparedCase.value = prepared;
+      preparedCase.value = prepareCase(c);
       inputIssue.value = null;
     } catch (e) {
-      if (e instanceof ValidationError) inputIssue.value = { field: e.field, message: e.message };
-      else inputIssue.value = { field: '', message: describe(e) };
+      inputIssue.value = e instanceof ValidationError ? { field: e.field, message: e.message } : { field: '', message: describe(e) };
       preparedCase.value = null;
       return;
     }
     evaluationError.value = null;
     evaluationState.value = 'busy';
-    const time = play ?? null;
-    // the key the worker's result will carry (time null: the case's own view time)
-    pendingInputs.set(c.modified + '|' + (time ?? viewTime), performance.now());
-    if (pendingInputs.size > 50) pendingInputs.delete(pendingInputs.keys().next().value!);
-    plumes.request(c, time, grid);
+    plumes.request({ c, time, grid, key: c.modified, inputAt });
     if (c.modified !== lastEvalStamp) {
       lastEvalStamp = c.modified;
-      evals.request(c);
+      waitingEval = c;
     }
   });
-  (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples };
+  // read by the latency benchmark (bench/ui-latency.mjs): samples and the case they were taken on
+  (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek() };
   return () => {
     stop();
     plumeWorker.terminate();

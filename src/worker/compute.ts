@@ -123,6 +123,43 @@ export function latticeFor(p: PreparedCase, gridSize: number): Lattice {
   return { xs, ys, extent: { x0, x1, y0: -y1, y1 } };
 }
 
+/**
+ * The part of the lattice that holds every node at or above `lowest`, with one more node on each
+ * side (clamped to the lattice). The bands it gives are the full lattice's exactly: marching
+ * squares only draws through cells with a node at or above the threshold, and every such cell is
+ * inside the crop. Contouring then costs in proportion to the plume, not the lattice.
+ */
+export function cropToBands(
+  values: Float64Array,
+  xs: Float64Array,
+  ys: Float64Array,
+  lowest: number,
+): { values: Float64Array; xs: Float64Array; ys: Float64Array } | null {
+  const nx = xs.length, ny = ys.length;
+  let i0 = nx, i1 = -1, j0 = ny, j1 = -1;
+  for (let i = 0; i < nx; i++) {
+    const row = i * ny;
+    for (let j = 0; j < ny; j++) {
+      if (values[row + j] >= lowest) {
+        if (i < i0) i0 = i;
+        if (i > i1) i1 = i;
+        if (j < j0) j0 = j;
+        if (j > j1) j1 = j;
+      }
+    }
+  }
+  if (i1 < 0) return null;
+  i0 = Math.max(0, i0 - 1);
+  i1 = Math.min(nx - 1, i1 + 1);
+  j0 = Math.max(0, j0 - 1);
+  j1 = Math.min(ny - 1, j1 + 1);
+  const cx = i1 - i0 + 1, cy = j1 - j0 + 1;
+  if (cx < 2 || cy < 2) return { values, xs, ys };
+  const out = new Float64Array(cx * cy);
+  for (let i = 0; i < cx; i++) out.set(values.subarray((i0 + i) * ny + j0, (i0 + i) * ny + j1 + 1), i * cy);
+  return { values: out, xs: xs.subarray(i0, i1 + 1), ys: ys.subarray(j0, j1 + 1) };
+}
+
 export function bandThresholds(limit: number, c0: number): number[] {
   return BAND_MULTIPLES.map((k) => k * limit).filter((t) => t < c0);
 }
@@ -137,7 +174,8 @@ export function plumeForCase(c: Case, t: number | null, gridSize: number, lattic
   const values = concentrationGrid(p.model, lat.xs, lat.ys, p.depth, time);
   const t2 = now();
   const thresholds = bandThresholds(p.limit, p.model.c0);
-  const bands = contourBands({ values, xs: lat.xs, ys: lat.ys, thresholds });
+  const crop = thresholds.length ? cropToBands(values, lat.xs, lat.ys, thresholds[0]) : null;
+  const bands = crop ? contourBands({ ...crop, thresholds }) : thresholds.map((threshold) => ({ threshold, polygons: [] }));
   const geojson = contoursToGeoJSON(bands, p.toMap, (b) => ({ multiple: b.threshold / p.limit })) as PlumeLayer['geojson'];
   const t3 = now();
   return {

@@ -10,11 +10,17 @@ export interface Scale {
   domain: [number, number];
 }
 
+/** The smallest 1, 2 or 5 × 10ⁿ that divides `span` into at most `count` steps. */
+export function niceStep(span: number, count: number): number {
+  const raw = span / Math.max(1, count);
+  const p = Math.pow(10, Math.floor(Math.log10(raw)));
+  for (const m of [1, 2, 5]) if (m * p >= raw * (1 - 1e-12)) return m * p;
+  return 10 * p;
+}
+
 export function niceLinearTicks(lo: number, hi: number, count = 5): number[] {
   if (!(hi > lo)) return [lo];
-  const raw = (hi - lo) / count;
-  const p = Math.pow(10, Math.floor(Math.log10(raw)));
-  const step = [1, 2, 5, 10].map((m) => m * p).find((s) => s >= raw) ?? 10 * p;
+  const step = niceStep(hi - lo, count);
   const out: number[] = [];
   for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(12)));
   return out;

@@ -5,19 +5,13 @@
  * panes (showing through wherever no tile is drawn) and is redrawn on every move so it never lags.
  */
 import L from 'leaflet';
+import { niceStep } from '../charts/axes';
 
 export interface GridFrame {
   toEN(ll: L.LatLng): [number, number];
   fromEN(en: [number, number]): L.LatLng;
 }
 
-/** 1, 2 or 5 × 10ⁿ, the smallest such step giving at most `maxLines` lines over `span`. */
-export function niceStep(span: number, maxLines: number): number {
-  const raw = span / Math.max(1, maxLines);
-  const p = Math.pow(10, Math.floor(Math.log10(raw)));
-  for (const m of [1, 2, 5, 10]) if (m * p >= raw) return m * p;
-  return 10 * p;
-}
 
 function fmt(v: number, step: number): string {
   const abs = Math.abs(v);

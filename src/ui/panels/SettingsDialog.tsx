@@ -7,8 +7,7 @@
 import { useEffect, useRef, useState } from 'preact/hooks';
 import { settings, updateSettings, checkTileUrl, DEFAULT_TILE_URL, DEFAULT_TILE_ATTRIBUTION, type ScreenSettings } from '../settings';
 import { currentCase, updateCase } from '../state';
-import { makeLocalFrame } from '../../geo/projection';
-import type { Case, Position } from '../../case/schema';
+import { convertFrame } from '../frame';
 
 export function SettingsDialog({ onClose }: { onClose: () => void }) {
   const s = settings.value;
@@ -80,22 +79,6 @@ export function SettingsDialog({ onClose }: { onClose: () => void }) {
       </div>
     </div>
   );
-}
-
-/** Convert every position of the case to another frame (exact, through the tangent plane). */
-export function convertFrame(c: Case, to: 'geographic' | 'local', geoDatum: Position): Case {
-  const from = makeLocalFrame(c.site.frame, c.site.datum);
-  // local → geographic: the local datum [0, 0] lands on geoDatum; geographic → local: metres from the current datum
-  const target = makeLocalFrame(to, to === 'geographic' ? geoDatum : [0, 0]);
-  const conv = (p: Position): Position => target.fromEN(from.toEN(p));
-  const d = structuredClone(c);
-  d.site.frame = to;
-  d.site.datum = to === 'geographic' ? [geoDatum[0], geoDatum[1]] : [0, 0];
-  d.site.source.position = conv(d.site.source.position);
-  if (d.site.source.footprint) d.site.source.footprint = d.site.source.footprint.map(conv);
-  d.site.receptors.forEach((r) => (r.position = conv(r.position)));
-  if (d.site.flow.method === 'heads') d.site.flow.readings.forEach((h) => (h.position = conv(h.position)));
-  return d;
 }
 
 function FrameSettings() {
