@@ -7,7 +7,7 @@
 import { concentrationGrid } from '../src/core/index';
 import type { ScreeningModel } from '../src/core/model';
 import { contourBands } from '../src/geo/contours';
-import { DEFAULT_RULES, batched, localTimer, timeRounds, type Timing, type TimingRules } from './timing';
+import { DEFAULT_RULES, batched, localTimer, pairedRatio, timeRounds, type Timing, type TimingRules } from './timing';
 import { gridXs, gridYs } from './scenario';
 
 export interface ContourPipelineOptions {
@@ -26,7 +26,7 @@ export interface ContourPipelineFigure {
   readonly thresholds: readonly number[];
   readonly compute: Timing;
   readonly total: Timing;
-  /** total / compute */
+  /** total / compute, paired over rounds (timing.ts) */
   readonly ratio: number;
   /** rings drawn (exteriors and holes), from one evaluation */
   readonly rings: number;
@@ -67,5 +67,5 @@ export async function measureContourPipeline(model: ScreeningModel, opts: Contou
     rules,
   );
   const rings = ringsAndVertices(contourBands({ values: concentrationGrid(model, xs, ys, z, t), xs, ys, thresholds })).rings;
-  return { n, thresholds, compute, total, ratio: total.medianSeconds / compute.medianSeconds, rings };
+  return { n, thresholds, compute, total, ratio: pairedRatio(total, compute), rings };
 }

@@ -27,6 +27,8 @@ export interface Timing {
   readonly maxSeconds: number;
   /** sum of every result, printed so no result can be optimised away */
   readonly sink: number;
+  /** seconds per call of each timed repetition, in round order (for paired ratios) */
+  readonly perRound: readonly number[];
 }
 
 /** One timed repetition of `calls` calls: its seconds and a number summed from its results. */
@@ -71,15 +73,21 @@ export function localTimer(run: () => Result, calls = 1): Timer {
 }
 
 /**
- * A timer whose repetition takes at least `repSeconds`: fast computations are batched, so a
- * round of interleaved figures is not dictated by the fastest one. `make(calls)` builds the timer;
- * one single call (after one untimed call) measures the batch size.
+ * A timer whose repetition takes about `repSeconds`: fast computations are batched, so a round of
+ * interleaved figures is not dictated by the fastest one. `make(calls)` builds the timer; the
+ * batch is as many single calls as fit in `repSeconds` (after two untimed calls).
  */
 export async function batched(make: (calls: number) => Timer, repSeconds = 0.03): Promise<Timer> {
-  await make(1)();
-  const one = await make(1)();
-  const calls = Math.max(1, Math.ceil(repSeconds / Math.max(one.seconds, 1e-9)));
-  return make(calls);
+  const single = make(1);
+  await single();
+  await single();
+  let calls = 0;
+  let elapsed = 0;
+  while (elapsed < repSeconds) {
+    elapsed += (await single()).seconds;
+    calls++;
+  }
+  return make(Math.max(1, calls));
 }
 
 /** Interleaved rounds over `timers` (see the header); every round is complete. */
@@ -102,7 +110,20 @@ export async function timeRounds<K extends string>(timers: Record<K, Timer>, rul
   const out = {} as Record<K, Timing>;
   for (const k of keys) {
     const ts = times.get(k)!;
-    out[k] = { medianSeconds: median(ts), reps: ts.length, minSeconds: Math.min(...ts), maxSeconds: Math.max(...ts), sink: sinks.get(k)! };
+    out[k] = { medianSeconds: median(ts), reps: ts.length, minSeconds: Math.min(...ts), maxSeconds: Math.max(...ts), sink: sinks.get(k)!, perRound: ts };
   }
   return out;
+}
+
+/**
+ * The ratio of two figures timed in the same rounds, as the median over rounds of the per-round
+ * ratio a/b: each round's pair saw nearly the same machine load, so a load that changes during the
+ * run cancels better than in the ratio of the two medians.
+ */
+export function pairedRatio(a: Timing, b: Timing): number {
+  const n = Math.min(a.perRound.length, b.perRound.length);
+  if (n === 0) throw new RangeError('no rounds to pair');
+  const r: number[] = [];
+  for (let i = 0; i < n; i++) r.push(a.perRound[i] / b.perRound[i]);
+  return median(r);
 }
