@@ -82,6 +82,7 @@ export async function boot(): Promise<BootResult> {
     storageUnavailable.value =
       `Cases cannot be stored in this browser (${e instanceof Error ? e.message : String(e)}). ` +
       'You can still screen; use Export to keep your work as a file.';
+    saveState.value = { kind: 'error', message: storageUnavailable.value };
     const c = newCase();
     replaceCase(c);
     return { initialCase: c, slots };

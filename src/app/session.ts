@@ -17,7 +17,8 @@ export interface Notice {
   timeoutMs?: number;
 }
 
-export const saveState = signal<SaveState>({ kind: 'saved', at: 0, revision: 0 });
+/** 'pending' until boot has opened the store and the first case is known to be saved */
+export const saveState = signal<SaveState>({ kind: 'pending' });
 export const online = signal<boolean>(typeof navigator === 'undefined' ? true : navigator.onLine !== false);
 /** the app shell is precached: it will open with no network */
 export const offlineReady = signal(false);

@@ -12,6 +12,11 @@ import { DEFAULT_MAX_BYTES } from '../../case/io';
 import { SCREENING_CAUTION } from '../../case/caution';
 import { sheet } from './CaseMenu';
 
+/** Control characters from a hostile file would render as garbage: show them as a visible mark. */
+function printable(s: string): string {
+  return s.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, '␀');
+}
+
 type Msg = { tone: 'ok' | 'error'; lines: string[] } | null;
 
 export function FilesView() {
@@ -50,8 +55,13 @@ export function FilesView() {
         return;
       }
       const text = await file.text();
+      // NUL or undecodable bytes near the start: an image, archive or document, not a JSON text
+      if (/[\u0000\uFFFD]/.test(text.slice(0, 4096))) {
+        setMsg({ tone: 'error', lines: [`${file.name}: this is not a text file (it looks like binary data such as an image, archive or document); a case file is JSON text.`, 'Nothing was imported; the cases on this device are unchanged.'] });
+        return;
+      }
       const res = await importCaseText(text, file.name);
-      if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” and opened it.`, ...(res.note ? [res.note] : [])] });
+      if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” from ${file.name} and opened it.`, ...(res.note ? [res.note] : [])] });
       else setMsg({ tone: 'error', lines: [...res.errors, 'Nothing was imported; the cases on this device are unchanged.'] });
     } catch (e) {
       setMsg({ tone: 'error', lines: [`${file.name}: could not be read (${e instanceof Error ? e.message : String(e)}). Nothing was imported.`] });
@@ -116,7 +126,7 @@ export function FilesView() {
       {msg && (
         <div class={`dg-lib-msg ${msg.tone === 'error' ? 'is-error' : 'is-ok'}`} role={msg.tone === 'error' ? 'alert' : 'status'} data-testid="files-message">
           {msg.lines.map((l, i) => (
-            <p key={i}>{l}</p>
+            <p key={i}>{printable(l)}</p>
           ))}
         </div>
       )}

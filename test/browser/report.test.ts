@@ -1,0 +1,73 @@
+// The printable report in real Chromium: opened for a demo case, checked for everything the issue
+// lists (case name, date, app version, inputs with units and sources, site plan with contours,
+// receptor table, charts, warnings, assumptions, caution), printed to PDF by Chromium's own
+// print path (page.pdf with print media), and the PDF's first page opened in Chromium's PDF viewer
+// and kept as a screenshot in test-artifacts/ to be looked at.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { Browser } from 'playwright-core';
+import { launch, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
+import { openDemo, openFiles, waitSaved, watchedPage } from './offline-helpers';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const demo = JSON.parse(readFileSync('cases/fuel-release-farm-well.json', 'utf8'));
+
+describe('printable report', () => {
+  it('holds every required part and prints to a PDF whose first page is looked at', async () => {
+    const w = await watchedPage(browser, PORTRAIT);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page, 'fuel-release-farm-well.json');
+    await openFiles(page);
+    await page.getByTestId('open-report').click();
+    const report = page.getByTestId('report');
+    await page.locator('[data-testid=report][data-ready=yes]').waitFor({ timeout: 30_000 });
+    await page.screenshot({ path: artifactPath('report-preview-portrait.png') });
+    await page.setViewportSize(LANDSCAPE);
+    await page.screenshot({ path: artifactPath('report-preview-landscape.png') });
+
+    const text = (await report.textContent()) ?? '';
+    expect(text).toContain(demo.name);
+    expect(text).toMatch(/Printed/);
+    expect(text).toMatch(/Downgradient \d+\.\d+\.\d+/);
+    expect(text).toMatch(/Screening-level estimates only/);
+    // inputs with their units and published sources (Koc of benzene: US EPA 1996, seen)
+    expect(text).toMatch(/Hydraulic conductivity K/);
+    expect(text).toMatch(/12 m\/d/);
+    expect(text).toMatch(/Xu & Eckstein|Xu and Eckstein|xu-eckstein/i);
+    await expect.poll(() => page.locator('[data-testid=report-receptors] tbody tr').count()).toBe(demo.site.receptors.length);
+    expect(await page.locator('[data-testid=site-plan] .dg-plan-band').count()).toBeGreaterThan(0);
+    expect(await page.locator('.dg-report [data-testid=breakthrough-chart]').count()).toBe(demo.site.receptors.length);
+    expect(text).toMatch(/Warnings/);
+    expect(text).toMatch(/Assumptions/);
+
+    // print media shows the report alone
+    await page.emulateMedia({ media: 'print' });
+    expect(await page.locator('.dg-app').isVisible()).toBe(false);
+    expect(await page.locator('.dg-report-bar').isVisible()).toBe(false);
+    expect(await report.isVisible()).toBe(true);
+    const pdf = await page.pdf({ format: 'A4', printBackground: true });
+    const pdfPath = artifactPath('report.pdf');
+    writeFileSync(pdfPath, pdf);
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+    expect(pages).toBeGreaterThanOrEqual(2);
+    await context.close();
+
+    // the first page, as Chromium's PDF viewer shows it
+    const viewer = await browser.newPage({ viewport: { width: 900, height: 1250 } });
+    await viewer.goto(`file://${resolve(pdfPath)}#page=1&zoom=65`);
+    await viewer.waitForTimeout(2500);
+    await viewer.screenshot({ path: artifactPath('report-pdf-page1.png') });
+    await viewer.close();
+  });
+});
