@@ -16,3 +16,10 @@ export const tileState = signal<'loading' | 'ok' | 'failed' | 'off'>('loading');
 export type SectionId = 'release' | 'flow' | 'risk' | 'results';
 /** which panel sections are open (several may be) */
 export const openSections = signal<Set<SectionId>>(new Set<SectionId>(['release', 'results']));
+
+/** The last point deleted from the map (receptor or water-level well), so it can be put back. */
+export const lastDeleted = signal<
+  | { what: 'receptor'; index: number; item: import('../case/schema').Receptor; caseId: string }
+  | { what: 'head'; index: number; item: import('../case/schema').HeadReading; caseId: string }
+  | null
+>(null);

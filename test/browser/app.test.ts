@@ -185,6 +185,59 @@ describe('field screen', () => {
     await close();
   });
 
+  it('fits the flow to water levels tapped on the map, draws it and shows the residuals', async () => {
+    const { page, close } = await open();
+    // the new local case the app starts with: flow from water levels
+    await page.click('[data-section=flow] .dg-sec-toggle');
+    await page.click('[data-section=flow] .dg-seg button[data-value=heads]');
+    await page.click('button[data-tool=add-head]');
+    const map = (await (await page.$('.dg-map'))!.boundingBox())!;
+    const taps = [
+      [0.3, 0.3],
+      [0.7, 0.35],
+      [0.45, 0.75],
+      [0.65, 0.65],
+    ];
+    for (const [fx, fy] of taps) await page.mouse.click(map.x + fx * map.width, map.y + fy * map.height);
+    await page.waitForFunction(() => document.querySelectorAll('[data-group=heads] li').length === 4);
+    // heads on the plane h = 20 − 0.008·(e·sin 135° + n·cos 135°): flow towards 135° (south-east),
+    // gradient 0.008 — the analytic reference; the fourth well 2 cm above the plane
+    const pos: [number, number][] = await page.evaluate(() =>
+      (globalThis as any).__downgradient.currentCase().site.flow.readings.map((r: any) => r.position),
+    );
+    const th = (135 * Math.PI) / 180;
+    const heads = pos.map(([e, n], k) => 20 - 0.008 * (e * Math.sin(th) + n * Math.cos(th)) + (k === 3 ? 0.02 : 0));
+    const inputs = page.locator('[data-group=heads] [data-field$="].head"] input.dg-num');
+    for (let k = 0; k < 4; k++) await inputs.nth(k).fill(heads[k].toFixed(4));
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid=head-residual]').length === 4);
+    await page.waitForTimeout(500);
+    const derived = (await page.textContent('[data-testid=flow-derived]'))!;
+    const az = Number(/Flow towards ([\d.]+)°/.exec(derived)![1]);
+    const grad = Number(/gradient ([\d.]+)/.exec(derived)![1]);
+    // the 2 cm misfit tilts the fitted plane a little: within 3° and 10 % of the plane's values
+    // (heads typed to 0.1 mm)
+    expect(Math.abs(az - 135)).toBeLessThan(3);
+    expect(Math.abs(grad - 0.008) / 0.008).toBeLessThan(0.1);
+    // least squares with an intercept: residuals sum to zero (to the 0.1 mm the heads were typed to)
+    const res = await page.$$eval('[data-testid=head-residual]', (els) => els.map((e) => Number(/(-?[\d.e-]+) m/.exec(e.textContent ?? '')![1])));
+    expect(Math.abs(res.reduce((a, b) => a + b, 0))).toBeLessThan(1e-3);
+    expect(Math.max(...res.map(Math.abs))).toBeGreaterThan(1e-3);
+    // drawn: the arrow follows the fit (no drag handle while the flow comes from water levels)
+    expect(await page.$$eval('path.dg-flow-arrow', (p) => p.length)).toBe(1);
+    expect(await page.$('.dg-mark-flow')).toBeNull();
+    await page.screenshot({ path: artifactPath('app-water-levels.png') });
+    await close();
+  });
+
+  it('renders on a phone in the dark theme — screenshot kept', async () => {
+    const { page, close } = await open({ width: 390, height: 844 });
+    await openDemo(page);
+    await page.click('button[aria-label="Dark theme"]');
+    expect(await page.getAttribute('html', 'data-theme')).toBe('dark');
+    await page.screenshot({ path: artifactPath('app-phone-dark.png') });
+    await close();
+  });
+
   for (const [name, vp] of [
     ['landscape', LANDSCAPE],
     ['portrait', PORTRAIT],

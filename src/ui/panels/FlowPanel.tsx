@@ -2,9 +2,10 @@
 import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
 import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
-import { mapTool, selectedId } from '../view';
+import { mapTool, selectedId, lastDeleted } from '../view';
+import { UndoDelete } from './ReceptorsPanel';
 import { MATERIAL_PRESETS, materialPreset, FIELD_RANGES, citeValue } from '../../case/presets';
-import type { Case } from '../../case/schema';
+import type { Case, HeadReading } from '../../case/schema';
 import { fmtLength } from '../format';
 import { fieldIssue } from '../validity';
 
@@ -35,7 +36,9 @@ export function FlowPanel() {
         onChange={(m) =>
           updateCase((d) => {
             if (m === d.site.flow.method) return;
-            if (m === 'heads') d.site.flow = { method: 'heads', readings: [] };
+            // switching away from water levels keeps them for this session, to switch back to
+            if (d.site.flow.method === 'heads') stashedReadings.set(d.id, d.site.flow.readings);
+            if (m === 'heads') d.site.flow = { method: 'heads', readings: stashedReadings.get(d.id) ?? [] };
             else {
               const az = currentResults.peek()?.derived.azimuthDeg ?? 90;
               const g = currentResults.peek()?.derived.gradient ?? 0.005;
@@ -78,6 +81,9 @@ export function FlowPanel() {
   );
 }
 
+/** Water levels set aside when the flow is switched to an arrow, by case id. */
+const stashedReadings = new Map<string, HeadReading[]>();
+
 function HeadReadings({ c }: { c: Case }) {
   if (c.site.flow.method !== 'heads') return null;
   const readings = c.site.flow.readings;
@@ -93,6 +99,7 @@ function HeadReadings({ c }: { c: Case }) {
         {mapTool.value === 'add-head' ? 'Done adding wells' : '+ Water level (tap the map)'}
       </button>
       {issue && <p class="dg-field-error" role="alert">{issue}</p>}
+      <UndoDelete what="head" />
       <ol class="dg-list">
         {readings.map((h, i) => (
           <li key={h.id} class={selectedId.value === h.id ? 'dg-selected' : ''} onClick={() => (selectedId.value = h.id)}>
@@ -127,11 +134,12 @@ function HeadReadings({ c }: { c: Case }) {
               type="button"
               class="dg-danger"
               aria-label={`Remove ${h.name}`}
-              onClick={() =>
+              onClick={() => {
+                lastDeleted.value = { what: 'head', index: i, item: structuredClone(h), caseId: c.id };
                 updateCase((d) => {
                   if (d.site.flow.method === 'heads') d.site.flow.readings.splice(i, 1);
-                })
-              }
+                });
+              }}
             >
               Remove
             </button>

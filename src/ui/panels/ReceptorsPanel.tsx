@@ -2,7 +2,7 @@
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
 import { QuantityField, fmtNum, unitLabel } from '../fields';
-import { mapTool, selectedId } from '../view';
+import { mapTool, selectedId, lastDeleted } from '../view';
 import type { ReceptorKind } from '../../case/schema';
 import { activeSiteMap } from '../map/MapView';
 import { toLatLng } from '../map/siteMap';
@@ -57,6 +57,7 @@ export function ReceptorsPanel() {
           {mapTool.value === 'add-receptor' ? 'Tap the map to place it…' : '+ Receptor (tap the map)'}
         </button>
       </div>
+      <UndoDelete what="receptor" />
       {c.site.receptors.length === 0 && (
         <p class="dg-help">No receptors yet: add the wells, springs, creeks or property lines that matter.</p>
       )}
@@ -126,6 +127,7 @@ export function ReceptorsPanel() {
                   class="dg-danger"
                   aria-label={`Delete ${r.name}`}
                   onClick={() => {
+                    lastDeleted.value = { what: 'receptor', index: i, item: structuredClone(r), caseId: c.id };
                     updateCase((d) => void d.site.receptors.splice(i, 1));
                     if (selectedId.peek() === r.id) selectedId.value = null;
                   }}
@@ -138,5 +140,29 @@ export function ReceptorsPanel() {
         })}
       </ol>
     </Section>
+  );
+}
+
+/** Put back the last deleted receptor or water-level well (deleting never loses anything). */
+export function UndoDelete({ what }: { what: 'receptor' | 'head' }) {
+  const d = lastDeleted.value;
+  const c = currentCase.value;
+  if (!d || d.what !== what || d.caseId !== c.id) return null;
+  return (
+    <p class="dg-undo" role="status">
+      Deleted “{d.item.name}”.{' '}
+      <button
+        type="button"
+        onClick={() => {
+          lastDeleted.value = null;
+          updateCase((x) => {
+            if (d.what === 'receptor') x.site.receptors.splice(Math.min(d.index, x.site.receptors.length), 0, d.item);
+            else if (x.site.flow.method === 'heads') x.site.flow.readings.splice(Math.min(d.index, x.site.flow.readings.length), 0, d.item);
+          });
+        }}
+      >
+        Undo
+      </button>
+    </p>
   );
 }
