@@ -76,7 +76,7 @@ async function main(): Promise<void> {
   console.log(`node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'} (${cpus().length} cores; all figures single-threaded)`);
   const loadAtStart = loadavg()[0];
   console.log(
-    `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up, JS figures in interleaved rounds; inputs built before the clock`,
+    `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up; JS and numpy repetitions interleaved in rounds; inputs built before the clock`,
   );
   console.log(
     `scenario (invented): v = ${V} m/d, R = ${R}, αx/αy/αz = ${AX}/${AY}/${AZ} m, half-life 730 d, source ${WIDTH} m × ${THICKNESS} m, z = ${Z} m, t = ${T} d\n`,
