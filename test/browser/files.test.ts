@@ -4,22 +4,16 @@
 // imported back into a fresh browser profile is identical. The GeoJSON export is checked against
 // RFC 7946 by @placemarkio/check-geojson (an independent validator from the npm registry).
 // Case names holding markup are shown as text, never built into HTML.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { getIssues } from '@placemarkio/check-geojson';
-import { launch, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
-import { openDemo, openFiles, storedCases, waitForResults, waitSaved, watchedPage } from './offline-helpers';
+import { artifactPath, PORTRAIT, LANDSCAPE } from './browser';
+import { demoCase, openDemo, openFiles, storedCases, useBrowser, waitForResults, waitSaved, watchedPage } from './offline-helpers';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const getBrowser = useBrowser();
 
-const demo = JSON.parse(readFileSync('cases/fuel-release-farm-well.json', 'utf8'));
+const demo = demoCase();
 
 async function importText(page: Page, name: string, text: string | Buffer): Promise<string> {
   await page.getByTestId('import-input').setInputFiles({ name, mimeType: 'application/json', buffer: Buffer.isBuffer(text) ? text : Buffer.from(text) });
@@ -37,11 +31,11 @@ async function download(page: Page, testid: string): Promise<{ name: string; tex
 
 describe('files', () => {
   it('rejects each malformed, oversized, wrong-version or hostile file with its message; nothing stored changes', async () => {
-    const w = await watchedPage(browser, LANDSCAPE);
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
     const { page, context } = w;
     await page.goto(w.base);
     await waitSaved(page);
-    await openDemo(page, 'fuel-release-farm-well.json');
+    await openDemo(page);
     const before = await storedCases(page);
     expect(before.length).toBeGreaterThanOrEqual(1);
     expect(before.some((c) => (c.data as { name: string }).name === demo.name)).toBe(true);
@@ -73,10 +67,10 @@ describe('files', () => {
   });
 
   it('a case exported and imported back into a fresh profile is identical', async () => {
-    const a = await watchedPage(browser, PORTRAIT);
+    const a = await watchedPage(getBrowser(), PORTRAIT);
     await a.page.goto(a.base);
     await waitSaved(a.page);
-    await openDemo(a.page, 'fuel-release-farm-well.json');
+    await openDemo(a.page);
     await openFiles(a.page);
     const out = await download(a.page, 'export-case');
     expect(out.name).toMatch(/\.case\.json$/);
@@ -86,7 +80,7 @@ describe('files', () => {
     await a.page.screenshot({ path: artifactPath('files-portrait.png') });
     await a.context.close();
 
-    const b = await watchedPage(browser, LANDSCAPE);
+    const b = await watchedPage(getBrowser(), LANDSCAPE);
     await b.page.goto(b.base);
     await waitSaved(b.page);
     await openFiles(b.page);
@@ -101,11 +95,11 @@ describe('files', () => {
   });
 
   it('GeoJSON export validates against RFC 7946; CSV tables download', async () => {
-    const w = await watchedPage(browser, LANDSCAPE);
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
     const { page, context } = w;
     await page.goto(w.base);
     await waitSaved(page);
-    await openDemo(page, 'fuel-release-farm-well.json');
+    await openDemo(page);
     await waitForResults(page);
     await openFiles(page);
     const gj = await download(page, 'export-geojson');
@@ -122,7 +116,7 @@ describe('files', () => {
   });
 
   it('a case name holding markup is imported and shown as text, never as HTML', async () => {
-    const w = await watchedPage(browser, LANDSCAPE);
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
     const { page, context } = w;
     await page.goto(w.base);
     await waitSaved(page);

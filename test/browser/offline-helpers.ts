@@ -2,8 +2,28 @@
 // host it contacts and every CSP violation, the stored cases read straight from IndexedDB with the
 // raw API (not through the app's code), and waits on the app's own visible state.
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { inject } from 'vitest';
-import { newPage, LANDSCAPE } from './browser';
+import { afterAll, beforeAll, expect, inject } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { launch, newPage, LANDSCAPE } from './browser';
+
+/** One Chromium for the test file: launched before its tests, closed after them. */
+export function useBrowser(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error('browser not launched yet');
+    return browser;
+  };
+}
+
+/** The geographic demo case the tests open (an invented scenario, cases/README.md). */
+export const DEMO_FILE = 'fuel-release-farm-well.json';
+export const demoCase = () => JSON.parse(readFileSync(`cases/${DEMO_FILE}`, 'utf8'));
 
 export interface Watched {
   context: BrowserContext;
@@ -66,9 +86,19 @@ export async function storedCases(page: Page): Promise<StoredCase[]> {
   );
 }
 
-export async function openDemo(page: Page, file: string): Promise<void> {
+/** Open a demo from the header's picker and wait until it is stored (read back from IndexedDB). */
+export async function openDemo(page: Page, file: string = DEMO_FILE): Promise<void> {
+  const name = JSON.parse(readFileSync(`cases/${file}`, 'utf8')).name as string;
   await page.selectOption('select.dg-demo', file);
+  await expect.poll(async () => (await storedCases(page)).some((c) => (c.data as { name?: string }).name === name), { timeout: 15_000 }).toBe(true);
   await waitSaved(page);
+}
+
+/** The service worker has installed (app shell precached) and activated. */
+export async function waitForServiceWorker(page: Page): Promise<void> {
+  await expect
+    .poll(() => page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.active?.state ?? 'none'), { timeout: 20_000 })
+    .toBe('activated');
 }
 
 /** Results for the current inputs exist once the report says so (it checks the results' stamp). */

@@ -3,36 +3,25 @@
 // still opens the app, computes results and saves. Also: closing the page in the middle of an
 // edit and reopening loses nothing; the page contacts no host but its own origin and the tile
 // server; the Content Security Policy reports no violation.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launch, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
-import { expectOnlyAllowedOrigins, openDemo, renameInHeader, storedCases, waitForResults, waitSaved, watchedPage } from './offline-helpers';
+import { describe, expect, it } from 'vitest';
+import { artifactPath, PORTRAIT, LANDSCAPE } from './browser';
+import { expectOnlyAllowedOrigins, openDemo, renameInHeader, storedCases, useBrowser, waitForResults, waitForServiceWorker, waitSaved, watchedPage } from './offline-helpers';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const getBrowser = useBrowser();
 
 describe('offline', () => {
   it('first visit, then an offline reload that still opens, computes and saves', async () => {
-    const w = await watchedPage(browser, LANDSCAPE);
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
     const { page, context } = w;
     await page.goto(w.base);
     await waitSaved(page);
     // the service worker installed and precached the shell
-    const active = await page.evaluate(async () => {
-      const reg = await navigator.serviceWorker.ready;
-      return reg.active?.state;
-    });
-    expect(active).toBe('activated');
+    await waitForServiceWorker(page);
     const manifest = await page.evaluate(async () => (await fetch('./manifest.webmanifest')).json());
     expect(manifest.icons.map((i: { sizes: string; purpose: string }) => `${i.sizes} ${i.purpose}`).sort()).toEqual(
       ['192x192 any', '192x192 maskable', '512x512 any', '512x512 maskable'],
     );
-    await openDemo(page, 'fuel-release-farm-well.json');
+    await openDemo(page);
     await waitForResults(page);
 
     await context.setOffline(true);
@@ -61,7 +50,7 @@ describe('offline', () => {
   });
 
   it('closing the page in the middle of an edit and reopening loses nothing', async () => {
-    const w = await watchedPage(browser, PORTRAIT);
+    const w = await watchedPage(getBrowser(), PORTRAIT);
     const { page, context } = w;
     await page.goto(w.base);
     await waitSaved(page);
@@ -79,7 +68,7 @@ describe('offline', () => {
   });
 
   it('a second tab editing the same case gets the choice instead of a silent overwrite', async () => {
-    const w = await watchedPage(browser, LANDSCAPE);
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
     const { page: a, context } = w;
     await a.goto(w.base);
     await waitSaved(a);

@@ -3,30 +3,23 @@
 // receptor table, charts, warnings, assumptions, caution), printed to PDF by Chromium's own
 // print path (page.pdf with print media), and the PDF's first page opened in Chromium's PDF viewer
 // and kept as a screenshot in test-artifacts/ to be looked at.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import type { Browser } from 'playwright-core';
-import { launch, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
-import { openDemo, openFiles, waitSaved, watchedPage } from './offline-helpers';
+import { artifactPath, PORTRAIT, LANDSCAPE } from './browser';
+import { demoCase, openDemo, openFiles, useBrowser, waitSaved, watchedPage } from './offline-helpers';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const getBrowser = useBrowser();
 
-const demo = JSON.parse(readFileSync('cases/fuel-release-farm-well.json', 'utf8'));
+const demo = demoCase();
 
 describe('printable report', () => {
   it('holds every required part and prints to a PDF whose first page is looked at', async () => {
-    const w = await watchedPage(browser, PORTRAIT);
+    const w = await watchedPage(getBrowser(), PORTRAIT);
     const { page, context } = w;
     await page.goto(w.base);
     await waitSaved(page);
-    await openDemo(page, 'fuel-release-farm-well.json');
+    await openDemo(page);
     await openFiles(page);
     await page.getByTestId('open-report').click();
     const report = page.getByTestId('report');
@@ -64,7 +57,7 @@ describe('printable report', () => {
     await context.close();
 
     // the first page, as Chromium's PDF viewer shows it
-    const viewer = await browser.newPage({ viewport: { width: 900, height: 1250 } });
+    const viewer = await getBrowser().newPage({ viewport: { width: 900, height: 1250 } });
     await viewer.goto(`file://${resolve(pdfPath)}#page=1&zoom=65`);
     await viewer.waitForTimeout(2500);
     await viewer.screenshot({ path: artifactPath('report-pdf-page1.png') });
