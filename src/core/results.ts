@@ -12,7 +12,7 @@
  * a rise shorter than the sample spacing could be missed there, which the result notes.
  */
 import type { ScreeningModel, SolutionKind } from './model';
-import { relativeAt, relativeGrid, kinetics } from './transport';
+import { relativeAt, relativeGrid, relativeSeries, kinetics } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
 import { domenicoAdmits, validateModel } from './validateModel';
 import { ValidationError, requireFinite, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
@@ -63,8 +63,12 @@ export function screenAverage(m: ScreeningModel, r: Receptor, t: number): number
 export function breakthroughCurve(m: ScreeningModel, r: Receptor, times: ArrayLike<number>, kind: SolutionKind = m.solution): Float64Array {
   validateModel(m);
   checkReceptor(r);
-  const out = new Float64Array(times.length);
-  for (let k = 0; k < times.length; k++) out[k] = cAt(m, kind, r, requireTime(`times[${k}]`, times[k]));
+  for (let k = 0; k < times.length; k++) requireTime(`times[${k}]`, times[k]);
+  const out = relativeSeries(m, kind, r.x, r.y, r, times);
+  for (let k = 0; k < out.length; k++) {
+    const c = m.c0 * out[k];
+    out[k] = c > 0 && Number.isFinite(c) ? c : 0;
+  }
   return out;
 }
 

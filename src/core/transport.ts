@@ -15,7 +15,7 @@
 import type { DepthSpan } from './solutions/spread';
 import { depthFactor, spreadFactor } from './solutions/spread';
 import { domenicoGridInto, domenicoPoint, isSymmetric, type DomenicoParams } from './solutions/domenico';
-import { exactColumn, type ExactOptions, type PatchParams } from './solutions/patchSource';
+import { exactColumn, exactSeries, type ExactOptions, type PatchParams } from './solutions/patchSource';
 import type { ScreeningModel, SolutionKind } from './model';
 
 export interface Kinetics {
@@ -170,4 +170,36 @@ export function relativeAt(
   }
   relativeGrid(m, kind, [x], [y], depth, t, one, opts);
   return one[0];
+}
+
+/**
+ * C/C0 at one point or screen for many times. For the exact solution with a source that does not
+ * decline, the curve is accumulated in one pass (exactSeries), pulses by the same superposition;
+ * otherwise point by point.
+ */
+export function relativeSeries(
+  m: ScreeningModel,
+  kind: SolutionKind,
+  x: number,
+  y: number,
+  depth: DepthSpan,
+  times: ArrayLike<number>,
+  opts?: ExactOptions,
+): Float64Array {
+  const out = new Float64Array(times.length);
+  const k = kinetics(m);
+  let finite = true;
+  for (let i = 0; i < times.length; i++) if (!Number.isFinite(times[i])) finite = false;
+  if (kind === 'exact' && k.gamma === 0 && x > 0 && k.patch.Dx > 0 && finite) {
+    exactSeries(x, y, depth, times, k.patch, 0, out, opts);
+    if (k.duration < Infinity) {
+      const earlier = Array.from(times, (t) => Math.max(0, t - k.duration));
+      const later = new Float64Array(times.length);
+      exactSeries(x, y, depth, earlier, k.patch, 0, later, opts);
+      for (let i = 0; i < out.length; i++) if (times[i] > k.duration) out[i] = Math.max(0, out[i] - later[i]);
+    }
+    return out;
+  }
+  for (let i = 0; i < times.length; i++) out[i] = relativeAt(m, kind, x, y, depth, times[i], opts);
+  return out;
 }

@@ -195,7 +195,34 @@ export function exactColumn(
     for (let j = 0; j < ny; j++) out[offset + j * stride] = 0;
     return { errorEstimate: 0, panels: 0 };
   }
-  const cuts = initialCuts(lo, hi, Math.sqrt((u * x) / (4 * p.Dx)));
+  const r = adaptiveW(lo, hi, c, ys, depth, p, relTol, absTol / scale, maxPanels, 0);
+  const total = r.total;
+  const e = r.err;
+  for (let j = 0; j < ny; j++) {
+    const val = total[j] * scale;
+    out[offset + j * stride] = val > 0 ? val : 0;
+  }
+  return { errorEstimate: e * scale, panels: r.panels };
+}
+
+/**
+ * ∫ over w ∈ [lo, hi] for every y, adaptively: panels bisected worst first until the summed
+ * |Kronrod − Gauss| estimate ≤ relTol·max(max over the column, ref) + absTol (unscaled units).
+ */
+function adaptiveW(
+  lo: number,
+  hi: number,
+  c: ColumnSetup,
+  ys: ArrayLike<number>,
+  depth: DepthSpan,
+  p: PatchParams,
+  relTol: number,
+  absTol: number,
+  maxPanels: number,
+  ref: number,
+): { total: Float64Array; err: number; panels: number } {
+  const ny = ys.length;
+  const cuts = initialCuts(lo, hi, Math.sqrt((c.u * c.x) / (4 * p.Dx)));
   const panels: Panel[] = [];
   for (let i = 0; i + 1 < cuts.length; i++) panels.push(evalPanel(cuts[i], cuts[i + 1], c, ys, depth, p));
   const total = new Float64Array(ny);
@@ -208,12 +235,11 @@ export function exactColumn(
       for (let j = 0; j < ny; j++) total[j] += pn.kron[j];
       e += pn.err;
     }
-    m = 0;
+    m = ref;
     for (let j = 0; j < ny; j++) if (total[j] > m) m = total[j];
   };
   sumUp();
-  // tolerances apply to the scaled result: err·scale ≤ relTol·m·scale + absTol
-  while (e * scale > relTol * m * scale + absTol && panels.length < maxPanels) {
+  while (e > relTol * m + absTol && panels.length < maxPanels) {
     let worst = 0;
     for (let i = 1; i < panels.length; i++) if (panels[i].err > panels[worst].err) worst = i;
     const pw = panels[worst];
@@ -223,9 +249,50 @@ export function exactColumn(
     panels.push(evalPanel(mid, pw.b, c, ys, depth, p));
     sumUp();
   }
-  for (let j = 0; j < ny; j++) {
-    const val = total[j] * scale;
-    out[offset + j * stride] = val > 0 ? val : 0;
+  return { total, err: e, panels: panels.length };
+}
+
+/**
+ * C/C0 of the exact solution at one point or screen for many times (a breakthrough curve), for a
+ * source that does not decline (γ = 0): the integrand does not depend on t, only the lower limit
+ * w(t) does, so the curve is accumulated over the intervals [w(t_k), w(t_{k−1})] of the times in
+ * ascending order, each integrated once to relTol against the value reached. x > 0, Dx > 0,
+ * finite times ≥ 0 (t = 0 gives 0). Writes out[k] for times[k] (any order), times e^{logScale}.
+ */
+export function exactSeries(
+  x: number,
+  y: number,
+  depth: DepthSpan,
+  times: ArrayLike<number>,
+  p: PatchParams,
+  logScale: number,
+  out: Float64Array,
+  opts: ExactOptions = {},
+): void {
+  const relTol = opts.relTol ?? 1e-6;
+  const absTol = opts.absTol ?? 1e-13;
+  const maxPanels = opts.maxPanels ?? 500;
+  const w0 = uMinusV(p.v, p.Dx, p.lam);
+  const u = p.v + w0;
+  const order = Array.from({ length: times.length }, (_, k) => k).sort((a, b) => times[a] - times[b]);
+  const scale = Math.exp(logScale - (x * w0) / (2 * p.Dx));
+  const floor = u > 0 ? -W_CUT : 0;
+  let prevW = W_CUT;
+  let acc = 0;
+  const ys = [y];
+  for (const k of order) {
+    const t = times[k];
+    if (!(t > 0) || !(scale > 0)) {
+      out[k] = 0;
+      continue;
+    }
+    const c: ColumnSetup = { x, u, sqrtDx: Math.sqrt(p.Dx), t };
+    const w = Math.max(wOf(t, c), floor);
+    if (w < prevW) {
+      acc += adaptiveW(w, prevW, c, ys, depth, p, relTol, absTol / scale, maxPanels, acc).total[0];
+      prevW = w;
+    }
+    const val = acc * scale;
+    out[k] = val > 0 ? val : 0;
   }
-  return { errorEstimate: e * scale, panels: panels.length };
 }
