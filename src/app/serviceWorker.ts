@@ -32,19 +32,26 @@ export function registerServiceWorker(url = './sw.js'): Workbox | null {
   const wb = new Workbox(url, { type: 'classic' });
   let reloading = false;
 
+  const reloadOnce = () => {
+    if (reloading) return;
+    reloading = true;
+    window.location.reload();
+  };
+  let applying = false;
+
   const offerUpdate = () => {
     updateWaiting.value = {
       apply: async () => {
         if (!(await saveBeforeReload())) return;
-        wb.addEventListener('controlling', () => {
-          if (reloading) return;
-          reloading = true;
-          window.location.reload();
-        });
+        applying = true;
         wb.messageSkipWaiting();
       },
     };
   };
+  // A controlled page switches on `controlling`; a page the old version never controlled (the
+  // first visit) sees only the new version's activation.
+  wb.addEventListener('controlling', () => applying && reloadOnce());
+  wb.addEventListener('activated', () => applying && reloadOnce());
 
   wb.addEventListener('waiting', offerUpdate);
   wb.addEventListener('activated', (e) => {

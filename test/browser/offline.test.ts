@@ -4,8 +4,9 @@
 // edit and reopening loses nothing; the page contacts no host but its own origin and the tile
 // server; the Content Security Policy reports no violation.
 import { describe, expect, it } from 'vitest';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { artifactPath, PORTRAIT, LANDSCAPE } from './browser';
-import { expectOnlyAllowedOrigins, openDemo, renameInHeader, storedCases, useBrowser, waitForResults, waitForServiceWorker, waitSaved, watchedPage } from './offline-helpers';
+import { TILE_ORIGIN, expectOnlyAllowedOrigins, openDemo, renameInHeader, storedCases, useBrowser, waitForResults, waitForServiceWorker, waitSaved, watchedPage } from './offline-helpers';
 
 const getBrowser = useBrowser();
 
@@ -97,6 +98,105 @@ describe('offline', () => {
     await waitSaved(b);
     const names = (await storedCases(b)).map((s) => s.name).sort();
     expect(names).toEqual(['A again', 'B meanwhile (my copy)']);
+    await context.close();
+  });
+});
+
+describe('updates and tiles', () => {
+  it('an update waits for the user, saves unsaved work first, then switches', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await waitForServiceWorker(page);
+    await page.reload(); // now controlled by the first version
+    await waitSaved(page);
+    const swPath = 'dist/sw.js';
+    const original = readFileSync(swPath, 'utf8');
+    try {
+      // a "new version": one revision hash changed, same length (the preview server caches sizes)
+      const m = original.match(/"revision": ?"([0-9a-f])/);
+      if (!m || m.index === undefined) throw new Error('no precache revision found in sw.js');
+      const at = m.index + m[0].length - 1;
+      writeFileSync(swPath, original.slice(0, at) + (m[1] === '0' ? '1' : '0') + original.slice(at + 1));
+      await page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.update());
+      const button = page.getByTestId('apply-update');
+      await button.waitFor({ timeout: 20_000 });
+      await page.screenshot({ path: artifactPath('update-ready.png') });
+      // an edit not yet saved when the user accepts the update
+      await renameInHeader(page, 'Edited right before updating');
+      await Promise.all([page.waitForEvent('load', { timeout: 20_000 }), button.click()]);
+      await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).toBe('Edited right before updating');
+      expect(await page.getByTestId('apply-update').count()).toBe(0);
+    } finally {
+      writeFileSync(swPath, original);
+    }
+    await context.close();
+  });
+
+  it('map tiles the user viewed are cached within bounds and shown again offline', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    const tile = readFileSync('public/icons/icon-192.png'); // any PNG stands in for a tile
+    let served = 0;
+    await context.route(`${TILE_ORIGIN}/**`, (route) => {
+      served++;
+      return route.fulfill({
+        status: 200,
+        headers: { 'content-type': 'image/png', 'access-control-allow-origin': '*', 'cache-control': 'max-age=604800' },
+        body: tile,
+      });
+    });
+    await page.goto(w.base);
+    await waitSaved(page);
+    await waitForServiceWorker(page);
+    await page.reload(); // controlled: tile requests now pass through the service worker
+    await openDemo(page);
+    await expect.poll(() => page.locator('img.leaflet-tile-loaded').count(), { timeout: 20_000 }).toBeGreaterThan(0);
+    const cached = await page.evaluate(async () => (await (await caches.open('downgradient-tiles')).keys()).map((r) => r.url));
+    expect(served).toBeGreaterThan(0);
+    expect(cached.length).toBeGreaterThan(0);
+    expect(cached.every((u) => u.startsWith('https://tile.openstreetmap.org/'))).toBe(true);
+
+    await context.unroute(`${TILE_ORIGIN}/**`);
+    await context.setOffline(true);
+    await page.reload();
+    await expect.poll(() => page.locator('img.leaflet-tile-loaded').count(), { timeout: 20_000 }).toBeGreaterThan(0);
+    await page.screenshot({ path: artifactPath('offline-cached-tiles.png') });
+    await context.close();
+  });
+});
+
+describe('storage full', () => {
+  it('keeps the case on screen, says so, and saves once space is back', async () => {
+    const w = await watchedPage(getBrowser(), PORTRAIT);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    // the device runs out of space: every IndexedDB write fails as browsers report it
+    await page.evaluate(() => {
+      const proto = IDBObjectStore.prototype as unknown as { put: unknown; __put?: unknown };
+      proto.__put = proto.put;
+      proto.put = function () {
+        throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+      };
+    });
+    await renameInHeader(page, 'Written while the device was full');
+    const banner = page.getByTestId('storage-full');
+    await banner.waitFor({ timeout: 15_000 });
+    expect(await banner.textContent()).toMatch(/storage for this app is full.*kept on screen/);
+    expect(await page.getByTestId('save-state').getAttribute('data-state')).toBe('storage-full');
+    expect(await page.getByLabel('Case name', { exact: true }).inputValue()).toBe('Written while the device was full');
+    await page.screenshot({ path: artifactPath('storage-full-portrait.png') });
+    // space is freed: the next retry (or a flush on hiding the page) saves it
+    await page.evaluate(() => {
+      const proto = IDBObjectStore.prototype as unknown as { put: unknown; __put?: unknown };
+      proto.put = proto.__put;
+    });
+    await page.evaluate(() => document.dispatchEvent(new Event('visibilitychange')));
+    await page.evaluate(() => window.dispatchEvent(new PageTransitionEvent('pagehide')));
+    await waitSaved(page);
+    expect((await storedCases(page)).map((s) => s.name)).toContain('Written while the device was full');
     await context.close();
   });
 });

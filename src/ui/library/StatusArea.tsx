@@ -119,8 +119,14 @@ export function StatusArea() {
       <NetChip />
       <SaveChip />
       {upd && (
-        <button type="button" class="dg-lib-btn is-primary" data-testid="apply-update" onClick={() => void upd.apply()}>
-          Update ready — save and restart
+        <button
+          type="button"
+          class="dg-lib-btn is-primary"
+          data-testid="apply-update"
+          aria-label="Update ready: save the case, then restart with the new version"
+          onClick={() => void upd.apply()}
+        >
+          Update ready
         </button>
       )}
       {saveState.value.kind === 'conflict' && createPortal(<ConflictDialog key={String(saveState.value.theirs?.revision)} />, document.body)}
