@@ -98,9 +98,14 @@ export function domenicoGridInto(
       continue;
     }
     const s = 2 * Math.sqrt(p.ay * Math.max(x, 0));
-    for (let j = jStart; j < ny; j++) {
-      const y = ys[j];
-      out[row + j] = XZ * (s > 0 ? erfDiff((y + h) / s, (y - h) / s) : erfRatioSafe(y + h, s) - erfRatioSafe(y - h, s));
+    if (s > 0) {
+      const inv = 1 / s;
+      for (let j = jStart; j < ny; j++) {
+        const y = ys[j];
+        out[row + j] = XZ * erfDiff((y + h) * inv, (y - h) * inv);
+      }
+    } else {
+      for (let j = jStart; j < ny; j++) out[row + j] = XZ * (erfRatioSafe(ys[j] + h, s) - erfRatioSafe(ys[j] - h, s));
     }
     if (sym) for (let j = 0; j < jStart; j++) out[row + j] = out[row + ny - 1 - j];
   }

@@ -149,10 +149,18 @@ export function erfcTail(y: number): number {
 /**
  * erf(a) − erf(b) without cancellation: when a and b lie on the same side beyond ±0.46875 the
  * difference is taken between complementary error functions, erfc(b) − erfc(a) (or the mirrored
- * form), so a difference of two numbers near ±1 keeps its relative accuracy (to ~1e-13).
+ * form), so a difference of two numbers near ±1 keeps its relative accuracy (to ~1e-13). When
+ * both arguments lie beyond ±10 the difference is below erfc(10) ≈ 2.1e-45 and is returned as 0.
  */
 export function erfDiff(a: number, b: number): number {
-  if (a > THRESH && b > THRESH) return erfcTail(b) - erfcTail(a);
-  if (a < -THRESH && b < -THRESH) return erfcTail(-a) - erfcTail(-b);
+  if (a > THRESH && b > THRESH) {
+    // both beyond 10: |difference| < erfc(10) ≈ 2.1e-45, returned as 0
+    if (a > 10 && b > 10) return 0;
+    return erfcTail(b) - erfcTail(a);
+  }
+  if (a < -THRESH && b < -THRESH) {
+    if (a < -10 && b < -10) return 0;
+    return erfcTail(-a) - erfcTail(-b);
+  }
   return erf(a) - erf(b);
 }
