@@ -8,7 +8,7 @@ import { useState, useEffect } from 'preact/hooks';
 import type { ComponentChildren } from 'preact';
 import { UNITS, unitsOf, convert, type Dimension } from '../core/units';
 import type { Quantity } from '../case/schema';
-import { fieldIssue } from './validity';
+import { fieldIssue, fieldWarnings } from './validity';
 
 let uid = 0;
 function useId(prefix: string): string {
@@ -44,6 +44,7 @@ interface BaseProps {
 function FieldShell(props: BaseProps & { id: string; localError: string | null; children: ComponentChildren }) {
   const issue = fieldIssue(props.field);
   const msg = props.localError ?? issue;
+  const warnings = msg ? [] : fieldWarnings(props.field);
   const helpId = `${props.id}-help`;
   return (
     <div class={`dg-field${msg ? ' dg-invalid' : ''}`} data-field={props.field}>
@@ -54,6 +55,11 @@ function FieldShell(props: BaseProps & { id: string; localError: string | null; 
           {msg}
         </p>
       )}
+      {warnings.map((w) => (
+        <p class="dg-field-warn" key={w}>
+          {w}
+        </p>
+      ))}
       {props.note && <p class="dg-field-note">{props.note}</p>}
       {props.help && (
         <p class="dg-help" id={helpId}>

@@ -22,3 +22,16 @@ export function convertFrame(c: Case, to: 'geographic' | 'local', geoDatum: Posi
   return d;
 }
 
+
+/** Move the release point to `to` (map position); a traced footprint moves with it, unchanged in shape. */
+export function moveSource(d: Case, to: Position): void {
+  const lf = makeLocalFrame(d.site.frame, d.site.datum);
+  const [e0, n0] = lf.toEN(d.site.source.position);
+  const [e1, n1] = lf.toEN(to);
+  d.site.source.position = to;
+  if (d.site.source.footprint)
+    d.site.source.footprint = d.site.source.footprint.map((p) => {
+      const [e, n] = lf.toEN(p);
+      return lf.fromEN([e + e1 - e0, n + n1 - n0]);
+    });
+}

@@ -4,6 +4,7 @@
  * falls back to the defaults.
  */
 import { signal, effect } from '@preact/signals';
+import { checkTileOrigin } from '../app/tilePolicy';
 
 export interface ScreenSettings {
   /** XYZ tile URL template ({z}/{x}/{y}, optional {s}); empty: no basemap, site grid only */
@@ -68,10 +69,13 @@ effect(() => {
   if (typeof document !== 'undefined') document.documentElement.dataset.theme = s.theme;
 });
 
-/** A tile URL must be an http(s) URL template with {z}, {x} and {y}; returns a message or null. */
+/**
+ * A tile URL must be an http(s) URL template with {z}, {x} and {y}, on a tile server this build's
+ * security policy allows (src/app/tilePolicy.ts); returns a message naming the field, or null.
+ */
 export function checkTileUrl(url: string): string | null {
   if (url === '') return null;
   if (!/^https?:\/\//.test(url)) return 'Tile URL: must start with https:// (or http://)';
   for (const k of ['{z}', '{x}', '{y}']) if (!url.includes(k)) return `Tile URL: must contain ${k}`;
-  return null;
+  return checkTileOrigin(url);
 }

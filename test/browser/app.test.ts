@@ -5,7 +5,7 @@
 // Screenshots in portrait and landscape are kept in test-artifacts/ to be looked at.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launch, newPage, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
+import { launch, artifactPath, PORTRAIT, LANDSCAPE } from './browser';
 
 const DEMO = 'fuel-release-farm-well.json';
 let browser: Browser;
@@ -20,6 +20,7 @@ afterAll(async () => {
 interface Opened {
   page: Page;
   hosts: Set<string>;
+  urls: Set<string>;
   errors: string[];
   close: () => Promise<void>;
 }
@@ -27,19 +28,24 @@ interface Opened {
 async function open(viewport = LANDSCAPE): Promise<Opened> {
   const base = inject('baseUrl');
   const origin = new URL(base).origin;
-  const { context, page } = await newPage(browser, viewport);
+  // service workers blocked: the offline layer's own tests cover them; here every request the page
+  // makes must pass the route below, so the hosts it contacts can be checked
+  const context = await browser.newContext({ viewport, deviceScaleFactor: 1, hasTouch: true, serviceWorkers: 'block' });
+  const page = await context.newPage();
   const hosts = new Set<string>();
+  const urls = new Set<string>();
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
   await context.route('**/*', (route) => {
     const u = new URL(route.request().url());
     hosts.add(u.origin);
+    urls.add(u.href);
     // offline: only the app itself answers
     return u.origin === origin ? route.continue() : route.abort('internetdisconnected');
   });
   await page.goto(base);
   await page.waitForSelector('.dg-mark-source');
-  return { page, hosts, errors, close: () => context.close() };
+  return { page, hosts, urls, errors, close: () => context.close() };
 }
 
 async function openDemo(page: Page): Promise<void> {
@@ -226,6 +232,53 @@ describe('field screen', () => {
     expect(await page.$$eval('path.dg-flow-arrow', (p) => p.length)).toBe(1);
     expect(await page.$('.dg-mark-flow')).toBeNull();
     await page.screenshot({ path: artifactPath('app-water-levels.png') });
+    await close();
+  });
+
+  it('places a receptor without the map, by keyboard: on the centreline, then at a typed distance', async () => {
+    const { page, close } = await open();
+    await openDemo(page);
+    await page.click('[data-section=risk] .dg-sec-toggle');
+    await page.focus('button[data-action=add-receptor-downgradient]');
+    await page.keyboard.press('Enter');
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === 3);
+    const field = page.locator('[data-testid=receptor-list] li').nth(2).locator('[data-field$="].position"] input.dg-num').first();
+    await field.fill('300');
+    await page.waitForFunction(() =>
+      [...document.querySelectorAll('[data-testid=receptor-table] tbody tr')].some((r) => (r as HTMLElement).innerText.includes('300 m down')),
+    );
+    await waitSettled(page);
+    const row = (await tableRows(page)).find((r) => /Receptor 3/.test(r.text))!;
+    expect(row.text).toMatch(/300 m down/);
+    expect(row.text).toMatch(/0 m off/);
+    await close();
+  });
+
+  it('uses the tile server set in the settings, with its attribution, and no other host', async () => {
+    const { page, hosts, urls, close } = await open();
+    await openDemo(page); // a case on the basemap (longitude/latitude)
+    await page.click('button[aria-label=Settings]');
+    const dlg = page.locator('[role=dialog]');
+    // a server this build's security policy allows (default build: OpenStreetMap's), another path
+    await dlg.locator('input').first().fill('https://tile.openstreetmap.org/{z}/{x}/{y}.png?dg-check=1');
+    await dlg.locator('input').nth(1).fill('Tiles © Example Survey');
+    hosts.clear();
+    urls.clear();
+    await dlg.locator('button', { hasText: 'Use this basemap' }).click();
+    await dlg.locator('button', { hasText: 'Close' }).click();
+    await page.waitForFunction(() => /Example Survey/.test(document.querySelector('.leaflet-control-attribution')?.textContent ?? ''));
+    await page.waitForSelector('[data-testid=tiles-failed]');
+    await expect.poll(() => [...urls].some((u) => u.includes('dg-check=1'))).toBe(true);
+    // after the change only the app and the configured server are contacted
+    const base = new URL(inject('baseUrl')).origin;
+    for (const h of hosts) expect([base, 'https://tile.openstreetmap.org']).toContain(h);
+    // refused with the reason: a template without {z}/{x}/{y}, a host the security policy blocks
+    await page.click('button[aria-label=Settings]');
+    await dlg.locator('input').first().fill('https://tile.openstreetmap.org/map.png');
+    expect(await dlg.locator('.dg-field-error').textContent()).toMatch(/Tile URL: must contain \{z\}/);
+    await dlg.locator('input').first().fill('https://tiles.example.test/{z}/{x}/{y}.png');
+    expect(await dlg.locator('.dg-field-error').textContent()).toMatch(/Tile URL: this build may load map tiles only from https:\/\/tile\.openstreetmap\.org/);
+    expect(await dlg.locator('button', { hasText: 'Use this basemap' }).isDisabled()).toBe(true);
     await close();
   });
 

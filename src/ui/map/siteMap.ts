@@ -18,6 +18,7 @@ import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
 import { newId } from '../../case/defaults';
+import { moveSource } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
 
 export const toLatLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
@@ -372,21 +373,10 @@ export class SiteMap {
   }
 
   private moveSource(ll: L.LatLng): void {
-    const c = currentCase.peek();
     const to = toPosition(ll);
-    const lf = makeLocalFrame(c.site.frame, c.site.datum);
-    const [e0, n0] = lf.toEN(c.site.source.position);
-    const [e1, n1] = lf.toEN(to);
-    if (e0 === e1 && n0 === n1) return;
-    updateCase((d) => {
-      d.site.source.position = to;
-      // the footprint moves with its release point
-      if (d.site.source.footprint)
-        d.site.source.footprint = d.site.source.footprint.map((p) => {
-          const [e, n] = lf.toEN(p);
-          return lf.fromEN([e + e1 - e0, n + n1 - n0]);
-        });
-    });
+    const from = currentCase.peek().site.source.position;
+    if (from[0] === to[0] && from[1] === to[1]) return;
+    updateCase((d) => moveSource(d, to));
   }
 
   private moveReceptor(id: string, ll: L.LatLng): void {

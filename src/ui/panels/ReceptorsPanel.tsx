@@ -1,8 +1,10 @@
 /** What is at risk: the limit that governs, the time horizon, and the receptors on the map. */
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
-import { QuantityField, fmtNum, unitLabel } from '../fields';
+import { QuantityField, NumberField, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId, lastDeleted } from '../view';
+import { preparedCase } from '../evaluation';
+import { newId } from '../../case/defaults';
 import type { ReceptorKind } from '../../case/schema';
 import { activeSiteMap } from '../map/MapView';
 import { toLatLng } from '../map/siteMap';
@@ -57,6 +59,11 @@ export function ReceptorsPanel() {
           {mapTool.value === 'add-receptor' ? 'Tap the map to place it…' : '+ Receptor (tap the map)'}
         </button>
       </div>
+      <div class="dg-btn-row">
+        <button type="button" data-action="add-receptor-downgradient" disabled={!preparedCase.value} onClick={addDowngradient}>
+          + Receptor on the centreline (no map needed)
+        </button>
+      </div>
       <UndoDelete what="receptor" />
       {c.site.receptors.length === 0 && (
         <p class="dg-help">No receptors yet: add the wells, springs, creeks or property lines that matter.</p>
@@ -88,6 +95,7 @@ export function ReceptorsPanel() {
                   ))}
                 </select>
               </div>
+              <ReceptorPlace index={i} />
               <div class="dg-pair">
                 <QuantityField
                   label="Screen top below water table"
@@ -164,5 +172,53 @@ export function UndoDelete({ what }: { what: 'receptor' | 'head' }) {
         Undo
       </button>
     </p>
+  );
+}
+
+/** Add a receptor on the plume centreline beyond the farthest one (keyboard users need no map). */
+function addDowngradient() {
+  const p = preparedCase.peek();
+  if (!p) return;
+  const far = Math.max(0, ...p.receptors.map((r) => r.x));
+  const x = Math.round(far > 0 ? far * 1.5 : Math.max(50, 10 * p.model.width));
+  const id = newId();
+  updateCase((d) => {
+    d.site.receptors.push({
+      id,
+      name: `Receptor ${d.site.receptors.length + 1}`,
+      kind: 'well',
+      position: p.toMap(x, 0),
+      screenTop: { value: 0, unit: 'm' },
+      screenBottom: { value: 5, unit: 'm' },
+      pumping: false,
+      pumpingRate: null,
+    });
+  });
+  selectedId.value = id;
+}
+
+/** Where a receptor is, in the flow frame: distance downgradient of the release and across. */
+function ReceptorPlace({ index }: { index: number }) {
+  const p = preparedCase.value;
+  const r = p?.receptors[index];
+  if (!p || !r) return null;
+  const move = (x: number, y: number) => updateCase((d) => void (d.site.receptors[index].position = p.toMap(x, y)));
+  return (
+    <div class="dg-pair">
+      <NumberField
+        label="Downgradient of the release"
+        field={`site.receptors[${index}].position`}
+        value={Number(r.x.toFixed(2))}
+        suffix="m"
+        onChange={(x) => move(x, r.y)}
+      />
+      <NumberField
+        label="Across the flow (left +)"
+        field={`site.receptors[${index}].position`}
+        value={Number(r.y.toFixed(2))}
+        suffix="m"
+        onChange={(y) => move(r.x, y)}
+      />
+    </div>
   );
 }

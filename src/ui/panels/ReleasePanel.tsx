@@ -1,12 +1,13 @@
 /** Where the release is and what it releases: source geometry and strength, and the contaminant. */
 import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
-import { QuantityField, OptionalQuantityField, Segmented, fmtNum, unitLabel } from '../fields';
+import { QuantityField, NumberField, OptionalQuantityField, Segmented, fmtNum, unitLabel } from '../fields';
 import { mapTool } from '../view';
 import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, type ContaminantPreset } from '../../case/presets';
 import type { Case } from '../../case/schema';
 import { convert } from '../../core/units';
 import { fmtLength } from '../format';
+import { moveSource } from '../frame';
 
 export function ReleasePanel() {
   const c = currentCase.value;
@@ -54,6 +55,7 @@ export function ReleasePanel() {
           help="Extent of the release perpendicular to the flow. Drag the hexagon on the map to move the release, or trace its outline."
         />
       )}
+      <SourcePosition c={c} />
       <QuantityField
         label="Source concentration C₀"
         field="source.concentration"
@@ -245,3 +247,30 @@ function PresetCard({ p }: { p: ContaminantPreset }) {
 
 const round = (v: number) => Number(v.toPrecision(3));
 
+
+/** The release point as numbers (drag the hexagon on the map, or type here). */
+function SourcePosition({ c }: { c: Case }) {
+  const [x, y] = c.site.source.position;
+  const geo = c.site.frame === 'geographic';
+  const set = (p: [number, number]) => updateCase((d) => moveSource(d, p));
+  return (
+    <div class="dg-pair">
+      <NumberField
+        label={geo ? 'Release longitude' : 'Release east of datum'}
+        field="site.source.position"
+        value={Number(x.toFixed(geo ? 7 : 2))}
+        suffix={geo ? '°' : 'm'}
+        onChange={(v) => set([v, y])}
+        help={geo ? 'WGS 84 degrees, −180 to 180 (east positive).' : undefined}
+      />
+      <NumberField
+        label={geo ? 'Release latitude' : 'Release north of datum'}
+        field="site.source.position"
+        value={Number(y.toFixed(geo ? 7 : 2))}
+        suffix={geo ? '°' : 'm'}
+        onChange={(v) => set([x, v])}
+        help={geo ? 'WGS 84 degrees, −90 to 90 (north positive).' : undefined}
+      />
+    </div>
+  );
+}

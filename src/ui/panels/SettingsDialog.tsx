@@ -8,6 +8,7 @@ import { useEffect, useRef, useState } from 'preact/hooks';
 import { settings, updateSettings, checkTileUrl, DEFAULT_TILE_URL, DEFAULT_TILE_ATTRIBUTION, type ScreenSettings } from '../settings';
 import { currentCase, updateCase } from '../state';
 import { convertFrame } from '../frame';
+import { ALLOWED_TILE_ORIGINS } from '../../app/tilePolicy';
 
 export function SettingsDialog({ onClose }: { onClose: () => void }) {
   const s = settings.value;
@@ -24,7 +25,12 @@ export function SettingsDialog({ onClose }: { onClose: () => void }) {
   return (
     <div class="dg-dialog-back" onClick={(e) => e.target === e.currentTarget && onClose()}>
       <div class="dg-dialog" role="dialog" aria-modal="true" aria-labelledby="settings-title">
-        <h2 id="settings-title">Settings</h2>
+        <div class="dg-dialog-head">
+          <h2 id="settings-title">Settings</h2>
+          <button type="button" onClick={onClose}>
+            Close
+          </button>
+        </div>
         <h3>Basemap</h3>
         <label class="dg-field">
           <span>Tile URL ({'{z}'}, {'{x}'}, {'{y}'}; empty for the site grid only)</span>
@@ -52,7 +58,8 @@ export function SettingsDialog({ onClose }: { onClose: () => void }) {
         </div>
         <p class="dg-help">
           Tiles need a connection; when they cannot load, the map shows a plain site grid with a scale bar and north arrow and work
-          continues. Only the app itself and this tile server are ever contacted.
+          continues. Only the app itself and this tile server are ever contacted; this build allows tiles from{' '}
+          {ALLOWED_TILE_ORIGINS.join(', ')}.
         </p>
         <h3>Plume detail</h3>
         <label class="dg-field">
@@ -71,11 +78,6 @@ export function SettingsDialog({ onClose }: { onClose: () => void }) {
           </select>
         </label>
         <FrameSettings />
-        <div class="dg-btn-row dg-dialog-end">
-          <button type="button" onClick={onClose}>
-            Close
-          </button>
-        </div>
       </div>
     </div>
   );
