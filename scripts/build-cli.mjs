@@ -1,11 +1,15 @@
 // Bundles the command-line entries (Node 20 cannot run .ts directly) with esbuild into dist-cli/.
-// Usage: node scripts/build-cli.mjs [--quiet]
+// Usage: node scripts/build-cli.mjs [--quiet] [--only screen|bench]
 import { build } from 'esbuild';
 import { existsSync } from 'node:fs';
 
 const quiet = process.argv.includes('--quiet');
 const entries = { screen: 'src/cli/screen.ts', bench: 'bench/bench.ts' };
-const entryPoints = Object.fromEntries(Object.entries(entries).filter(([, p]) => existsSync(p)));
+const k = process.argv.indexOf('--only');
+const only = k >= 0 ? process.argv[k + 1] : null;
+const entryPoints = Object.fromEntries(
+  Object.entries(entries).filter(([name, p]) => existsSync(p) && (only === null || name === only)),
+);
 
 await build({
   entryPoints,

@@ -200,7 +200,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
     const others = s.results.filter(({ result }) => othersDiffer(result));
     if (others.length) {
       L.push('');
-      L.push(`Where the other solution differs by more than ${SHOW_OTHER_ABOVE * 100} %:`);
+      L.push(`Where the other solution differs by more than ${SHOW_OTHER_ABOVE * 100} % or crosses the limit differently:`);
       for (const { receptor: r, result: x } of others) {
         const a = x.alternate!;
         L.push(
