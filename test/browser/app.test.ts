@@ -282,6 +282,42 @@ describe('field screen', () => {
     await close();
   });
 
+  it('traces the release outline with a finger and uses its extent across the flow as the source width', async () => {
+    const { page, close } = await open();
+    // the new local case: flow towards 90° (east) by default
+    await page.click('button[data-tool=trace-footprint]');
+    const map = (await (await page.$('.dg-map'))!.boundingBox())!;
+    const cx = map.x + map.width * 0.4;
+    const cy = map.y + map.height * 0.5;
+    // a rectangle 60 px wide (east–west) and 120 px tall (north–south), traced in one stroke
+    const corners = [
+      [cx - 30, cy - 60],
+      [cx + 30, cy - 60],
+      [cx + 30, cy + 60],
+      [cx - 30, cy + 60],
+      [cx - 30, cy - 58],
+    ];
+    await page.mouse.move(corners[0][0], corners[0][1]);
+    await page.mouse.down();
+    for (let k = 1; k < corners.length; k++) {
+      const [x0, y0] = corners[k - 1];
+      const [x1, y1] = corners[k];
+      for (let f = 1; f <= 10; f++) await page.mouse.move(x0 + ((x1 - x0) * f) / 10, y0 + ((y1 - y0) * f) / 10);
+    }
+    await page.mouse.up();
+    await page.waitForSelector('[data-testid=source-width]');
+    const c = await page.evaluate(() => (globalThis as any).__downgradient.currentCase());
+    expect(c.site.source.footprint.length).toBeGreaterThanOrEqual(4);
+    // flow to the east: the width across the flow is the outline's north–south extent
+    const ns = c.site.source.footprint.map((p: [number, number]) => p[1]);
+    const extent = Math.max(...ns) - Math.min(...ns);
+    const shown = Number(/Width across the flow: ([\d.]+) m/.exec((await page.textContent('[data-testid=source-width]'))!)![1]);
+    expect(Math.abs(shown - extent) / extent).toBeLessThan(0.01); // shown to 3 significant digits
+    const es = c.site.source.footprint.map((p: [number, number]) => p[0]);
+    expect(extent / (Math.max(...es) - Math.min(...es))).toBeCloseTo(2, 0); // 120 px by 60 px
+    await close();
+  });
+
   it('renders on a phone in the dark theme — screenshot kept', async () => {
     const { page, close } = await open({ width: 390, height: 844 });
     await openDemo(page);
