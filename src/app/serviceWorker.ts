@@ -75,7 +75,12 @@ export function registerServiceWorker(url = './sw.js'): Workbox | null {
       });
     })
     .catch((e) => {
-      notify({ tone: 'warn', text: `Offline use is not available in this browser session (${e instanceof Error ? e.message : String(e)}).` });
+      // e.g. service workers disabled (private windows, policies): the app still works and saves
+      console.warn('service worker registration failed', e);
+      notify({
+        tone: 'warn',
+        text: 'Offline use is not available in this browser session (the browser does not allow the app to install itself here). Everything else works, and cases are still saved on this device.',
+      });
     });
   return wb;
 }

@@ -58,6 +58,11 @@ export function ResultsPanel() {
           <Warnings r={r} />
         </div>
       )}
+      {r && (
+        <p class="dg-caution-strip" role="note" data-testid="caution-strip">
+          Screening estimate only: regulators and licensed hydrogeologists decide; your local limit governs.
+        </p>
+      )}
     </Section>
   );
 }
