@@ -119,7 +119,13 @@ export function latticeFor(p: PreparedCase, gridSize: number): Lattice {
   const xs = new Float64Array(n);
   const ys = new Float64Array(n);
   for (let i = 0; i < n; i++) xs[i] = x0 + ((x1 - x0) * i) / (n - 1);
-  for (let j = 0; j < n; j++) ys[j] = -y1 + (2 * y1 * j) / (n - 1);
+  // exactly symmetric (ys[j] = −ys[n−1−j] bit for bit), so the engine mirrors the lateral term
+  for (let j = 0; j < Math.ceil(n / 2); j++) {
+    const y = -y1 + (2 * y1 * j) / (n - 1);
+    ys[j] = y;
+    ys[n - 1 - j] = -y;
+  }
+  if (n % 2 === 1) ys[(n - 1) / 2] = 0;
   return { xs, ys, extent: { x0, x1, y0: -y1, y1 } };
 }
 

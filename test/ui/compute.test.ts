@@ -120,3 +120,14 @@ describe('evaluateCase', () => {
     expect(e.caution).toMatch(/Screening-level/);
   });
 });
+
+describe('map lattice', () => {
+  it('is exactly symmetric across the flow (bit for bit), so the engine mirrors the lateral term', () => {
+    for (const [name, c] of demos) {
+      for (const n of [64, 129, 256]) {
+        const { ys } = latticeFor(prepareCase(c), n);
+        for (let j = 0; j < ys.length; j++) expect(ys[j] === -ys[ys.length - 1 - j], `${name} n=${n} j=${j}: ${ys[j]}`).toBe(true);
+      }
+    }
+  });
+});
