@@ -1,6 +1,6 @@
 /**
  * Presets: published starting values for contaminants and aquifer materials, each with the
- * publication it comes from exactly as recorded in /work/shared/FIELD-VALUES.md, and whether the
+ * publication it comes from exactly as recorded in the design notes (../shared/FIELD-VALUES.md), and whether the
  * number was read in that publication ('seen'), is from memory and must be checked before it is
  * shown as published ('recalled, to verify'), or is a rule of thumb ('common practice').
  *
