@@ -38,8 +38,8 @@ export interface DomenicoParams {
 
 /** The x-only factor: ½·e^{x(v−u)/2Dx}·erfc((x − ut)/(2√(Dx t))) times e^{logScale}; 1 at steady state limit. */
 export function domenicoXTerm(x: number, t: number, p: DomenicoParams, logScale = 0): number {
-  if (!(t > 0)) return 0;
-  if (x <= 0) return Math.exp(logScale);
+  if (!(t > 0) || x < 0) return 0; // upgradient of the source plane: no transport represented
+  if (x === 0) return Math.exp(logScale);
   if (p.Dx === 0) return Math.exp(logScale) * pistonCdf(x, t, p.v, p.lam);
   const val = Math.exp(logScale + lnCdf(x, t, p.v, p.Dx, p.lam, true));
   return val;
