@@ -99,7 +99,7 @@ export interface Lattice {
 }
 
 /**
- * The flow-aligned lattice for the map: x from a little upgradient of the source plane (where the
+ * The flow-aligned lattice for the map: x from a hair upgradient of the source plane (where the
  * solutions give zero, so the bands close along the plane) to past the plume's reach at the
  * horizon (or steady state) and the farthest receptor; y symmetric, wide enough for the source
  * width plus four transverse spreading lengths 2·√(αT·x) at the far end and every receptor.
@@ -111,7 +111,10 @@ export function latticeFor(p: PreparedCase, gridSize: number): Lattice {
   const reach = plumeLength(m, p.limit, p.depth, reachT) ?? 0;
   const far = Math.max(0, ...p.receptors.map((r) => r.x));
   const x1 = Math.max(1.15 * reach, 1.1 * far, 4 * m.width, 20);
-  const x0 = -0.04 * x1;
+  // the first column lies a hair upgradient of the source plane (where the solutions give 0), so the
+  // bands close along the plane itself rather than a whole lattice step upgradient of it
+  const n0 = Math.max(8, Math.floor(gridSize));
+  const x0 = -x1 / (1000 * (n0 - 1));
   const spread = 4 * 2 * Math.sqrt(m.ay * x1);
   const side = Math.max(...p.receptors.map((r) => Math.abs(r.y) * 1.15), 0);
   const y1 = Math.max(m.width / 2 + spread, side, m.width);
