@@ -71,7 +71,7 @@ export const receptor = z.object({
   screenBottom: quantity('length'),
   pumping: z.boolean().default(false),
   /** pumping rate; only used once pumping wells are represented */
-  pumpingRate: quantity('velocity').nullable().default(null),
+  pumpingRate: quantity('flowRate').nullable().default(null),
 });
 export type Receptor = z.infer<typeof receptor>;
 

@@ -1,7 +1,7 @@
 /**
  * Units at the edges. Inside the engine everything is SI-based with the day as the time unit:
  * length m, time d, concentration mg/L, density kg/L (= g/cm³), Kd and Koc L/kg, K m/d,
- * diffusion coefficients m²/d.
+ * diffusion coefficients m²/d, pumping rates m³/d.
  *
  * Each factor converts a value in the named unit to the internal unit (multiply to go in,
  * divide to come out). Exact definitions: international foot = 0.3048 m exactly and
@@ -20,6 +20,7 @@ export type Dimension =
   | 'partition'
   | 'diffusion'
   | 'rate'
+  | 'flowRate'
   | 'dimensionless';
 
 const FT = 0.3048;
@@ -76,6 +77,11 @@ export const UNITS: Readonly<Record<string, UnitDef>> = Object.freeze(
       u('ft2/d', 'ft²/d', 'diffusion', FT * FT, 'US'),
       u('1/d', '1/d', 'rate', 1, 'SI'),
       u('1/yr', '1/yr', 'rate', 1 / YR, 'SI'),
+      u('m3/d', 'm³/d', 'flowRate', 1, 'SI'),
+      u('m3/h', 'm³/h', 'flowRate', 24, 'SI'),
+      u('L/s', 'L/s', 'flowRate', 86.4, 'SI'),
+      // US gallon per minute: 3.785411784 L × 1440 min/d
+      u('gpm', 'gal/min', 'flowRate', GAL_L * 1e-3 * 1440, 'US'),
       u('-', '–', 'dimensionless', 1, 'SI'),
     ].map((d) => [d.id, d]),
   ),

@@ -56,6 +56,10 @@ const exact: Record<string, Decimal> = {
   'ft2/d': FT.pow(2),
   '1/d': new D(1),
   '1/yr': new D(1).div(YR),
+  'm3/d': new D(1),
+  'm3/h': new D(24),
+  'L/s': new D('86.4'), // 1 L/s = 1e-3 m³ × 86400 s/d
+  gpm: GAL_L.div(1000).times(1440), // US gal/min in m³/d
   '-': new D(1),
 };
 
