@@ -13,8 +13,8 @@
  * Stability: with a = (x − ut)/(2√(Dt)), b = (x + ut)/(2√(Dt)) and w = u − v = 4λD/(u + v),
  * both terms share the factor e^{−a² − xw/2D}:  F = ½ e^{−xw/2D − a²} [erfcx(a) + erfcx(b)] for a ≥ 0,
  * and F = ½ e^{−xw/2D} erfc(a) + ½ e^{−xw/2D − a²} erfcx(b) for a < 0. No exp(large)·erfc(large)
- * product is ever formed, so the result is accurate at any Peclet number. Everything is also
- * available in log space (lnCdf) for the exact solution's change of variables.
+ * product is ever formed, so the result is accurate at any Peclet number. lnCdf gives it in log
+ * space, which Domenico's x-term uses.
  *
  * Inputs here are already retarded (v/R, D/R) and λ is the effective rate; no validation
  * (callers validate). λ may be negative (a declining source folded into the decay) provided
@@ -78,66 +78,4 @@ export function pistonCdf(x: number, t: number, v: number, lam: number): number 
   if (t > arrival) return level;
   if (t === arrival) return 0.5 * level;
   return 0;
-}
-
-/**
- * ln(τ·f(τ)) − ln F(τ): the derivative of ln F with respect to ln τ, used by Newton's method in
- * the inversion. Stable for all τ > 0 (D > 0, x > 0).
- */
-export function dLnCdfDLnT(x: number, t: number, v: number, D: number, lam: number): number {
-  const w = uMinusV(v, D, lam);
-  const u = v + w;
-  const s = 2 * Math.sqrt(D * t);
-  const a = (x - u * t) / s;
-  const b = (x + u * t) / s;
-  // τ f(τ) = x/(2√(πDτ)) · e^{−a² − xw/2D}
-  const lead = x / (2 * Math.sqrt(Math.PI * D * t));
-  if (a >= 0) {
-    return (2 * lead) / (erfcx(a) + erfcx(b));
-  }
-  return (2 * lead * Math.exp(-a * a)) / (erfc(a) + Math.exp(-a * a) * erfcx(b));
-}
-
-/**
- * Solve ln F(τ) = target for τ in (0, tMax] (tMax may be Infinity), target < ln F(tMax).
- * Newton's method in s = ln τ (ln F is increasing in s), steps limited to 4 in s, safeguarded by
- * bisection once a bracket is known. Converges to |Δs| < 1e-12 or 100 iterations. `guess` is a
- * starting τ (e.g. a neighbouring node).
- */
-export function invertLnCdf(
-  target: number,
-  x: number,
-  v: number,
-  D: number,
-  lam: number,
-  tMax: number,
-  guess?: number,
-): number {
-  let lo = -Infinity;
-  let hi = tMax === Infinity ? Infinity : Math.log(tMax);
-  let s: number;
-  if (guess !== undefined && guess > 0) s = Math.log(guess);
-  else if (hi < Infinity) s = hi - 0.5;
-  else s = Math.log(v > 0 ? x / v : (x * x) / (2 * D));
-  if (s >= hi) s = hi - 0.5;
-  for (let it = 0; it < 100; it++) {
-    const tau = Math.exp(s);
-    const h = lnCdf(x, tau, v, D, lam) - target;
-    if (h === 0) return tau;
-    if (h > 0) hi = s;
-    else lo = s;
-    let step = -h / dLnCdfDLnT(x, tau, v, D, lam);
-    if (!Number.isFinite(step)) step = h > 0 ? -4 : 4;
-    if (step > 4) step = 4;
-    else if (step < -4) step = -4;
-    let next = s + step;
-    if (!(next > lo && next < hi)) {
-      if (lo > -Infinity && hi < Infinity) next = 0.5 * (lo + hi);
-      else if (hi < Infinity) next = Math.min(next, 0.5 * (s + hi));
-      else next = Math.max(next, 0.5 * (s + lo));
-    }
-    if (Math.abs(next - s) < 1e-12 * Math.max(1, Math.abs(s))) return Math.exp(next);
-    s = next;
-  }
-  return Math.exp(s);
 }
