@@ -15,8 +15,10 @@
  * Rings come out counter-clockwise (exterior) and clockwise (holes), closed, without repeated
  * consecutive vertices; slivers collapsed to zero area by the edge clamping are dropped.
  *
- * contoursToGeoJSON: maps each vertex with toMap(x, y) → [lon, lat] (or local metres) and writes
- * an RFC 7946 FeatureCollection, one MultiPolygon Feature per non-empty band (empty bands are left
+ * packContours: maps each vertex with toMap(x, y) → [lon, lat] (or local metres), re-checks the
+ * winding after mapping, and packs the rings into flat typed arrays (PackedBands) that a worker
+ * can hand to the page by transfer; packedToGeoJSON writes them out as GeoJSON.
+ * contoursToGeoJSON (packContours, then packedToGeoJSON): an RFC 7946 FeatureCollection, one MultiPolygon Feature per non-empty band (empty bands are left
  * out), with the winding re-checked after mapping (RFC 7946 §3.1.6: exterior counter-clockwise,
  * holes clockwise) and properties { threshold, unit: 'mg/L', label, ...props }.
  * Not handled: rings crossing the antimeridian are not cut (RFC 7946 §3.1.9); sites within a plume
@@ -127,37 +129,170 @@ export function bandLabel(threshold: number): string {
 
 export type BandProperties = Record<string, unknown>;
 
-/** RFC 7946 FeatureCollection of the bands (see the module header). */
+/**
+ * The bands in map coordinates as flat typed arrays, for sending between threads by transfer
+ * instead of structured clone, and for drawing without building GeoJSON objects. Every band of
+ * the input has an entry (empty bands have no polygons). Indices:
+ *   band k's polygons      p ∈ [bandPolygons[k], bandPolygons[k + 1])
+ *   polygon p's rings      r ∈ [polygonRings[p], polygonRings[p + 1]); the first is the exterior
+ *   ring r's vertices      v ∈ [ringVertices[r], ringVertices[r + 1]), at coords[2v], coords[2v + 1]
+ * Rings as contoursToGeoJSON writes them: mapped by toMap, winding re-checked after mapping
+ * (exterior counter-clockwise, holes clockwise), closed (last vertex = first), no repeated
+ * consecutive vertices; zero-area rings dropped (an exterior with its holes).
+ */
+export interface PackedBands {
+  thresholds: Float64Array;
+  bandPolygons: Uint32Array;
+  polygonRings: Uint32Array;
+  ringVertices: Uint32Array;
+  coords: Float64Array;
+}
+
+/** The buffers of a PackedBands, for postMessage's transfer list. */
+export function packedTransferables(p: PackedBands): ArrayBuffer[] {
+  return [p.thresholds, p.bandPolygons, p.polygonRings, p.ringVertices, p.coords].map((a) => a.buffer as ArrayBuffer);
+}
+
+/** growable Float64Array / Uint32Array (amortised doubling) */
+class Grow<A extends Float64Array | Uint32Array> {
+  n = 0;
+  constructor(public a: A, private make: (n: number) => A) {}
+  push(v: number): void {
+    if (this.n === this.a.length) {
+      const b = this.make(this.a.length * 2);
+      b.set(this.a);
+      this.a = b;
+    }
+    this.a[this.n++] = v;
+  }
+  done(): A {
+    return this.a.slice(0, this.n) as A;
+  }
+}
+
+/** Map every vertex with toMap(x, y) → [x′, y′] and pack the bands (see PackedBands). */
+export function packContours(bands: readonly ContourBand[], toMap: (x: number, y: number) => Position): PackedBands {
+  let vertices = 0, rings = 0, polys = 0;
+  for (const b of bands)
+    for (const poly of b.polygons) {
+      polys++;
+      for (const r of poly) (rings++), (vertices += r.length);
+    }
+  const coords = new Grow(new Float64Array(Math.max(8, 2 * vertices)), (n) => new Float64Array(n));
+  const ringV = new Grow(new Uint32Array(rings + 1), (n) => new Uint32Array(n));
+  const polyR = new Grow(new Uint32Array(polys + 1), (n) => new Uint32Array(n));
+  const bandP = new Uint32Array(bands.length + 1);
+  const thresholds = new Float64Array(bands.length);
+  ringV.push(0);
+  polyR.push(0);
+  bands.forEach((band, k) => {
+    thresholds[k] = band.threshold;
+    for (const poly of band.polygons) {
+      const ringsBefore = ringV.n;
+      for (let r = 0; r < poly.length; r++) {
+        if (!pushRing(coords, poly[r], toMap, r === 0)) {
+          if (r === 0) break; // exterior collapsed: drop the polygon with its holes
+          continue;
+        }
+        ringV.push(coords.n / 2);
+      }
+      if (ringV.n > ringsBefore) polyR.push(ringV.n - 1);
+    }
+    bandP[k + 1] = polyR.n - 1;
+  });
+  return { thresholds, bandPolygons: bandP, polygonRings: polyR.done(), ringVertices: ringV.done(), coords: coords.done() };
+}
+
+/**
+ * Append one mapped ring to coords, open without repeated vertices, oriented (ccw for an
+ * exterior), then closed; false (and nothing appended) when it has under 3 distinct vertices or
+ * no area. The same steps as orientRing on the mapped ring.
+ */
+function pushRing(out: Grow<Float64Array>, ring: Ring, toMap: (x: number, y: number) => Position, ccw: boolean): boolean {
+  const start = out.n;
+  for (const [x, y] of ring) {
+    const p = toMap(x, y);
+    if (!Array.isArray(p) || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
+      throw new RangeError(`toMap(${x}, ${y}) must return a pair of finite numbers, got ${JSON.stringify(p)}`);
+    const n = out.n;
+    if (n > start && out.a[n - 2] === p[0] && out.a[n - 1] === p[1]) continue;
+    out.push(p[0]);
+    out.push(p[1]);
+  }
+  const a = out.a;
+  // drop closing vertices equal to the first
+  while (out.n - start > 2 && a[start] === a[out.n - 2] && a[start + 1] === a[out.n - 1]) out.n -= 2;
+  const m = (out.n - start) / 2;
+  if (m < 3) {
+    out.n = start;
+    return false;
+  }
+  // signed area, shoelace about the first vertex (as ringArea)
+  const x0 = a[start], y0 = a[start + 1];
+  let s = 0;
+  for (let k = 1; k + 1 < m; k++) {
+    const i = start + 2 * k;
+    s += (a[i] - x0) * (a[i + 3] - y0) - (a[i + 2] - x0) * (a[i + 1] - y0);
+  }
+  const area = s / 2;
+  if (!(area !== 0) || !Number.isFinite(area)) {
+    out.n = start;
+    return false;
+  }
+  if (area > 0 !== ccw) {
+    for (let i = 0, j = m - 1; i < j; i++, j--) {
+      const pi = start + 2 * i, pj = start + 2 * j;
+      const tx = a[pi], ty = a[pi + 1];
+      a[pi] = a[pj];
+      a[pi + 1] = a[pj + 1];
+      a[pj] = tx;
+      a[pj + 1] = ty;
+    }
+  }
+  out.push(out.a[start]);
+  out.push(out.a[start + 1]);
+  return true;
+}
+
+/** The packed bands' rings as GeoJSON positions: polygons of band k. */
+export function packedPolygons(p: PackedBands, k: number): GeoPosition[][][] {
+  const polys: GeoPosition[][][] = [];
+  for (let q = p.bandPolygons[k]; q < p.bandPolygons[k + 1]; q++) {
+    const rings: GeoPosition[][] = [];
+    for (let r = p.polygonRings[q]; r < p.polygonRings[q + 1]; r++) {
+      const ring: GeoPosition[] = [];
+      for (let v = p.ringVertices[r]; v < p.ringVertices[r + 1]; v++) ring.push([p.coords[2 * v], p.coords[2 * v + 1]]);
+      rings.push(ring);
+    }
+    polys.push(rings);
+  }
+  return polys;
+}
+
+/** RFC 7946 FeatureCollection of packed bands (see the module header); props get the band's threshold and index. */
+export function packedToGeoJSON(
+  p: PackedBands,
+  props?: BandProperties | ((band: { threshold: number }, index: number) => BandProperties),
+): FeatureCollection<MultiPolygon> {
+  const features: Feature<MultiPolygon>[] = [];
+  for (let k = 0; k < p.thresholds.length; k++) {
+    if (p.bandPolygons[k + 1] === p.bandPolygons[k]) continue;
+    const threshold = p.thresholds[k];
+    const extra = typeof props === 'function' ? props({ threshold }, k) : props ?? {};
+    features.push({
+      type: 'Feature',
+      geometry: { type: 'MultiPolygon', coordinates: packedPolygons(p, k) },
+      properties: { threshold, unit: 'mg/L', label: bandLabel(threshold), ...extra },
+    });
+  }
+  return { type: 'FeatureCollection', features };
+}
+
+/** RFC 7946 FeatureCollection of the bands (see the module header): packContours, then packedToGeoJSON. */
 export function contoursToGeoJSON(
   bands: readonly ContourBand[],
   toMap: (x: number, y: number) => Position,
   props?: BandProperties | ((band: ContourBand, index: number) => BandProperties),
 ): FeatureCollection<MultiPolygon> {
-  const features: Feature<MultiPolygon>[] = [];
-  bands.forEach((band, index) => {
-    const coordinates: GeoPosition[][][] = [];
-    for (const poly of band.polygons) {
-      const rings: GeoPosition[][] = [];
-      for (let r = 0; r < poly.length; r++) {
-        const mapped = poly[r].map(([x, y]) => {
-          const p = toMap(x, y);
-          if (!Array.isArray(p) || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
-            throw new RangeError(`toMap(${x}, ${y}) must return a pair of finite numbers, got ${JSON.stringify(p)}`);
-          return [p[0], p[1]];
-        });
-        const oriented = orientRing(mapped, r === 0);
-        if (oriented) rings.push(oriented);
-        else if (r === 0) break;
-      }
-      if (rings.length > 0) coordinates.push(rings);
-    }
-    if (coordinates.length === 0) return;
-    const extra = typeof props === 'function' ? props(band, index) : props ?? {};
-    features.push({
-      type: 'Feature',
-      geometry: { type: 'MultiPolygon', coordinates },
-      properties: { threshold: band.threshold, unit: 'mg/L', label: bandLabel(band.threshold), ...extra },
-    });
-  });
-  return { type: 'FeatureCollection', features };
+  return packedToGeoJSON(packContours(bands, toMap), typeof props === 'function' ? (_b, k) => props(bands[k], k) : props);
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { check } from '@placemarkio/check-geojson';
-import { contourBands, contoursToGeoJSON, ringArea, type PolygonSet } from '../../src/geo/contours';
+import { contourBands, contoursToGeoJSON, packContours, packedPolygons, packedToGeoJSON, packedTransferables, ringArea, type PolygonSet } from '../../src/geo/contours';
 import { makeLocalFrame } from '../../src/geo/projection';
 import { fromFlow } from '../../src/geo/flowFrame';
 
@@ -168,5 +168,68 @@ describe('contoursToGeoJSON', () => {
     expect(fc.features.length).toBe(3);
     expect(fc.features[1].properties).toEqual({ threshold: 0.1, unit: 'mg/L', label: '0.1 units', index: 1 });
     expect(() => contoursToGeoJSON(bands, () => [NaN, 0])).toThrow(/toMap/);
+  });
+});
+
+describe('packContours (typed arrays for the worker → page transfer)', () => {
+  const xs = range(-20, 200, 111), ys = range(-60, 60, 61);
+  // an invented field with a hole: a ring-shaped ridge around (80, 0) inside a broad low plateau
+  const field = (x: number, y: number) => {
+    const r = Math.hypot(x - 80, y);
+    return 0.2 * Math.exp(-(x * x + y * y) / 5000) + Math.exp(-((r - 25) ** 2) / 50);
+  };
+  const thresholds = [0.05, 0.5, 2];
+  const bands = contourBands({ values: sample(xs, ys, field), xs, ys, thresholds });
+
+  it('keeps every band (empty ones too) and every ring of contourBands, vertex for vertex under a translation', () => {
+    // a translation keeps the winding, so the rings must come out as contourBands wrote them
+    const packed = packContours(bands, (x, y) => [x + 1000, y - 500]);
+    expect(Array.from(packed.thresholds)).toEqual(thresholds);
+    expect(bands[2].polygons).toEqual([]); // the ridge stays below 2: an empty band
+    expect(packed.bandPolygons[3] - packed.bandPolygons[2]).toBe(0);
+    expect(bands[1].polygons.some((poly) => poly.length > 1)).toBe(true); // the ridge band has a hole
+    for (let k = 0; k < thresholds.length; k++) {
+      const polys = packedPolygons(packed, k);
+      expect(polys.length).toBe(bands[k].polygons.length);
+      polys.forEach((poly, q) => {
+        expect(poly.length).toBe(bands[k].polygons[q].length);
+        poly.forEach((ring, r) => expect(ring).toEqual(bands[k].polygons[q][r].map(([x, y]) => [x + 1000, y - 500])));
+      });
+    }
+    expect(packed.coords.length).toBe(2 * packed.ringVertices[packed.ringVertices.length - 1]);
+  });
+
+  it('writes the same GeoJSON from the arrays as from the bands, valid RFC 7946, holes clockwise', () => {
+    const toMap = (x: number, y: number): [number, number] => [-x, y]; // mirrors: every ring re-oriented
+    const fc = packedToGeoJSON(packContours(bands, toMap), (b, k) => ({ k, multiple: b.threshold / 0.05 }));
+    expect(() => check(JSON.stringify(fc))).not.toThrow();
+    // mirrored, every ring comes out reversed (then closed again) against contourBands'
+    fc.features.forEach((f, k) =>
+      f.geometry.coordinates.forEach((poly, q) =>
+        poly.forEach((ring, r) => {
+          const open = bands[k].polygons[q][r].slice(0, -1).map(([x, y]) => toMap(x, y)).reverse();
+          expect(ring).toEqual([...open, open[0]]);
+        }),
+      ),
+    );
+    expect(fc.features.map((f) => f.properties?.k)).toEqual([0, 1]);
+    for (const f of fc.features)
+      for (const poly of f.geometry.coordinates) {
+        expect(ringArea(poly[0])).toBeGreaterThan(0);
+        for (const hole of poly.slice(1)) expect(ringArea(hole)).toBeLessThan(0);
+      }
+  });
+
+  it('drops rings the map collapses, and survives a transfer (structuredClone with the buffers moved)', () => {
+    // everything mapped onto one line: no area left, so no polygons
+    const flat = packContours(bands, (x) => [x, 0]);
+    expect(Array.from(flat.bandPolygons)).toEqual([0, 0, 0, 0]);
+    const packed = packContours(bands, (x, y) => [x, y]);
+    const copy = Array.from(packed.coords);
+    const buffers = packedTransferables(packed);
+    expect(new Set(buffers).size).toBe(5); // five separate, whole buffers
+    const moved = structuredClone(packed, { transfer: buffers });
+    expect(packed.coords.length).toBe(0); // detached: moved, not copied
+    expect(Array.from(moved.coords)).toEqual(copy);
   });
 });
