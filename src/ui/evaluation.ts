@@ -4,8 +4,10 @@
  * sent to two workers — one draws the plume, one screens the receptors.
  * - Each worker has at most one job in flight; a newer request replaces any waiting one, so fast
  *   typing or dragging never piles up work and the screen always converges on the latest inputs.
- * - The plume goes first: the receptor job for an edit starts when that edit's contours are on
- *   screen, so on a two-core tablet it does not slow the contours down.
+ * - The plume goes first: the contours come back as transferred typed arrays and the map updates
+ *   its band paths at once; the results signal (plume included, for export and the report) is
+ *   republished and the receptor job for an edit starts when that edit's contours are painted,
+ *   so on a two-core tablet neither slows the contours down.
  * - A receptor job overtaken by a newer edit is cancelled: its worker is terminated and replaced
  *   (the exact solution at many receptors can take seconds; its result would be thrown away).
  */
@@ -96,12 +98,18 @@ class LatestOnly<A, R> {
   }
 }
 
+/** One edit's way to the screen; performance.now() times on the page's clock. */
 export interface LatencySample {
-  /** performance.now() when the edit reached the evaluation loop */
+  /** when the edit reached the evaluation loop */
   inputAt: number;
+  /** when the request was posted to the plume worker (later than inputAt if a job was running) */
+  postedAt: number;
+  /** when the worker started and finished the job (its epoch times on the page's clock) */
+  workerStartAt: number;
+  workerEndAt: number;
   /** when the worker's contours arrived on the main thread */
   receivedAt: number;
-  /** when the Leaflet layer was built and added */
+  /** when the band paths were updated in the DOM (the map draws synchronously) */
   layerAt: number;
   /** after the browser painted the frame with the contours (next animation frame + a task) */
   drawnAt: number;
@@ -123,6 +131,7 @@ interface PlumeJob {
   grid: number;
   key: string;
   inputAt: number;
+  postedAt?: number;
 }
 
 /** Start the loop; returns a function that stops it and releases the workers. */
@@ -133,8 +142,7 @@ export function startEvaluation(): () => void {
   let latestEval: Evaluation | null = null;
   let waitingEval: Case | null = null;
 
-  const publish = () => {
-    currentPlume.value = latestPlume;
+  const publishEval = () => {
     if (latestEval) publishResults({ ...latestEval, plume: latestPlume });
   };
   const onFail = (e: unknown) => {
@@ -150,16 +158,35 @@ export function startEvaluation(): () => void {
   };
 
   const plumes: LatestOnly<PlumeJob, PlumeLayer> = new LatestOnly(
-    (j) => plumeWorker.run((api) => api.plume(j.c, j.time, j.grid)),
+    (j) => {
+      const r = plumeWorker.run((api) => api.plume(j.c, j.time, j.grid));
+      j.postedAt = performance.now(); // the message is posted synchronously
+      return r;
+    },
     (p, j) => {
       const receivedAt = performance.now();
       latestPlume = p;
-      publish(); // the map draws the new layer synchronously in its effect
+      currentPlume.value = p; // the map updates the band paths synchronously in its effect
       const layerAt = performance.now();
       afterPaint(() => {
-        latencySamples.push({ inputAt: j.inputAt, receivedAt, layerAt, drawnAt: performance.now(), gridSize: p.gridSize, solution: p.solution, timing: p.timing });
+        const drawnAt = performance.now();
+        const origin = performance.timeOrigin;
+        latencySamples.push({
+          inputAt: j.inputAt,
+          postedAt: j.postedAt ?? j.inputAt,
+          workerStartAt: p.timing.startedAt - origin,
+          workerEndAt: p.timing.finishedAt - origin,
+          receivedAt,
+          layerAt,
+          drawnAt,
+          gridSize: p.gridSize,
+          solution: p.solution,
+          timing: p.timing,
+        });
         if (latencySamples.length > 200) latencySamples.splice(0, 100);
-        // the receptor job starts once the contours are on screen
+        // the results (which carry the plume for export and the report) re-render after the
+        // contours are on screen, and then the receptor job starts
+        publishEval();
         startWaitingEval();
         settle();
       });
@@ -173,7 +200,7 @@ export function startEvaluation(): () => void {
     (c) => resultWorker.run((api) => api.evaluate(c)),
     (e) => {
       latestEval = e;
-      publish();
+      publishEval();
       settle();
     },
     onFail,

@@ -4,14 +4,14 @@
  *   receptor and the centreline profile, both solutions, in internal units.
  * - plumeForCase: the concentration lattice at the view time on the flow-aligned frame
  *   (core concentrationGrid), filled contours at the limit and its multiples (src/geo/contours.ts
- *   over d3-contour), mapped to the case's map coordinates as GeoJSON.
+ *   over d3-contour), mapped to the case's map coordinates and packed into typed arrays.
  * No DOM here: both run under the WebWorker lib (tsconfig.worker.json).
  */
 import type { Case } from '../case/schema';
 import { screenCase } from '../case/screen';
 import { prepareCase, type PreparedCase } from '../case/prepare';
 import { breakthroughCurve, concentrationGrid, plumeLength, sampleTimes, concentration, type ScreeningModel } from '../core';
-import { contourBands, contoursToGeoJSON } from '../geo/contours';
+import { contourBands, packContours } from '../geo/contours';
 import type { Evaluation, PlumeLayer, ReceptorRow } from './protocol';
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
@@ -173,10 +173,19 @@ export function bandThresholds(limit: number, c0: number): number[] {
   return BAND_MULTIPLES.map((k) => k * limit).filter((t) => t < c0);
 }
 
-/** Contours at time t (d; Infinity: steady state) on a gridSize × gridSize lattice. */
-export function plumeForCase(c: Case, t: number | null, gridSize: number, lattice?: Lattice): PlumeLayer {
+/** performance.now() as milliseconds since the epoch, comparable across the page and its workers */
+export const epochNow = (): number => (typeof performance !== 'undefined' ? performance.timeOrigin + performance.now() : Date.now());
+
+/**
+ * Contours at time t (d; Infinity: steady state) on a gridSize × gridSize lattice, as packed map
+ * coordinates (src/geo/contours.ts PackedBands: typed arrays the worker transfers, not clones);
+ * `plumeGeoJSON(layer)` (src/ui/results.ts) gives them as RFC 7946 GeoJSON for export.
+ * `prepared` and `lattice` may be passed in when the caller already has them for this case.
+ */
+export function plumeForCase(c: Case, t: number | null, gridSize: number, lattice?: Lattice, prepared?: PreparedCase): PlumeLayer {
+  const startedAt = epochNow();
   const t0 = now();
-  const p = prepareCase(c);
+  const p = prepared ?? prepareCase(c);
   const time = t ?? p.viewTime;
   const lat = lattice ?? latticeFor(p, gridSize);
   const t1 = now();
@@ -185,17 +194,18 @@ export function plumeForCase(c: Case, t: number | null, gridSize: number, lattic
   const thresholds = bandThresholds(p.limit, p.model.c0);
   const crop = thresholds.length ? cropToBands(values, lat.xs, lat.ys, thresholds[0]) : null;
   const bands = crop ? contourBands({ ...crop, thresholds }) : thresholds.map((threshold) => ({ threshold, polygons: [] }));
-  const geojson = contoursToGeoJSON(bands, p.toMap, (b) => ({ multiple: b.threshold / p.limit })) as PlumeLayer['geojson'];
+  const packed = packContours(bands, p.toMap);
   const t3 = now();
   return {
     caseStamp: c.modified,
     solution: p.model.solution,
     time,
     depth: p.depth,
+    limit: p.limit,
     thresholds,
-    geojson,
+    bands: packed,
     extent: lat.extent,
     gridSize: lat.xs.length,
-    timing: { gridMs: t2 - t1, contourMs: t3 - t2, totalMs: t3 - t0 },
+    timing: { prepareMs: t1 - t0, gridMs: t2 - t1, contourMs: t3 - t2, totalMs: t3 - t0, startedAt, finishedAt: epochNow() },
   };
 }

@@ -4,7 +4,7 @@
  * Produced in the worker (src/worker/screening.ts) from src/case/screen.ts and src/core, read by
  * the screen and the report through `currentResults` (src/ui/state.ts).
  */
-import type { FeatureCollection, MultiPolygon } from 'geojson';
+import type { PackedBands } from '../geo/contours';
 import type { ExportReceptorResult } from '../case/export-results';
 
 export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-horizon';
@@ -40,14 +40,25 @@ export interface PlumeLayer {
   time: number;
   /** depth of the map slice below the water table, m */
   depth: number;
+  /** the limit, mg/L (properties.multiple of the GeoJSON bands = threshold / limit) */
+  limit: number;
   thresholds: number[];
-  /** one MultiPolygon feature per non-empty band C ≥ threshold; properties.multiple = threshold / limit */
-  geojson: FeatureCollection<MultiPolygon, { threshold: number; multiple: number; label: string }>;
+  /**
+   * the bands C ≥ threshold, one per threshold (possibly empty), in map coordinates as typed
+   * arrays (transferred from the worker, not cloned); `plumeGeoJSON` (src/ui/results.ts) gives
+   * the RFC 7946 FeatureCollection, one MultiPolygon feature per non-empty band
+   */
+  bands: PackedBands;
   /** flow-frame extent of the lattice, m */
   extent: { x0: number; x1: number; y0: number; y1: number };
   gridSize: number;
-  /** worker-side milliseconds: lattice values (the engine's pure compute), contouring, everything */
-  timing: { gridMs: number; contourMs: number; totalMs: number };
+  /**
+   * worker-side milliseconds: case preparation and lattice, lattice values (the engine's pure
+   * compute), contouring and packing, everything; and when the job started and finished
+   * (milliseconds since the epoch, performance.timeOrigin + performance.now(), comparable with
+   * the page's clock)
+   */
+  timing: { prepareMs: number; gridMs: number; contourMs: number; totalMs: number; startedAt: number; finishedAt: number };
 }
 
 export interface Evaluation {

@@ -12,6 +12,7 @@ import { screenCase } from '../../src/case/screen';
 import { concentrationGrid } from '../../src/core';
 import { contourBands, ringArea } from '../../src/geo/contours';
 import { bandThresholds, cropToBands, evaluateCase, latticeFor, plumeForCase } from '../../src/worker/compute';
+import { plumeGeoJSON } from '../../src/ui/results';
 import type { Case } from '../../src/case/schema';
 
 const demos: [string, Case][] = readdirSync('cases')
@@ -64,11 +65,12 @@ describe('plume layer', () => {
   it.each(demos)('is valid RFC 7946 GeoJSON and its limit band ends where the plume length says (%s)', (_, c) => {
     const grid = 160;
     const layer = plumeForCase(c, null, grid);
-    expect(() => check(JSON.stringify(layer.geojson))).not.toThrow();
+    const geojson = plumeGeoJSON(layer);
+    expect(() => check(JSON.stringify(geojson))).not.toThrow();
     const s = screenCase(c);
     const p = s.prepared;
     const reach = s.plumeLength.atViewTime;
-    const limitBand = layer.geojson.features.find((f) => f.properties.multiple === 1);
+    const limitBand = geojson.features.find((f) => f.properties.multiple === 1);
     if (reach === null) {
       expect(limitBand).toBeUndefined();
       return;

@@ -8,7 +8,7 @@
 import type { Case } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import type { PreparedCase } from '../../case/prepare';
-import type { Evaluation } from '../results';
+import { plumeGeoJSON, type Evaluation } from '../results';
 
 const W = 680;
 const H = 420;
@@ -30,7 +30,7 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
   if (foot) pts.push(...foot);
   const recs = c.site.receptors.map((r) => ({ name: r.name, p: en(r.position), id: r.id }));
   pts.push(...recs.map((r) => r.p));
-  const bands = (results?.plume?.geojson.features ?? []).map((f) => ({
+  const bands = (results?.plume ? plumeGeoJSON(results.plume).features : []).map((f) => ({
     threshold: f.properties.threshold,
     polys: f.geometry.coordinates.map((poly) => poly.map((ring) => ring.map(en))),
   }));

@@ -5,7 +5,8 @@ import type { Case } from '../../case/schema';
 import { serializeCase } from '../../case/io';
 import { caseToGeoJSON } from '../../case/export-geojson';
 import { breakthroughCsv, fileStem, receptorTableCsv } from '../../case/export-csv';
-import type { Evaluation } from '../results';
+import { plumeGeoJSON, type Evaluation } from '../results';
+import type { ExportResults } from '../../case/export-results';
 import type { OutFile } from './download';
 import { APP_VERSION } from './version';
 
@@ -14,6 +15,11 @@ export type Built = { ok: true; file: OutFile } | { ok: false; error: string };
 /** Results belong to this case only if they were computed from its current inputs. */
 export function resultsFor(c: Case, r: Evaluation | null): Evaluation | null {
   return r && r.caseId === c.id && r.caseStamp === c.modified ? r : null;
+}
+
+/** The results in the export layer's shape: the plume's bands as GeoJSON. */
+function forExport(r: Evaluation): ExportResults {
+  return { ...r, plume: r.plume && { time: r.plume.time, geojson: plumeGeoJSON(r.plume) } };
 }
 
 const NOT_READY = 'Results for the current inputs are not ready yet (or the inputs are not valid); wait for them, then export.';
@@ -25,7 +31,7 @@ export function caseFile(c: Case): Built {
 export function geojsonFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `GeoJSON: ${NOT_READY}` };
-  const out = caseToGeoJSON(c, res, { appVersion: APP_VERSION });
+  const out = caseToGeoJSON(c, forExport(res), { appVersion: APP_VERSION });
   if (!out.ok) return out;
   return { ok: true, file: { name: `${fileStem(c)}.geojson`, type: 'application/geo+json', text: out.text } };
 }
@@ -33,12 +39,12 @@ export function geojsonFile(c: Case, r: Evaluation | null): Built {
 export function receptorCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Receptor table: ${NOT_READY}` };
-  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res) } };
+  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(forExport(res)) } };
 }
 
 export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Breakthrough curves: ${NOT_READY}` };
   if (res.receptors.length === 0) return { ok: false, error: 'Breakthrough curves: the case has no receptors yet.' };
-  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res) } };
+  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(forExport(res)) } };
 }

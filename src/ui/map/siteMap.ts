@@ -41,7 +41,8 @@ export class SiteMap {
   private flowHandle: L.Marker;
   private receptors = new Map<string, L.Marker>();
   private heads = new Map<string, L.Marker>();
-  private plume: L.GeoJSON | null = null;
+  /** the plume's band paths by band index (see syncPlume) */
+  private bands: L.Polygon[] = [];
   private plumeDrawn: PlumeLayer | null = null;
   private tracing: L.LatLng[] | null = null;
   private traceLine: L.Polyline;
@@ -104,11 +105,11 @@ export class SiteMap {
         // the source plane the solutions use: across the flow at the release, the width they use
         const p = preparedCase.value;
         if (!p) {
-          this.sourcePlane.setLatLngs([]);
+          setPathLatLngs(this.sourcePlane, []);
           return;
         }
         const w = p.derived.width / 2;
-        this.sourcePlane.setLatLngs([toLatLng(p.toMap(0, -w)), toLatLng(p.toMap(0, w))]);
+        setPathLatLngs(this.sourcePlane, [toLatLng(p.toMap(0, -w)), toLatLng(p.toMap(0, w))]);
       }),
     );
     this.disposers.push(effect(() => this.syncFlowArrow(currentCase.value, currentResults.value?.derived.azimuthDeg ?? null)));
@@ -191,7 +192,7 @@ export class SiteMap {
   private syncCase(c: Case, sel: string | null, results: Evaluation | null): void {
     const src = c.site.source;
     if (!this.source.getLatLng().equals(toLatLng(src.position))) this.source.setLatLng(toLatLng(src.position));
-    this.footprint.setLatLngs(src.footprint ? src.footprint.map(toLatLng) : []);
+    setPathLatLngs(this.footprint, src.footprint ? src.footprint.map(toLatLng) : []);
 
     const seen = new Set<string>();
     for (const r of c.site.receptors) {
@@ -245,7 +246,7 @@ export class SiteMap {
     const az = c.site.flow.method === 'direction' ? c.site.flow.azimuthDeg : fittedAzimuth;
     const from = toLatLng(c.site.source.position);
     if (az === null || !Number.isFinite(az) || !this.map.getSize().x) {
-      this.flowLine.setLatLngs([]);
+      setPathLatLngs(this.flowLine, []);
       this.flowHandle.remove();
       return;
     }
@@ -257,7 +258,7 @@ export class SiteMap {
     const barb = (s: number) => this.map.containerPointToLatLng(tip.subtract(dir.multiplyBy(16)).add(side.multiplyBy(9 * s)));
     const tipLL = this.map.containerPointToLatLng(tip);
     const startLL = this.map.containerPointToLatLng(p0.add(dir.multiplyBy(24)));
-    this.flowLine.setLatLngs([[startLL, tipLL], [barb(1), tipLL, barb(-1)]]);
+    setPathLatLngs(this.flowLine, [[startLL, tipLL], [barb(1), tipLL, barb(-1)]]);
     if (c.site.flow.method === 'direction') {
       if (!this.dragging) this.flowHandle.setLatLng(this.map.containerPointToLatLng(p0.add(dir.multiplyBy(ARROW_PX + 22))));
       if (!this.map.hasLayer(this.flowHandle)) this.flowHandle.addTo(this.map);
@@ -265,24 +266,42 @@ export class SiteMap {
   }
   private dragging = false;
 
+  /**
+   * The plume bands: one SVG path per non-empty band, kept from one result to the next (the path
+   * is updated in place, not rebuilt), drawn from the worker's packed coordinates without
+   * building GeoJSON. SVG rather than canvas: the band colours come from the stylesheet (light
+   * and dark themes) by class. Order as the bands' index: the limit band last, on top, so the
+   * inner bands show through its translucent fill.
+   */
   private syncPlume(p: PlumeLayer | null): void {
     if (p === this.plumeDrawn) return;
     this.plumeDrawn = p;
-    this.plume?.remove();
-    this.plume = null;
-    if (!p) return;
-    const n = p.thresholds.length;
-    this.plume = L.geoJSON(p.geojson, {
-      interactive: false,
-      style: (f) => {
-        const k = p.thresholds.indexOf((f?.properties as { threshold: number }).threshold);
-        return { className: `dg-band dg-band-${Math.min(k, 3)}`, weight: k === 0 ? 2.5 : 1.5, fillOpacity: 0.45 + (0.4 * k) / Math.max(1, n) };
-      },
-    });
-    this.plume.addTo(this.map);
-    this.plume.bringToBack();
+    const n = p ? p.thresholds.length : 0;
+    let reorder = false;
+    for (let k = 0; k < Math.max(n, this.bands.length); k++) {
+      const latlngs = p && k < n ? bandLatLngs(p, k) : [];
+      let band = this.bands[k];
+      if (latlngs.length === 0) {
+        if (band && this.map.hasLayer(band)) band.remove();
+        continue;
+      }
+      const style = { fillOpacity: 0.45 + (0.4 * k) / Math.max(1, n) };
+      if (!band) {
+        band = L.polygon(latlngs, { interactive: false, className: `dg-band dg-band-${Math.min(k, 3)}`, weight: k === 0 ? 2.5 : 1.5, ...style });
+        this.bands[k] = band;
+      } else {
+        band.setLatLngs(latlngs);
+        if (band.options.fillOpacity !== style.fillOpacity) band.setStyle(style);
+      }
+      if (!this.map.hasLayer(band)) {
+        band.addTo(this.map);
+        reorder = true;
+      }
+    }
+    // each band in turn to the back: the highest lowest, the limit band on top of them
+    if (reorder) for (const band of this.bands) if (band && this.map.hasLayer(band)) band.bringToBack();
     const done = this.onPlumeDrawn;
-    if (done) requestAnimationFrame(() => done(p));
+    if (done && p) requestAnimationFrame(() => done(p));
   }
 
   // ---- gestures --------------------------------------------------------------------------
@@ -410,6 +429,34 @@ export class SiteMap {
       if (d.site.flow.method === 'direction') d.site.flow.azimuthDeg = az;
     });
   }
+}
+
+const pathKeys = new WeakMap<L.Path, string>();
+/**
+ * setLatLngs only when the points changed: every edit re-derives the release outline, source
+ * plane and flow arrow, and rewriting an unchanged SVG path makes the browser repaint the map.
+ */
+function setPathLatLngs(line: L.Polyline | L.Polygon, latlngs: L.LatLng[] | L.LatLng[][]): void {
+  const key = (latlngs as (L.LatLng | L.LatLng[])[]).map((a) => (Array.isArray(a) ? a.map((ll) => `${ll.lat},${ll.lng}`).join(';') : `${a.lat},${a.lng}`)).join('|');
+  if (pathKeys.get(line) === key) return;
+  pathKeys.set(line, key);
+  line.setLatLngs(latlngs);
+}
+
+/** Band k of the plume as Leaflet polygons (rings without the closing vertex, which Leaflet drops). */
+function bandLatLngs(p: PlumeLayer, k: number): L.LatLng[][][] {
+  const { bandPolygons, polygonRings, ringVertices, coords } = p.bands;
+  const out: L.LatLng[][][] = [];
+  for (let q = bandPolygons[k]; q < bandPolygons[k + 1]; q++) {
+    const rings: L.LatLng[][] = [];
+    for (let r = polygonRings[q]; r < polygonRings[q + 1]; r++) {
+      const ring: L.LatLng[] = [];
+      for (let v = ringVertices[r]; v < ringVertices[r + 1] - 1; v++) ring.push(L.latLng(coords[2 * v + 1], coords[2 * v]));
+      rings.push(ring);
+    }
+    out.push(rings);
+  }
+  return out;
 }
 
 function clampLL(ll: L.LatLng, local: boolean): Position {
