@@ -1,21 +1,36 @@
 // UI latency: from an input change to the redrawn plume contours on a 256 × 256 lattice, beside
-// the engine's pure compute time for the same lattice, as a ratio (target: overhead under 1.5×).
+// the engine's pure compute time for the same lattice, as ratios (target: overhead under 1.5×).
 //
-// What is timed, in one run (nothing here asserts on time):
-//   latency  performance.now() in the page just before the input event is dispatched on the
-//            source-concentration field → after the contours are on the map and the browser has
-//            painted (the screen's own sample: next animation frame + a task). It includes case
-//            preparation on the main thread, the message to the plume worker, the lattice
-//            values, contouring (d3-contour via src/geo/contours.ts), GeoJSON back to the page,
-//            the Leaflet layer and the paint — everything the user waits for. The receptor
-//            worker runs at the same time, as it does in use.
-//   compute  the lattice values alone (core concentrationGrid, the same lattice, model and time),
-//            measured inside the worker during the same runs, and again in Node on this machine
-//            (median of repetitions after warm-up) as an outside check of the same figure.
-// Ratio = median latency / median in-worker compute. Domenico and the exact solution separately.
+// What is timed, in one run (nothing here asserts on time). t0 is performance.now() in the page
+// just before the input event is dispatched on the source-concentration field; the screen's own
+// sample (src/ui/evaluation.ts LatencySample) gives the rest, on the page's clock:
+//   to contours in the DOM   t0 → the band paths updated in the map's SVG: the input handler and
+//                            case edit, validation on the main thread, the message to the plume
+//                            worker, case preparation there, the lattice values, contouring
+//                            (d3-contour via src/geo/contours.ts) and packing into typed arrays,
+//                            the transfer back, the Leaflet path update.
+//   to painted (next frame)  t0 → after the browser painted the frame holding them (next
+//                            animation frame + a task): what the user waits for. (This is the
+//                            figure earlier versions printed as "input→contours".)
+//   compute                  the lattice values alone (core concentrationGrid, the same lattice,
+//                            model and time), measured inside the worker during the same runs, and
+//                            again in Node on this machine (median of repetitions after warm-up) as
+//                            an outside check of the same figure.
+// Ratios = median latency / median in-worker compute. Domenico and the exact solution separately.
+// The breakdown splits each sample at the posting of the request, the worker's start and end (its
+// clock, performance.timeOrigin + now(), converted to the page's), the arrival of the result, the
+// DOM update and the paint; medians of the parts need not add up to the median of the whole.
+// The receptor worker runs at the same time, as it does in use.
 //
-// Usage: node bench/ui-latency.mjs [--runs 12] [--grid 256]. `npm run bench` can call it after the
-// engine benchmark (it builds the app into a temporary folder and drives Debian's chromium).
+// A display paints on its own frame cadence (about 16.7 ms at 60 Hz; the measured animation-frame
+// interval is printed). Contours finished at a random moment wait on average half a frame, up to
+// a whole one, for the next paint, however fast they were computed. When the compute takes a few
+// ms, this alone bounds "painted / compute" far above 1.5× (at 1 ms compute, ~8 ms of frame wait
+// is ~9×); "DOM / compute" is the part of the overhead the app itself controls.
+//
+// Usage: node bench/ui-latency.mjs [--runs 12] [--grid 256] [--json file]. `npm run bench` calls it
+// after the engine benchmark (it builds the app into a temporary folder and drives Debian's
+// chromium).
 import { build as viteBuild, preview } from 'vite';
 import { build as esbuild } from 'esbuild';
 import { chromium } from 'playwright-core';
@@ -107,6 +122,7 @@ async function main() {
     args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   });
   const rows = [];
+  let frameMs = NaN;
   try {
     const context = await browser.newContext({ viewport: { width: 1024, height: 768 }, hasTouch: true });
     // no basemap (nothing but the app is contacted) and the lattice size under test
@@ -139,6 +155,10 @@ async function main() {
             if (got)
               return {
                 latency: got.drawnAt - t0,
+                toDom: got.layerAt - t0,
+                toPosted: got.postedAt - t0,
+                toWorkerStart: got.workerStartAt - got.postedAt,
+                workerToPage: got.receivedAt - got.workerEndAt,
                 toWorkerResult: got.receivedAt - t0,
                 layer: got.layerAt - got.receivedAt,
                 paint: got.drawnAt - got.layerAt,
@@ -153,15 +173,34 @@ async function main() {
         if (k >= WARMUP) samples.push(s);
       }
       const c = await page.evaluate(() => globalThis.__downgradient.currentCase());
-      const latency = median(samples.map((s) => s.latency));
+      const med = (f) => median(samples.map(f));
+      const latency = med((s) => s.latency);
+      const toDom = med((s) => s.toDom);
+      const toPosted = med((s) => s.toPosted);
+      const toWorkerStart = med((s) => s.toWorkerStart);
+      const prepare = med((s) => s.timing.prepareMs);
+      const workerToPage = med((s) => s.workerToPage);
       const workerGrid = median(samples.map((s) => s.timing.gridMs));
       const contour = median(samples.map((s) => s.timing.contourMs));
       const workerTotal = median(samples.map((s) => s.timing.totalMs));
       const toWorkerResult = median(samples.map((s) => s.toWorkerResult));
       const layer = median(samples.map((s) => s.layer));
       const paint = median(samples.map((s) => s.paint));
-      rows.push({ solution, latency, workerGrid, contour, workerTotal, toWorkerResult, layer, paint, node: nodeCompute(ref, c), n: samples.length });
+      rows.push({ solution, latency, toDom, toPosted, toWorkerStart, prepare, workerToPage, workerGrid, contour, workerTotal, toWorkerResult, layer, paint, node: nodeCompute(ref, c), n: samples.length, samples });
     }
+    // the display's frame cadence: median interval between animation frames over about a second
+    frameMs = await page.evaluate(
+      () =>
+        new Promise((done) => {
+          const ts = [];
+          const tick = (t) => {
+            ts.push(t);
+            if (ts.length < 61) requestAnimationFrame(tick);
+            else done(ts.slice(1).map((x, i) => x - ts[i]).sort((a, b) => a - b)[30]);
+          };
+          requestAnimationFrame(tick);
+        }),
+    );
     await context.close();
   } finally {
     await browser.close();
@@ -170,19 +209,26 @@ async function main() {
   }
 
   console.log(`UI latency: input change → contours redrawn, ${GRID} × ${GRID} lattice, ${RUNS} changes each (medians), ${cpus().length} cores, headless chromium without GPU`);
-  const head = ['solution', 'input→contours', 'grid compute (worker)', 'grid compute (Node)', 'contouring', 'worker total', 'latency / compute', 'target ≤ 1.5×'];
-  const body = rows.map((r) => {
-    const ratio = r.latency / r.workerGrid;
-    return [r.solution, ms(r.latency), ms(r.workerGrid), ms(r.node), ms(r.contour), ms(r.workerTotal), `${ratio.toFixed(2)}×`, ratio <= 1.5 ? 'met' : 'NOT met'];
-  });
-  printTable(head, body);
-  console.log('where the time goes (medians): input → worker result back on the page | Leaflet layer | wait for paint');
+  const verdict = (r) => (r <= 1.5 ? 'met' : 'NOT met');
+  printTable(
+    ['solution', 'to contours in DOM', 'to painted (next frame)', 'grid compute (worker)', 'grid compute (Node)', 'DOM / compute', 'painted / compute', 'target ≤ 1.5× (DOM | painted)'],
+    rows.map((r) => {
+      const dom = r.toDom / r.workerGrid, painted = r.latency / r.workerGrid;
+      return [r.solution, ms(r.toDom), ms(r.latency), ms(r.workerGrid), ms(r.node), `${dom.toFixed(2)}×`, `${painted.toFixed(2)}×`, `${verdict(dom)} | ${verdict(painted)}`];
+    }),
+  );
+  console.log(`display frame interval (animation frames, median): ${ms(frameMs)}; a paint waits up to one of these for its frame`);
+  console.log('where the time goes (medians of each part; they need not add up to the median total):');
+  printTable(
+    ['solution', 'input → posted', 'message → worker', 'prepare', 'grid', 'contouring', 'worker total', 'worker → page', 'DOM update', 'paint wait'],
+    rows.map((r) => [r.solution, ms(r.toPosted), ms(r.toWorkerStart), ms(r.prepare), ms(r.workerGrid), ms(r.contour), ms(r.workerTotal), ms(r.workerToPage), ms(r.layer), ms(r.paint)]),
+  );
   printTable(
     ['solution', 'to worker result', 'of which in worker', 'layer', 'paint'],
     rows.map((r) => [r.solution, ms(r.toWorkerResult), ms(r.workerTotal), ms(r.layer), ms(r.paint)]),
   );
   const json = process.argv.indexOf('--json');
-  if (json >= 0) writeFileSync(process.argv[json + 1], JSON.stringify({ grid: GRID, runs: RUNS, rows }, null, 2));
+  if (json >= 0) writeFileSync(process.argv[json + 1], JSON.stringify({ grid: GRID, runs: RUNS, frameMs, rows }, null, 2));
 }
 
 main().catch((e) => {
