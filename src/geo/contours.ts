@@ -204,53 +204,22 @@ export function packContours(bands: readonly ContourBand[], toMap: (x: number, y
 }
 
 /**
- * Append one mapped ring to coords, open without repeated vertices, oriented (ccw for an
- * exterior), then closed; false (and nothing appended) when it has under 3 distinct vertices or
- * no area. The same steps as orientRing on the mapped ring.
+ * Append one ring, mapped by toMap and oriented by orientRing (ccw for an exterior, closed), to
+ * coords; false (and nothing appended) when orientRing finds under 3 distinct vertices or no area.
  */
 function pushRing(out: Grow<Float64Array>, ring: Ring, toMap: (x: number, y: number) => Position, ccw: boolean): boolean {
-  const start = out.n;
-  for (const [x, y] of ring) {
+  const mapped = ring.map(([x, y]): [number, number] => {
     const p = toMap(x, y);
     if (!Array.isArray(p) || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
       throw new RangeError(`toMap(${x}, ${y}) must return a pair of finite numbers, got ${JSON.stringify(p)}`);
-    const n = out.n;
-    if (n > start && out.a[n - 2] === p[0] && out.a[n - 1] === p[1]) continue;
-    out.push(p[0]);
-    out.push(p[1]);
+    return [p[0], p[1]];
+  });
+  const oriented = orientRing(mapped, ccw);
+  if (!oriented) return false;
+  for (const [x, y] of oriented) {
+    out.push(x);
+    out.push(y);
   }
-  const a = out.a;
-  // drop closing vertices equal to the first
-  while (out.n - start > 2 && a[start] === a[out.n - 2] && a[start + 1] === a[out.n - 1]) out.n -= 2;
-  const m = (out.n - start) / 2;
-  if (m < 3) {
-    out.n = start;
-    return false;
-  }
-  // signed area, shoelace about the first vertex (as ringArea)
-  const x0 = a[start], y0 = a[start + 1];
-  let s = 0;
-  for (let k = 1; k + 1 < m; k++) {
-    const i = start + 2 * k;
-    s += (a[i] - x0) * (a[i + 3] - y0) - (a[i + 2] - x0) * (a[i + 1] - y0);
-  }
-  const area = s / 2;
-  if (!(area !== 0) || !Number.isFinite(area)) {
-    out.n = start;
-    return false;
-  }
-  if (area > 0 !== ccw) {
-    for (let i = 0, j = m - 1; i < j; i++, j--) {
-      const pi = start + 2 * i, pj = start + 2 * j;
-      const tx = a[pi], ty = a[pi + 1];
-      a[pi] = a[pj];
-      a[pi + 1] = a[pj + 1];
-      a[pj] = tx;
-      a[pj + 1] = ty;
-    }
-  }
-  out.push(out.a[start]);
-  out.push(out.a[start + 1]);
   return true;
 }
 
