@@ -63,7 +63,7 @@ const STATUS_WORDS: Record<string, string> = {
   'not-reached-in-horizon': 'not reached within the horizon',
 };
 
-export function receptorTableCsv(r: ExportResults): string {
+export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
   const rows: Cell[][] = r.receptors.map((x) => [
     x.name,
     x.kind,
@@ -87,7 +87,7 @@ export function receptorTableCsv(r: ExportResults): string {
 }
 
 /** Breakthrough curves: one row per time, one column per receptor (and the other solution's). */
-export function breakthroughCsv(r: ExportResults): string {
+export function breakthroughCsv(r: Omit<ExportResults, 'plume'>): string {
   const times = r.curveTimes ? Array.from(r.curveTimes) : [];
   const alt = otherSolution(r.solution);
   const header: Cell[] = ['time (d)', 'time (yr)'];

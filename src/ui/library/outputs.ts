@@ -39,12 +39,12 @@ export function geojsonFile(c: Case, r: Evaluation | null): Built {
 export function receptorCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Receptor table: ${NOT_READY}` };
-  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(forExport(res)) } };
+  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res) } };
 }
 
 export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Breakthrough curves: ${NOT_READY}` };
   if (res.receptors.length === 0) return { ok: false, error: 'Breakthrough curves: the case has no receptors yet.' };
-  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(forExport(res)) } };
+  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res) } };
 }
