@@ -16,6 +16,7 @@ import type { DepthSpan } from './solutions/spread';
 import { depthFactor, spreadFactor } from './solutions/spread';
 import { domenicoGridInto, domenicoPoint, isSymmetric, type DomenicoParams } from './solutions/domenico';
 import { exactColumn, exactSeries, type ExactOptions, type PatchParams } from './solutions/patchSource';
+import { exactGridShared } from './solutions/patchGrid';
 import type { ScreeningModel, SolutionKind } from './model';
 
 export interface Kinetics {
@@ -83,7 +84,10 @@ function unitGrid(
   const sym = ny > 1 && isSymmetric(ys);
   const half = sym ? Math.floor(ny / 2) : 0;
   const ysEval = sym ? Array.prototype.slice.call(ys, half) : ys;
-  let worst = 0;
+  // nodes shared by all columns (patchGrid.ts); the per-column method where that does not apply
+  const report = { errorEstimate: 0, fallbackColumns: 0 };
+  const shared = p.Dx > 0 && exactGridShared(xs, ysEval, depth, t, p, logScale, out, ny, half, opts, report);
+  let worst = report.errorEstimate;
   for (let i = 0; i < xs.length; i++) {
     const x = xs[i];
     const row = i * ny;
@@ -92,8 +96,10 @@ function unitGrid(
       for (let j = 0; j < ny; j++) out[row + j] = limitCase(x, ys[j], depth, t, p, logScale);
       continue;
     }
-    const r = exactColumn(x, ysEval, depth, t, p, logScale, out, row + half, 1, opts);
-    if (r.errorEstimate > worst) worst = r.errorEstimate;
+    if (!shared) {
+      const r = exactColumn(x, ysEval, depth, t, p, logScale, out, row + half, 1, opts);
+      if (r.errorEstimate > worst) worst = r.errorEstimate;
+    }
     if (sym) for (let j = 0; j < half; j++) out[row + j] = out[row + ny - 1 - j];
   }
   return worst;

@@ -101,7 +101,7 @@ interface Panel {
 }
 
 /** The column's fixed quantities: x, u, √Dx and the declining-source reference time. */
-interface ColumnSetup {
+export interface ColumnSetup {
   x: number;
   u: number;
   sqrtDx: number;
@@ -109,8 +109,8 @@ interface ColumnSetup {
   t: number;
 }
 
-/** τ(w): the positive root s = √τ of u·s² + 2w√Dx·s − x = 0, without cancellation. */
-function tauOf(w: number, c: ColumnSetup): number {
+/** τ(w): the positive root s = √τ of u·s² + 2w√Dx·s − x = 0, without cancellation (∞ for w < 0 when u = 0). */
+export function tauOf(w: number, c: ColumnSetup): number {
   const wd = w * c.sqrtDx;
   const q = Math.sqrt(wd * wd + c.u * c.x);
   const s = w >= 0 ? c.x / (wd + q) : (q - wd) / c.u;
