@@ -18,8 +18,12 @@
  * On the flow-aligned grid the three factors separate: an x-only term (one erfc per column), an
  * x–z term (two erf per column) and an x–y term (two erf per cell; one when the y values are
  * symmetric about 0, by mirroring). So a grid costs at most two error-function calls per cell.
+ * When the y values are evenly spaced (as on map lattices) the lateral arguments of a column are
+ * themselves a lattice, and its error functions come from erfLattice (special/erfLattice.ts):
+ * no exponential per cell, 5e-13 relative accuracy (instead of Cody's few ulp), with the lattice
+ * arguments u0 + j·du differing from (y_j ± W/2)/s by the rounding of the y values (≤ 8ε·max|y|).
  */
-import { depthFactor, erfRatioSafe, spreadFactor, type DepthSpan } from './spread';
+import { depthFactor, erfRatioSafe, lateralLattice, spreadFactor, uniformStep, type DepthSpan } from './spread';
 import { erfDiff } from '../special/erf';
 import { lnCdf, pistonCdf } from './oneD';
 
@@ -86,6 +90,7 @@ export function domenicoGridInto(
   const ny = ys.length;
   const sym = ny > 1 && isSymmetric(ys);
   const jStart = sym ? Math.floor(ny / 2) : 0;
+  const dy = uniformStep(ys);
   const h = 0.5 * p.width;
   for (let i = 0; i < nx; i++) {
     const x = xs[i];
@@ -98,7 +103,9 @@ export function domenicoGridInto(
       continue;
     }
     const s = 2 * Math.sqrt(p.ay * Math.max(x, 0));
-    if (s > 0) {
+    if (s > 0 && dy > 0) {
+      lateralLattice(ys[0], dy, ny, h, s, sym, jStart, XZ, out, row);
+    } else if (s > 0) {
       const inv = 1 / s;
       for (let j = jStart; j < ny; j++) {
         const y = ys[j];

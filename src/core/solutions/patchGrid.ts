@@ -20,7 +20,7 @@
  *
  * Window (truncation, bounded): in the Gaussian variable w = (x − uτ)/(2√(Dxτ)) the measure
  * g_x dτ is (2/√π)e^{−w²}·x/(x + uτ) dw ≤ (2/√π)e^{−w²} dw and 0 ≤ Y, Z, e^{−γ(t−τ)} ≤ 1, so
- * leaving out |w| > W_WIN loses at most erfc(W_WIN) ≈ 2.2e-17 (×2, both ends) of C/C0 per column
+ * leaving out |w| > W_WIN = 5.5 loses at most erfc(5.5) ≈ 7.4e-15 (×2, both ends) of C/C0 per column
  * (before the column's scale). At a finite horizon the top of the s-axis is cut where the remaining
  * time t·exp(−e^s) carries at most (2/√π)·(x + ut)/(4√(Dx t))·exp(−e^s) ≤ 1e-18; both bounds are
  * added to the column's error estimate.
@@ -34,13 +34,13 @@
  * first-passage peak: in s it has a standard deviation of about √(2Dx/(u·x)) (the inverse
  * Gaussian's coefficient of variation), and the finest spacing is a quarter of it or less.
  */
-import { depthFactor, erfRatioSafe, type DepthSpan } from './spread';
+import { depthFactor, erfRatioSafe, lateralLattice, uniformStep, type DepthSpan } from './spread';
 import { erfDiff } from '../special/erf';
 import { exactColumn, tauOf, type PatchParams } from './patchSource';
 import { uMinusV } from './oneD';
 
-const W_WIN = 6;
-const ERFC_W_WIN = 2.1519736712498913e-17; // erfc(6)
+const W_WIN = 5.5;
+const ERFC_W_WIN = 7.357847917974398e-15; // erfc(5.5)
 const MIN_NODES = 16;
 const INV_TWO_SQRT_PI = 0.28209479177387814; // 1/(2√π)
 const TWO_OVER_SQRT_PI = 1.1283791670955126;
@@ -103,6 +103,7 @@ export function exactGridShared(
   const ny = ys.length;
   const sqrtDx = Math.sqrt(Dx);
   const halfW = 0.5 * p.width;
+  const dyUniform = uniformStep(ys);
 
   // finest spacing from the narrowest first-passage peak among the columns
   let sigmaMin = 1;
@@ -134,7 +135,9 @@ export function exactGridShared(
       common = (dTauOfS(s) * decline * Z) / (tau * Math.sqrt(tau));
       if (common > 0) {
         const S = 2 * Math.sqrt(p.Dy * tau);
-        if (S > 0) {
+        if (S > 0 && dyUniform > 0) {
+          lateralLattice(ys[0], dyUniform, ny, halfW, S, false, 0, 0.5, Y, 0);
+        } else if (S > 0) {
           const inv = 1 / S;
           for (let j = 0; j < ny; j++) Y[j] = 0.5 * erfDiff((ys[j] + halfW) * inv, (ys[j] - halfW) * inv);
         } else {
@@ -201,6 +204,32 @@ export function exactGridShared(
   const gs = new Float64Array(maxNodes);
   const rows: Float64Array[] = new Array<Float64Array>(maxNodes);
   const inv4Dx = 1 / (4 * Dx);
+  // Σ g_k·Y_kj over the nodes k ≡ 0 (mod step) in [kLo, kHi], leaving out multiples of skip;
+  // four nodes per pass over the y values (a quarter of the loads and stores of the sums)
+  const addNodes = (x: number, cx: number, kLo: number, kHi: number, step: number, skip: number): void => {
+    let m = 0;
+    for (let k = Math.ceil(kLo / step) * step; k <= kHi; k += step) {
+      if (skip > 0 && k % skip === 0) continue;
+      const nd = nodeAt(k);
+      if (nd.common === 0) continue;
+      const d = x - u * nd.tau;
+      const g = cx * nd.common * Math.exp(-d * d * inv4Dx * nd.invTau);
+      if (!(g > 0)) continue;
+      gs[m] = g;
+      rows[m++] = nd.Y;
+    }
+    let q = 0;
+    for (; q + 4 <= m; q += 4) {
+      const g0 = gs[q], g1 = gs[q + 1], g2 = gs[q + 2], g3 = gs[q + 3];
+      const Y0 = rows[q], Y1 = rows[q + 1], Y2 = rows[q + 2], Y3 = rows[q + 3];
+      for (let j = 0; j < ny; j++) sums[j] += g0 * Y0[j] + g1 * Y1[j] + (g2 * Y2[j] + g3 * Y3[j]);
+    }
+    for (; q < m; q++) {
+      const g = gs[q];
+      const Y = rows[q];
+      for (let j = 0; j < ny; j++) sums[j] += g * Y[j];
+    }
+  };
   let worst = 0;
   let fallback = 0;
   for (let i = 0; i < nx; i++) {
@@ -211,7 +240,7 @@ export function exactGridShared(
     const kLo = kLos[i];
     const kHi = kHis[i];
     if (Number.isNaN(kLo)) {
-      // the window is empty (the horizon comes before any arrival worth 1e-17 of C0): 0
+      // the window is empty (the horizon comes before any arrival worth 1e-14 of C0): 0
       for (let j = 0; j < ny; j++) out[row + j] = 0;
       const e = scale > 0 ? truncs[i] * scale : 0;
       if (e > worst) worst = e;
@@ -222,41 +251,15 @@ export function exactGridShared(
     let stride = 1;
     while (stride < 1 << 30 && (kHi - kLo) / (stride * 2) >= MIN_NODES) stride *= 2;
     const cx = (x * INV_TWO_SQRT_PI) / sqrtDx;
-    // Σ g_k·Y_kj over the nodes k ≡ 0 (mod step) in [kLo, kHi], leaving out multiples of skip;
-    // four nodes per pass over the y values (a quarter of the loads and stores of the sums)
-    const addNodes = (step: number, skip: number): void => {
-      let m = 0;
-      for (let k = Math.ceil(kLo / step) * step; k <= kHi; k += step) {
-        if (skip > 0 && k % skip === 0) continue;
-        const nd = nodeAt(k);
-        if (nd.common === 0) continue;
-        const d = x - u * nd.tau;
-        const g = cx * nd.common * Math.exp(-d * d * inv4Dx * nd.invTau);
-        if (!(g > 0)) continue;
-        gs[m] = g;
-        rows[m++] = nd.Y;
-      }
-      let q = 0;
-      for (; q + 4 <= m; q += 4) {
-        const g0 = gs[q], g1 = gs[q + 1], g2 = gs[q + 2], g3 = gs[q + 3];
-        const Y0 = rows[q], Y1 = rows[q + 1], Y2 = rows[q + 2], Y3 = rows[q + 3];
-        for (let j = 0; j < ny; j++) sums[j] += g0 * Y0[j] + g1 * Y1[j] + (g2 * Y2[j] + g3 * Y3[j]);
-      }
-      for (; q < m; q++) {
-        const g = gs[q];
-        const Y = rows[q];
-        for (let j = 0; j < ny; j++) sums[j] += g * Y[j];
-      }
-    };
     let converged = false;
     let est = 0;
     if (stride > 1) {
       sums.fill(0);
-      addNodes(stride, 0);
+      addNodes(x, cx, kLo, kHi, stride, 0);
       while (stride > 1 && (kHi - kLo) / (stride >> 1) < MAX_NODES) {
         const hOld = stride * hFine;
         for (let j = 0; j < ny; j++) prev[j] = sums[j] * hOld;
-        addNodes(stride >> 1, stride);
+        addNodes(x, cx, kLo, kHi, stride >> 1, stride);
         stride >>= 1;
         const h = stride * hFine;
         est = 0;

@@ -4,6 +4,7 @@
  * s → 0 limit, and its average over a well screen.
  */
 import { erf, erfDiff } from '../special/erf';
+import { ERF_TABLE_SPLIT, erfLattice, splitDiff } from '../special/erfLattice';
 
 const INV_SQRT_PI = 0.5641895835477563;
 
@@ -57,3 +58,50 @@ export function depthFactor(span: DepthSpan, H: number, s: number): number {
   return Math.min(1, Math.max(0, val));
 }
 
+/**
+ * The step dy when ys is evenly spaced and increasing to rounding (|ys[j] − (ys[0] + j·dy)| ≤
+ * 8ε·max|y| for every j, at least 4 values), else 0.
+ */
+export function uniformStep(ys: ArrayLike<number>): number {
+  const n = ys.length;
+  if (n < 4) return 0;
+  const y0 = ys[0];
+  const dy = (ys[n - 1] - y0) / (n - 1);
+  if (!(dy > 0) || !Number.isFinite(dy)) return 0;
+  const tol = 8 * Number.EPSILON * Math.max(Math.abs(y0), Math.abs(ys[n - 1]));
+  for (let j = 1; j < n - 1; j++) if (Math.abs(ys[j] - (y0 + j * dy)) > tol) return 0;
+  return dy;
+}
+
+let latA = new Float64Array(0);
+let latB = new Float64Array(0);
+
+/**
+ * factor·[erf(a_j) − erf(b_j)], a_j = (y_j + h)/s, b_j = (y_j − h)/s, for j ≥ jStart on the evenly
+ * spaced y values y0 + j·dy (s > 0), into out[row + j], from erfLattice (special/erfLattice.ts:
+ * 5e-13 relative; the lattice arguments differ from (y_j ± h)/s by the rounding of the y values).
+ * With `mirrored` (the y values symmetric about 0) only the b lattice is formed: a_j = −b_{n−1−j}.
+ */
+export function lateralLattice(y0: number, dy: number, ny: number, h: number, s: number, mirrored: boolean, jStart: number, factor: number, out: Float64Array, row: number): void {
+  if (latB.length < ny) {
+    latA = new Float64Array(ny);
+    latB = new Float64Array(ny);
+  }
+  const inv = 1 / s;
+  const du = dy * inv;
+  const b0 = (y0 - h) * inv;
+  erfLattice(b0, du, ny, latB);
+  if (mirrored) {
+    for (let j = jStart; j < ny; j++) {
+      const m = ny - 1 - j;
+      const a = -(b0 + m * du);
+      const vm = latB[m];
+      const va = a < ERF_TABLE_SPLIT && a > -ERF_TABLE_SPLIT ? -vm : vm;
+      out[row + j] = factor * splitDiff(a, va, b0 + j * du, latB[j]);
+    }
+    return;
+  }
+  const a0 = (y0 + h) * inv;
+  erfLattice(a0, du, ny, latA);
+  for (let j = jStart; j < ny; j++) out[row + j] = factor * splitDiff(a0 + j * du, latA[j], b0 + j * du, latB[j]);
+}
