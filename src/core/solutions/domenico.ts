@@ -76,7 +76,10 @@ export function isSymmetric(ys: ArrayLike<number>): boolean {
   return true;
 }
 
-/** Grid of C/C0 at (xs[i], ys[j]) → out[i·ny + j]. */
+/**
+ * Grid of C/C0 at (xs[i], ys[j]) → out[i·ny + j], each in [0, 1]: the x and z factors are ≤ 1 and
+ * the lateral difference of error functions is kept in [0, 2] against rounding.
+ */
 export function domenicoGridInto(
   xs: ArrayLike<number>,
   ys: ArrayLike<number>,
@@ -97,19 +100,22 @@ export function domenicoGridInto(
     const row = i * ny;
     const X = domenicoXTerm(x, t, p, logScale);
     const Z = X === 0 ? 0 : domenicoZTerm(x, depth, p);
-    const XZ = 0.5 * X * Z;
+    const XZ = 0.5 * Math.min(1, X * Z); // each factor ≤ 1; kept so against rounding
     if (XZ === 0) {
       for (let j = 0; j < ny; j++) out[row + j] = 0;
       continue;
     }
     const s = 2 * Math.sqrt(p.ay * Math.max(x, 0));
     if (s > 0 && dy > 0) {
-      lateralLattice(ys[0], dy, ny, h, s, sym, jStart, XZ, out, row);
-    } else if (s > 0) {
+      lateralLattice(ys[0], dy, ny, h, s, sym, jStart, XZ, out, row); // writes the mirrored half too
+      continue;
+    }
+    if (s > 0) {
       const inv = 1 / s;
       for (let j = jStart; j < ny; j++) {
         const y = ys[j];
-        out[row + j] = XZ * erfDiff((y + h) * inv, (y - h) * inv);
+        const d = erfDiff((y + h) * inv, (y - h) * inv);
+        out[row + j] = XZ * (d > 0 ? (d < 2 ? d : 2) : 0);
       }
     } else {
       for (let j = jStart; j < ny; j++) out[row + j] = XZ * (erfRatioSafe(ys[j] + h, s) - erfRatioSafe(ys[j] - h, s));

@@ -48,18 +48,16 @@ const TWO_OVER_SQRT_PI = 1.1283791670955126;
 const FINEST_CAP = 24;
 /** most nodes one column may use before it is handed to the per-column method */
 const MAX_NODES = 4096;
-/** longest fine-index range kept in an array (beyond it, a Map) */
+/** longest fine-index range of one grid (beyond it the per-column method is used) */
 const ARRAY_STORE = 1 << 20;
 
-/** Per-node quantities shared by all columns (s = k·hFine). */
-interface Node {
-  tau: number;
-  invTau: number;
-  /** τ^{−3/2}·τ′(s)·e^{−γ(t−τ)}·Z(τ) */
-  common: number;
-  /** lateral factor ½[erf((y + W/2)/S) − erf((y − W/2)/S)] for each y, S = 2√(Dy τ) */
-  Y: Float64Array;
-}
+let nodeSlot = new Int32Array(0);
+let nodeTau = new Float64Array(0);
+let nodeInvTau = new Float64Array(0);
+let nodeCommon = new Float64Array(0);
+/** lateral factors ½[erf((y + W/2)/S) − erf((y − W/2)/S)] of the nodes, S = 2√(Dy τ), ny per node */
+let pool = new Float64Array(0);
+let poolUsed = 0;
 
 /** What a shared-node grid did: its largest error estimate and how many columns it handed on. */
 export interface SharedGridReport {
@@ -119,16 +117,23 @@ export function exactGridShared(
   const dTauOfS = finite ? (s: number) => t * Math.exp(s - Math.exp(s)) : (s: number) => Math.exp(s);
   const sOfTau = finite ? (tau: number) => Math.log(-Math.log1p(-tau / t)) : (tau: number) => Math.log(tau);
 
-  let store: (Node | undefined)[] | null = null;
-  const sparse = new Map<number, Node>();
+  // nodes k (s = k·hFine) in [kBase, kBase + range): τ, 1/τ, the common factor, and the offset of
+  // the lateral row in the pool (−1: not computed yet); module buffers, reused between calls
   let kBase = 0;
-  const nodeAt = (k: number): Node => {
-    let nd = store !== null ? store[k - kBase] : sparse.get(k);
-    if (nd !== undefined) return nd;
+  const nodeAt = (k: number): number => {
+    const idx = k - kBase;
+    if (nodeSlot[idx] >= 0) return idx;
     const s = k * hFine;
     const tau = tauOfS(s);
-    const Y = new Float64Array(ny);
     let common = 0;
+    const off = poolUsed;
+    poolUsed += ny;
+    if (pool.length < poolUsed) {
+      const grown = new Float64Array(Math.max(poolUsed, 2 * pool.length));
+      grown.set(pool.subarray(0, off));
+      pool = grown;
+    }
+    const Y = pool.subarray(off, off + ny);
     if (tau > 0) {
       const decline = p.gamma > 0 && finite ? Math.exp(-p.gamma * (t - tau)) : 1;
       const Z = depthFactor(depth, p.thickness, 2 * Math.sqrt(p.Dz * tau));
@@ -145,10 +150,11 @@ export function exactGridShared(
         }
       }
     }
-    nd = { tau, invTau: 1 / tau, common, Y };
-    if (store !== null) store[k - kBase] = nd;
-    else sparse.set(k, nd);
-    return nd;
+    nodeTau[idx] = tau;
+    nodeInvTau[idx] = 1 / tau;
+    nodeCommon[idx] = common;
+    nodeSlot[idx] = off;
+    return idx;
   };
 
   // windows in s per column: [kLo, kHi] in fine steps, the truncation bound, the column scale
@@ -192,17 +198,28 @@ export function exactGridShared(
       kMax = Math.max(kMax, kHi);
     }
   }
-  if (kMin <= kMax && kMax - kMin < ARRAY_STORE) {
+  // a node range beyond ARRAY_STORE (a first-passage peak narrower than ~1e-5 of its time, far
+  // outside screening) is left to the per-column method
+  if (kMin <= kMax && kMax - kMin >= ARRAY_STORE) return false;
+  if (kMin <= kMax) {
     kBase = kMin;
-    store = new Array<Node | undefined>(kMax - kMin + 1);
+    const range = kMax - kMin + 1;
+    if (nodeSlot.length < range) {
+      nodeSlot = new Int32Array(range);
+      nodeTau = new Float64Array(range);
+      nodeInvTau = new Float64Array(range);
+      nodeCommon = new Float64Array(range);
+    }
+    nodeSlot.fill(-1, 0, range);
   }
+  poolUsed = 0;
 
   const sums = new Float64Array(ny);
   const prev = new Float64Array(ny);
   let maxNodes = 0;
   for (let i = 0; i < nx; i++) if (kHis[i] - kLos[i] >= 0) maxNodes = Math.max(maxNodes, Math.min(MAX_NODES, kHis[i] - kLos[i] + 1));
   const gs = new Float64Array(maxNodes);
-  const rows: Float64Array[] = new Array<Float64Array>(maxNodes);
+  const offs = new Int32Array(maxNodes);
   const inv4Dx = 1 / (4 * Dx);
   // Σ g_k·Y_kj over the nodes k ≡ 0 (mod step) in [kLo, kHi], leaving out multiples of skip;
   // four nodes per pass over the y values (a quarter of the loads and stores of the sums)
@@ -210,24 +227,26 @@ export function exactGridShared(
     let m = 0;
     for (let k = Math.ceil(kLo / step) * step; k <= kHi; k += step) {
       if (skip > 0 && k % skip === 0) continue;
-      const nd = nodeAt(k);
-      if (nd.common === 0) continue;
-      const d = x - u * nd.tau;
-      const g = cx * nd.common * Math.exp(-d * d * inv4Dx * nd.invTau);
+      const idx = nodeAt(k);
+      const common = nodeCommon[idx];
+      if (common === 0) continue;
+      const d = x - u * nodeTau[idx];
+      const g = cx * common * Math.exp(-d * d * inv4Dx * nodeInvTau[idx]);
       if (!(g > 0)) continue;
       gs[m] = g;
-      rows[m++] = nd.Y;
+      offs[m++] = nodeSlot[idx];
     }
+    const P = pool;
     let q = 0;
     for (; q + 4 <= m; q += 4) {
       const g0 = gs[q], g1 = gs[q + 1], g2 = gs[q + 2], g3 = gs[q + 3];
-      const Y0 = rows[q], Y1 = rows[q + 1], Y2 = rows[q + 2], Y3 = rows[q + 3];
-      for (let j = 0; j < ny; j++) sums[j] += g0 * Y0[j] + g1 * Y1[j] + (g2 * Y2[j] + g3 * Y3[j]);
+      const o0 = offs[q], o1 = offs[q + 1], o2 = offs[q + 2], o3 = offs[q + 3];
+      for (let j = 0; j < ny; j++) sums[j] += g0 * P[o0 + j] + g1 * P[o1 + j] + (g2 * P[o2 + j] + g3 * P[o3 + j]);
     }
     for (; q < m; q++) {
       const g = gs[q];
-      const Y = rows[q];
-      for (let j = 0; j < ny; j++) sums[j] += g * Y[j];
+      const o = offs[q];
+      for (let j = 0; j < ny; j++) sums[j] += g * P[o + j];
     }
   };
   let worst = 0;

@@ -14,7 +14,8 @@
  * nodes a_k + j·s of step j the Gaussian factorises,
  *   e^{−(a_k + js)²} = [e^{−a_k²}·(e^{−2a_k s})^j] · e^{−s²j²},
  * so a step costs m + 2 multiplications and no exponential: the bracket is carried per node, the
- * last factor (shared by all nodes) by Q ← Q·Qr, Qr ← Qr·e^{−2s²}. Every chunk of at most
+ * last factor (shared by all nodes) by Q ← Q·Qr, Qr ← Qr·e^{−2s²}; a chunk starts with m + 1
+ * exponentials (e^{−2a_k s} = e^{−2 ws s}·e^{−2c_k s²}, the second factor once per run). Every chunk of at most
  * CHUNK = 64 points restarts from a value of the table (erfTable.ts, a few ulp) and fresh
  * exponentials, and is shortened so that no carried factor leaves [e^{−600}, e^{600}].
  *
@@ -81,6 +82,8 @@ function legendreRule(m: number): Rule {
 }
 
 const RULES = [legendreRule(4), legendreRule(6), legendreRule(8)];
+/** D_k of the rule in use (see run) */
+const D = new Float64Array(8);
 
 /**
  * Per rule, the largest X = δ·(2|t| + 2√(2m)) with C_m·X^{2m}·e^{X} ≤ 1e-15 (e^{X} ≥ e^{δ(2|t| + δ)}
@@ -110,25 +113,26 @@ function ruleFor(delta: number, tmax: number): number {
 // npm run bench). `steps` step integrals from the seed value `val` at out[o].
 
 /** One chunk with the 4-point rule. */
-function chunk4(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number): void {
+function chunk4(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number, D: Float64Array, Qr0: number): void {
   const c = RULES[0].c;
   const w = RULES[0].w;
+  const E = Math.exp(-2 * ws * s);
   let a = 0;
   a = ws + c[0] * s;
   let P0 = w[0] * Math.exp(-a * a);
-  const B0 = Math.exp(-2 * a * s);
+  const B0 = E * D[0];
   a = ws + c[1] * s;
   let P1 = w[1] * Math.exp(-a * a);
-  const B1 = Math.exp(-2 * a * s);
+  const B1 = E * D[1];
   a = ws + c[2] * s;
   let P2 = w[2] * Math.exp(-a * a);
-  const B2 = Math.exp(-2 * a * s);
+  const B2 = E * D[2];
   a = ws + c[3] * s;
   let P3 = w[3] * Math.exp(-a * a);
-  const B3 = Math.exp(-2 * a * s);
+  const B3 = E * D[3];
   let Q = scale;
-  let Qr = Math.exp(-s * s);
-  const q2 = Qr * Qr;
+  let Qr = Qr0;
+  const q2 = Qr0 * Qr0;
   for (let r = 0; r < steps; r++) {
     val += Q * ((P0 + P1) + (P2 + P3));
     o += di;
@@ -140,31 +144,32 @@ function chunk4(ws: number, s: number, steps: number, val: number, out: Float64A
 }
 
 /** One chunk with the 6-point rule. */
-function chunk6(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number): void {
+function chunk6(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number, D: Float64Array, Qr0: number): void {
   const c = RULES[1].c;
   const w = RULES[1].w;
+  const E = Math.exp(-2 * ws * s);
   let a = 0;
   a = ws + c[0] * s;
   let P0 = w[0] * Math.exp(-a * a);
-  const B0 = Math.exp(-2 * a * s);
+  const B0 = E * D[0];
   a = ws + c[1] * s;
   let P1 = w[1] * Math.exp(-a * a);
-  const B1 = Math.exp(-2 * a * s);
+  const B1 = E * D[1];
   a = ws + c[2] * s;
   let P2 = w[2] * Math.exp(-a * a);
-  const B2 = Math.exp(-2 * a * s);
+  const B2 = E * D[2];
   a = ws + c[3] * s;
   let P3 = w[3] * Math.exp(-a * a);
-  const B3 = Math.exp(-2 * a * s);
+  const B3 = E * D[3];
   a = ws + c[4] * s;
   let P4 = w[4] * Math.exp(-a * a);
-  const B4 = Math.exp(-2 * a * s);
+  const B4 = E * D[4];
   a = ws + c[5] * s;
   let P5 = w[5] * Math.exp(-a * a);
-  const B5 = Math.exp(-2 * a * s);
+  const B5 = E * D[5];
   let Q = scale;
-  let Qr = Math.exp(-s * s);
-  const q2 = Qr * Qr;
+  let Qr = Qr0;
+  const q2 = Qr0 * Qr0;
   for (let r = 0; r < steps; r++) {
     val += Q * (((P0 + P1) + (P2 + P3)) + (P4 + P5));
     o += di;
@@ -176,37 +181,38 @@ function chunk6(ws: number, s: number, steps: number, val: number, out: Float64A
 }
 
 /** One chunk with the 8-point rule. */
-function chunk8(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number): void {
+function chunk8(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number, D: Float64Array, Qr0: number): void {
   const c = RULES[2].c;
   const w = RULES[2].w;
+  const E = Math.exp(-2 * ws * s);
   let a = 0;
   a = ws + c[0] * s;
   let P0 = w[0] * Math.exp(-a * a);
-  const B0 = Math.exp(-2 * a * s);
+  const B0 = E * D[0];
   a = ws + c[1] * s;
   let P1 = w[1] * Math.exp(-a * a);
-  const B1 = Math.exp(-2 * a * s);
+  const B1 = E * D[1];
   a = ws + c[2] * s;
   let P2 = w[2] * Math.exp(-a * a);
-  const B2 = Math.exp(-2 * a * s);
+  const B2 = E * D[2];
   a = ws + c[3] * s;
   let P3 = w[3] * Math.exp(-a * a);
-  const B3 = Math.exp(-2 * a * s);
+  const B3 = E * D[3];
   a = ws + c[4] * s;
   let P4 = w[4] * Math.exp(-a * a);
-  const B4 = Math.exp(-2 * a * s);
+  const B4 = E * D[4];
   a = ws + c[5] * s;
   let P5 = w[5] * Math.exp(-a * a);
-  const B5 = Math.exp(-2 * a * s);
+  const B5 = E * D[5];
   a = ws + c[6] * s;
   let P6 = w[6] * Math.exp(-a * a);
-  const B6 = Math.exp(-2 * a * s);
+  const B6 = E * D[6];
   a = ws + c[7] * s;
   let P7 = w[7] * Math.exp(-a * a);
-  const B7 = Math.exp(-2 * a * s);
+  const B7 = E * D[7];
   let Q = scale;
-  let Qr = Math.exp(-s * s);
-  const q2 = Qr * Qr;
+  let Qr = Qr0;
+  const q2 = Qr0 * Qr0;
   for (let r = 0; r < steps; r++) {
     val += Q * (((P0 + P1) + (P2 + P3)) + ((P4 + P5) + (P6 + P7)));
     o += di;
@@ -231,6 +237,9 @@ function pointValue(u: number): number {
 function run(w0: number, s: number, count: number, out: Float64Array, i0: number, di: number, sign: number): void {
   const as = Math.abs(s);
   const scale = TWO_OVER_SQRT_PI * as * sign;
+  // per-run constants: e^{−s²} and, for the rule in use, D_k = e^{−2c_k s²} (B_k = e^{−2 ws s}·D_k)
+  const Qr0 = Math.exp(-s * s);
+  let dRule = -1;
   let p = 0;
   while (p < count) {
     const ws = w0 + p * s;
@@ -247,11 +256,34 @@ function run(w0: number, s: number, count: number, out: Float64Array, i0: number
     const r = len > 1 ? ruleFor(as, tmax) : -1;
     if (r < 0) {
       for (let q = 1; q < len; q++) out[o + q * di] = sign * splitValue(Math.abs(ws + q * s));
-    } else if (r === 0) chunk4(ws, s, len - 1, val, out, o, di, scale);
-    else if (r === 1) chunk6(ws, s, len - 1, val, out, o, di, scale);
-    else chunk8(ws, s, len - 1, val, out, o, di, scale);
+    } else {
+      if (r !== dRule) {
+        const c = RULES[r].c;
+        for (let k = 0; k < c.length; k++) D[k] = Math.exp(-2 * c[k] * s * s);
+        dRule = r;
+      }
+      if (r === 0) chunk4(ws, s, len - 1, val, out, o, di, scale, D, Qr0);
+      else if (r === 1) chunk6(ws, s, len - 1, val, out, o, di, scale, D, Qr0);
+      else chunk8(ws, s, len - 1, val, out, o, di, scale, D, Qr0);
+    }
     p += len;
   }
+}
+
+/**
+ * First j ≥ from (and ≤ n) with u0 + j·du > lim (inclusive = true: the points equal to lim stay
+ * below) or ≥ lim (inclusive = false).
+ */
+function boundary(u0: number, du: number, n: number, lim: number, from: number, inclusive: boolean): number {
+  let j = Math.min(n, Math.max(from, Math.floor((lim - u0) / du)));
+  if (inclusive) {
+    while (j > from && u0 + (j - 1) * du > lim) j--;
+    while (j < n && u0 + j * du <= lim) j++;
+  } else {
+    while (j > from && u0 + (j - 1) * du >= lim) j--;
+    while (j < n && u0 + j * du < lim) j++;
+  }
+  return j;
 }
 
 /**
@@ -265,22 +297,11 @@ export function erfLattice(u0: number, du: number, n: number, out: Float64Array)
   }
   // index boundaries: [0, jc) below −cut, [jc, jL) left tail, [jL, j0) middle negative,
   // [j0, jR) middle non-negative, [jR, jC) right tail, [jC, n) beyond the cut
-  const at = (u: number) => Math.min(n, Math.max(0, Math.ceil((u - u0) / du)));
-  let jc = at(-LATTICE_CUT);
-  while (jc > 0 && u0 + (jc - 1) * du >= -LATTICE_CUT) jc--;
-  while (jc < n && u0 + jc * du < -LATTICE_CUT) jc++;
-  let jL = Math.max(jc, at(-S));
-  while (jL > jc && u0 + (jL - 1) * du > -S) jL--;
-  while (jL < n && u0 + jL * du <= -S) jL++;
-  let j0 = Math.max(jL, at(0));
-  while (j0 > jL && u0 + (j0 - 1) * du >= 0) j0--;
-  while (j0 < n && u0 + j0 * du < 0) j0++;
-  let jR = Math.max(j0, at(S));
-  while (jR > j0 && u0 + (jR - 1) * du >= S) jR--;
-  while (jR < n && u0 + jR * du < S) jR++;
-  let jC = Math.max(jR, at(LATTICE_CUT));
-  while (jC > jR && u0 + (jC - 1) * du > LATTICE_CUT) jC--;
-  while (jC < n && u0 + jC * du <= LATTICE_CUT) jC++;
+  const jc = boundary(u0, du, n, -LATTICE_CUT, 0, false);
+  const jL = boundary(u0, du, n, -S, jc, true);
+  const j0 = boundary(u0, du, n, 0, jL, false);
+  const jR = boundary(u0, du, n, S, j0, false);
+  const jC = boundary(u0, du, n, LATTICE_CUT, jR, true);
   for (let j = 0; j < jc; j++) out[j] = pointValue(u0 + j * du);
   for (let j = jC; j < n; j++) out[j] = pointValue(u0 + j * du);
   // left tail: erfc(−u) grows with j (−u falls by du per step)
