@@ -12,7 +12,8 @@ import { describe, expect, it } from 'vitest';
 import stdlibErf from '@stdlib/math-base-special-erf';
 import stdlibErfc from '@stdlib/math-base-special-erfc';
 import { ERF_TABLE_SPLIT, erfDiffFast, erfFast, splitValue } from '../../src/core/special/erfTable';
-import { erfLattice, splitDiff, LATTICE_CUT } from '../../src/core/special/erfLattice';
+import { erfLattice, LATTICE_CUT } from '../../src/core/special/erfLattice';
+import { lateralLattice } from '../../src/core/solutions/spread';
 import { DBL_MIN, EPS, MismatchLog, Prng } from './helpers/check';
 
 const S = ERF_TABLE_SPLIT;
@@ -89,35 +90,37 @@ describe('lattice error function (erfLattice.ts)', () => {
     log.assertNone();
     expect(values).toBeGreaterThan(100000);
   });
-  it('lattices of map grids: (y ± W/2)/(2√(αy x)) on 512 evenly spaced y, 64 columns; differences by splitDiff within 5e-13 of the far-field value', () => {
+  it('lateral rows of map grids (spread.ts lateralLattice): ½[erf((y + W/2)/s) − erf((y − W/2)/s)] on 512 evenly spaced y, 64 columns, mirrored and not, within 1e-12 of the far-field value', () => {
+    // stated 5e-13 per lattice value; the difference of two values within one tail carries both
     const log = new MismatchLog();
     const n = 512;
     const dy = 300 / (n - 1);
-    for (let i = 1; i <= 64; i++) {
-      const s = 2 * Math.sqrt(1 * ((800 * i) / 64));
-      const du = dy / s;
-      const b0 = (-150 - 15) / s;
-      const a0 = (-150 + 15) / s;
-      const vb = new Float64Array(n);
-      const va = new Float64Array(n);
-      erfLattice(b0, du, n, vb);
-      erfLattice(a0, du, n, va);
-      for (let j = 0; j < n; j++) {
-        const a = a0 + j * du;
-        const b = b0 + j * du;
-        let ref: number;
-        let mag: number;
-        if (b >= S) {
-          ref = stdlibErfc(b) - stdlibErfc(a);
-          mag = stdlibErfc(b);
-        } else if (a <= -S) {
-          ref = stdlibErfc(-a) - stdlibErfc(-b);
-          mag = stdlibErfc(-a);
-        } else {
-          ref = stdlibErf(a) - stdlibErf(b);
-          mag = 2;
+    const h = 15;
+    const out = new Float64Array(n);
+    for (const mirrored of [true, false]) {
+      for (let i = 1; i <= 64; i++) {
+        const s = 2 * Math.sqrt(1 * ((800 * i) / 64));
+        lateralLattice(-150, dy, n, h, s, mirrored, mirrored ? n / 2 : 0, 0.5, out, 0);
+        for (let j = 0; j < n; j++) {
+          // the lattice's own arguments, and for the mirrored half their mirror images
+          const jj = mirrored && j < n / 2 ? n - 1 - j : j;
+          const y = -150 + jj * dy;
+          const a = (y + h) / s;
+          const b = (y - h) / s;
+          let ref: number;
+          let mag: number;
+          if (b >= S) {
+            ref = stdlibErfc(b) - stdlibErfc(a);
+            mag = stdlibErfc(b);
+          } else if (a <= -S) {
+            ref = stdlibErfc(-a) - stdlibErfc(-b);
+            mag = stdlibErfc(-a);
+          } else {
+            ref = stdlibErf(a) - stdlibErf(b);
+            mag = 2;
+          }
+          log.check('lateralLattice', { mirrored, i, j, a, b }, out[j], 0.5 * ref, Math.max(0.5 * (1e-12 + 8 * EPS) * mag, DBL_MIN));
         }
-        log.check('splitDiff of lattice values', { i, j, a, b }, splitDiff(a, va[j], b, vb[j]), ref, (1e-12 + 8 * EPS) * mag);
       }
     }
     log.assertNone();

@@ -4,8 +4,8 @@
  *
  * Representation ("split values", as erfTable.ts): for |u| < ERF_TABLE_SPLIT (≈ 0.496) the value is
  * erf(u), signed; from there on erfc(|u|). Each keeps its relative accuracy where it is small, and
- * `splitDiff` forms erf(a) − erf(b) from two of them without cancellation in the far field (as
- * erfDiff in erf.ts does).
+ * differences erf(a) − erf(b) formed from two of them within one tail keep it too (lateralLattice in
+ * solutions/spread.ts; as erfDiff in erf.ts does).
  *
  * Method: neighbouring lattice values differ by (2/√π)∫ e^{−t²} dt over one step, accumulated in
  * the direction in which the value grows (erfc from the outer tail inwards, erf from 0 outwards),
@@ -312,16 +312,4 @@ export function erfLattice(u0: number, du: number, n: number, out: Float64Array)
   if (jR > j0) run(u0 + j0 * du, du, jR - j0, out, j0, 1, 1);
   // right tail: erfc(u) grows as j falls
   if (jC > jR) run(u0 + (jC - 1) * du, -du, jC - jR, out, jC - 1, -1, 1);
-}
-
-/**
- * erf(a) − erf(b) for a ≥ b from their split values va, vb (the same contract as erfDiff: relative
- * accuracy where both lie beyond the split on one side).
- */
-export function splitDiff(a: number, va: number, b: number, vb: number): number {
-  if (b >= S) return vb - va; // erfc(b) − erfc(a)
-  if (a <= -S) return va - vb; // erfc(−a) − erfc(−b)
-  const ea = a >= S ? 1 - va : va;
-  const eb = b <= -S ? vb - 1 : vb;
-  return ea - eb;
 }
