@@ -268,7 +268,7 @@ async function main(): Promise<void> {
     slow.btcExact.sink +
     contour.compute.sink +
     contour.total.sink;
-  console.log(`\nsink (sum of every result, so nothing is optimised away): ${sink}`);
+  console.log(`\nsink (every result feeds it, so nothing is optimised away): ${sink}`);
   console.log(
     `bench ran in ${((performance.now() - started) / 1000).toFixed(1)} s (${phases.map(([n, t]) => `${n} ${t.toFixed(1)} s`).join('; ')})`,
   );
