@@ -1,6 +1,6 @@
 /**
- * Differences of error functions, erf(a) − erf(b), from a table of local Taylor polynomials: the
- * inner loop of every spreading factor (Domenico grids, the exact solution's quadrature nodes).
+ * erf (near 0) and erfc (beyond) from a table of local Taylor polynomials: the seeds and
+ * point-by-point values of the lattice error function (erfLattice.ts).
  *
  * Method (approximation, with its error bound): nodes x_k = k·h, h = 1/128, on [0, 10). At a node
  * the table holds the Taylor coefficients of degree 0…8 of
@@ -20,7 +20,7 @@
  * Cost: one table index and a degree-8 Horner polynomial (no exp, no division), against Cody's
  * exp and degree-8 rational function; `npm run bench` prints the rates.
  */
-import { erf, erfc, erfcTail } from './erf';
+import { erf, erfc } from './erf';
 
 const INV_H = 128;
 const H = 1 / INV_H;
@@ -83,32 +83,4 @@ function tablePoly(x: number): number {
  */
 export function splitValue(y: number): number {
   return y < TABLE_TOP ? tablePoly(y) : erfc(y);
-}
-
-/** erf(x) for any finite x, absolute accuracy everywhere, relative near 0. */
-export function erfFast(x: number): number {
-  const y = x < 0 ? -x : x;
-  let r: number;
-  if (y < ERF_TABLE_SPLIT) r = tablePoly(y);
-  else if (y < TABLE_TOP) r = 1 - tablePoly(y);
-  else r = y < 6 ? 1 - erfcTail(y) : 1;
-  return x < 0 ? -r : r;
-}
-
-/**
- * erf(a) − erf(b) without cancellation where a and b lie on one side beyond ±0.496 (then it is
- * formed as erfc(b) − erfc(a), or the mirrored form, keeping its relative accuracy in the far field);
- * 0 when both lie beyond ±10 (the difference is below erfc(10) ≈ 2.1e-45). Same contract as
- * erfDiff (erf.ts), from the table.
- */
-export function erfDiffFast(a: number, b: number): number {
-  if (a >= ERF_TABLE_SPLIT && b >= ERF_TABLE_SPLIT) {
-    if (a > 10 && b > 10) return 0;
-    return splitValue(b) - splitValue(a);
-  }
-  if (a <= -ERF_TABLE_SPLIT && b <= -ERF_TABLE_SPLIT) {
-    if (a < -10 && b < -10) return 0;
-    return splitValue(-a) - splitValue(-b);
-  }
-  return erfFast(a) - erfFast(b);
 }
