@@ -34,8 +34,7 @@
  * first-passage peak: in s it has a standard deviation of about √(2Dx/(u·x)) (the inverse
  * Gaussian's coefficient of variation), and the finest spacing is a quarter of it or less.
  */
-import { depthFactor, erfRatioSafe, lateralLattice, uniformStep, type DepthSpan } from './spread';
-import { erfDiff } from '../special/erf';
+import { depthFactor, lateralLattice, spreadFactor, uniformStep, type DepthSpan } from './spread';
 import { exactColumn, tauOf, type PatchParams } from './patchSource';
 import { uMinusV } from './oneD';
 
@@ -142,11 +141,8 @@ export function exactGridShared(
         const S = 2 * Math.sqrt(p.Dy * tau);
         if (S > 0 && dyUniform > 0) {
           lateralLattice(ys[0], dyUniform, ny, halfW, S, false, 0, 0.5, Y, 0);
-        } else if (S > 0) {
-          const inv = 1 / S;
-          for (let j = 0; j < ny; j++) Y[j] = 0.5 * erfDiff((ys[j] + halfW) * inv, (ys[j] - halfW) * inv);
         } else {
-          for (let j = 0; j < ny; j++) Y[j] = 0.5 * (erfRatioSafe(ys[j] + halfW, 0) - erfRatioSafe(ys[j] - halfW, 0));
+          for (let j = 0; j < ny; j++) Y[j] = spreadFactor(ys[j], halfW, S);
         }
       }
     }

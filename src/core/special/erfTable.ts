@@ -14,11 +14,11 @@
  * Truncation: the first omitted term, relative to the value, is about (2x·|d|)⁹/9! in the erfc
  * range (≤ 3e-16 at x = 10) and about 2^{9/2}·|d|⁹/√9! in the erf range (≤ 1e-22): below the
  * rounding of the Horner sum, so the table functions carry a few ulp, like Cody's (the tests check
- * them against 40-digit decimal.js values and against Cody's erfDiff). Above x = 10 the table is
+ * them against @stdlib's erf and erfc, test/core/erf-lattice.test.ts). Above x = 10 the table is
  * not used: erfc there comes from Cody's erfc (erf.ts, with its split exponential, a few ulp).
  *
  * Cost: one table index and a degree-8 Horner polynomial (no exp, no division), against Cody's
- * exp and degree-8 rational function; `npm run bench` prints the rates.
+ * exp and degree-8 rational function.
  */
 import { erf, erfc } from './erf';
 
