@@ -8,8 +8,10 @@
  *   its band paths at once; the results signal (plume included, for export and the report) is
  *   republished and the receptor job for an edit starts when that edit's contours are painted,
  *   so on a two-core tablet neither slows the contours down.
- * - A receptor job overtaken by a newer edit is cancelled: its worker is terminated and replaced
- *   (the exact solution at many receptors can take seconds; its result would be thrown away).
+ * - A receptor job overtaken by a newer edit is cancelled as soon as the edit arrives: its worker
+ *   is terminated (the exact solution at many receptors can take seconds; its result would be
+ *   thrown away) and replaced when the next receptor job starts, after the new contours are
+ *   painted, so while they are computed no other job competes for the tablet's cores.
  */
 import { effect, signal } from '@preact/signals';
 import { wrap, type Remote } from 'comlink';
@@ -34,31 +36,38 @@ export const currentPlume = signal<PlumeLayer | null>(null);
 class Cancelled extends Error {}
 
 /** A worker that can be stopped mid-job (terminated and replaced). */
+/**
+ * A worker that can be stopped mid-job (terminated). A cancelled worker is replaced only when the
+ * next job needs it, so nothing boots while the contours for the newer edit are being computed.
+ */
 class ScreeningWorker {
-  private worker!: Worker;
-  api!: Remote<ScreeningApi>;
+  private worker: Worker | null = null;
+  private api: Remote<ScreeningApi> | null = null;
   private abort: ((e: Error) => void) | null = null;
   constructor() {
     this.start();
   }
-  private start(): void {
+  private start(): Remote<ScreeningApi> {
     this.worker = new Worker(new URL('../worker/screening.ts', import.meta.url), { type: 'module', name: 'downgradient-screening' });
     this.api = wrap<ScreeningApi>(this.worker);
+    return this.api;
   }
   run<R>(job: (api: Remote<ScreeningApi>) => Promise<R>): Promise<R> {
+    const api = this.api ?? this.start();
     return new Promise<R>((resolve, reject) => {
       this.abort = reject;
-      job(this.api).then(resolve, reject);
+      job(api).then(resolve, reject);
     }).finally(() => (this.abort = null));
   }
   cancel(): void {
     if (!this.abort) return;
     this.abort(new Cancelled());
-    this.worker.terminate();
-    this.start();
+    this.terminate();
   }
   terminate(): void {
-    this.worker.terminate();
+    this.worker?.terminate();
+    this.worker = null;
+    this.api = null;
   }
 }
 
@@ -76,6 +85,10 @@ class LatestOnly<A, R> {
     this.next = a;
     if (this.running) this.cancelRunning?.();
     else void this.pump();
+  }
+  /** Stop the running job now (its result would be out of date); nothing else starts. */
+  cancel(): void {
+    if (this.running) this.cancelRunning?.();
   }
   get busy(): boolean {
     return this.running || this.next !== null;
@@ -227,6 +240,9 @@ export function startEvaluation(): () => void {
     if (c.modified !== lastEvalStamp) {
       lastEvalStamp = c.modified;
       waitingEval = c;
+      // the receptor job for an older edit is out of date: stopped at once, so the new contours
+      // have the second core to themselves (the new job starts when they are painted)
+      evals.cancel();
     }
   });
   // read by the latency benchmark (bench/ui-latency.mjs): samples and the case they were taken on

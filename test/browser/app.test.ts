@@ -164,6 +164,29 @@ describe('field screen', () => {
     await close();
   });
 
+  it('converges on the last of several quick edits, with the exact solution (stale receptor jobs are stopped)', async () => {
+    const { page, errors, close } = await open();
+    await openDemo(page);
+    await page.click('[data-section=results] .dg-seg button[data-value=exact]');
+    await waitSettled(page);
+    await page.click('[data-section=release] .dg-sec-toggle');
+    const conc = page.locator('[data-field="source.concentration"] input.dg-num');
+    await conc.fill('40');
+    await waitSettled(page);
+    const settledAt40 = await tableRows(page);
+    const bandsAt40 = await bandPaths(page);
+    // edits faster than a receptor job takes: each newer edit stops the older job
+    for (const v of ['12', '25', '33', '47', '40']) {
+      await conc.fill(v);
+      await page.waitForTimeout(15);
+    }
+    await waitSettled(page);
+    expect(await tableRows(page)).toEqual(settledAt40);
+    expect(await bandPaths(page)).toEqual(bandsAt40);
+    expect(errors).toEqual([]);
+    await close();
+  });
+
   it('falls back to the site grid with scale bar and north arrow when tiles cannot load, and contacts no other host', async () => {
     const { page, hosts, close } = await open();
     await openDemo(page);
