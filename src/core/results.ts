@@ -293,21 +293,29 @@ function lastAtLimit(fs: readonly number[]): number {
   return -1;
 }
 
-/** Concentration grid (mg/L) on the flow-aligned lattice, index i·ys.length + j. */
+/**
+ * Concentration grid (mg/L) on the flow-aligned lattice, index i·ys.length + j. With `into` (of
+ * exactly xs.length × ys.length values) the grid is written there and returned, so a caller that
+ * redraws often can keep one buffer instead of allocating a new grid each time.
+ */
 export function concentrationGrid(
   m: ScreeningModel,
   xs: ArrayLike<number>,
   ys: ArrayLike<number>,
   z: number,
   t: number,
-  opts?: ExactOptions & { solution?: SolutionKind },
+  opts?: ExactOptions & { solution?: SolutionKind; into?: Float64Array },
 ): Float64Array {
   validateModel(m);
   requireNonNegative('z', z);
   requireTime('t', t);
   for (let i = 0; i < xs.length; i++) requireFinite(`xs[${i}]`, xs[i]);
   for (let j = 0; j < ys.length; j++) requireFinite(`ys[${j}]`, ys[j]);
-  const out = new Float64Array(xs.length * ys.length);
+  const n = xs.length * ys.length;
+  const into = opts?.into;
+  if (into !== undefined && !(into instanceof Float64Array && into.length === n))
+    throw new RangeError(`into must be a Float64Array of xs.length × ys.length = ${n} values`);
+  const out = into ?? new Float64Array(n);
   relativeGrid(m, opts?.solution ?? m.solution, xs, ys, { zTop: z, zBottom: z }, t, out, opts);
   for (let i = 0; i < out.length; i++) {
     const c = out[i] * m.c0;

@@ -80,6 +80,8 @@ function orientRing<P extends readonly number[]>(ring: readonly P[], ccw: boolea
   return open;
 }
 
+let transposed = new Float64Array(0);
+
 /** Filled bands C ≥ threshold for each threshold, in the order given (see the module header). */
 export function contourBands({ values, xs, ys, thresholds }: ContourInput): ContourBand[] {
   checkAxis(xs, 'xs');
@@ -91,8 +93,10 @@ export function contourBands({ values, xs, ys, thresholds }: ContourInput): Cont
     throw new RangeError('thresholds must be a list of concentrations');
   for (let k = 0; k < thresholds.length; k++)
     if (!Number.isFinite(thresholds[k])) throw new RangeError(`thresholds[${k}] must be a finite number, got ${thresholds[k]}`);
-  // transpose: core index i*ny + j (x-major) → d3 row-major index j*nx + i
-  const grid = new Float64Array(nx * ny);
+  // transpose: core index i*ny + j (x-major) → d3 row-major index j*nx + i, into a buffer kept
+  // between calls (d3 reads it only during the call; it holds no result)
+  if (transposed.length < nx * ny) transposed = new Float64Array(nx * ny);
+  const grid = transposed.subarray(0, nx * ny);
   for (let i = 0; i < nx; i++) {
     for (let j = 0; j < ny; j++) {
       const v = values[i * ny + j];

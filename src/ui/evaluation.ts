@@ -8,10 +8,13 @@
  *   its band paths at once; the results signal (plume included, for export and the report) is
  *   republished and the receptor job for an edit starts when that edit's contours are painted,
  *   so on a two-core tablet neither slows the contours down.
- * - A receptor job overtaken by a newer edit is cancelled as soon as the edit arrives: its worker
- *   is terminated (the exact solution at many receptors can take seconds; its result would be
- *   thrown away) and replaced when the next receptor job starts, after the new contours are
- *   painted, so while they are computed no other job competes for the tablet's cores.
+ * - A receptor job overtaken by a newer edit is cancelled when it has already run for
+ *   CANCEL_AFTER_MS (the exact solution at many receptors can take seconds; its result would be
+ *   thrown away): its worker is terminated and replaced when the next receptor job starts. A
+ *   younger job is left to finish and its result dropped: terminating a busy worker blocks the
+ *   page for several milliseconds and a new worker starts cold (measured in headless Chromium:
+ *   about 8 ms to terminate and 4 ms to create, against 4–20 ms for a whole demo case's receptor
+ *   job), so cancelling short jobs would cost the screen more than it saves.
  */
 import { effect, signal } from '@preact/signals';
 import { wrap, type Remote } from 'comlink';
@@ -35,6 +38,9 @@ export const currentPlume = signal<PlumeLayer | null>(null);
 
 class Cancelled extends Error {}
 
+/** A receptor job younger than this is left to finish when a newer edit arrives (see the header). */
+export const CANCEL_AFTER_MS = 250;
+
 /** A worker that can be stopped mid-job (terminated and replaced). */
 /**
  * A worker that can be stopped mid-job (terminated). A cancelled worker is replaced only when the
@@ -44,6 +50,7 @@ class ScreeningWorker {
   private worker: Worker | null = null;
   private api: Remote<ScreeningApi> | null = null;
   private abort: ((e: Error) => void) | null = null;
+  private startedAt = 0;
   constructor() {
     this.start();
   }
@@ -54,15 +61,18 @@ class ScreeningWorker {
   }
   run<R>(job: (api: Remote<ScreeningApi>) => Promise<R>): Promise<R> {
     const api = this.api ?? this.start();
+    this.startedAt = performance.now();
     return new Promise<R>((resolve, reject) => {
       this.abort = reject;
       job(api).then(resolve, reject);
     }).finally(() => (this.abort = null));
   }
-  cancel(): void {
-    if (!this.abort) return;
+  /** Stop the running job if it has run for at least minAgeMs (then true). */
+  cancel(minAgeMs = 0): boolean {
+    if (!this.abort || performance.now() - this.startedAt < minAgeMs) return false;
     this.abort(new Cancelled());
     this.terminate();
+    return true;
   }
   terminate(): void {
     this.worker?.terminate();
@@ -85,10 +95,6 @@ class LatestOnly<A, R> {
     this.next = a;
     if (this.running) this.cancelRunning?.();
     else void this.pump();
-  }
-  /** Stop the running job now (its result would be out of date); nothing else starts. */
-  cancel(): void {
-    if (this.running) this.cancelRunning?.();
   }
   get busy(): boolean {
     return this.running || this.next !== null;
@@ -217,7 +223,7 @@ export function startEvaluation(): () => void {
       settle();
     },
     onFail,
-    () => resultWorker.cancel(),
+    () => resultWorker.cancel(CANCEL_AFTER_MS),
   );
 
   let lastEvalStamp = '';
@@ -240,9 +246,6 @@ export function startEvaluation(): () => void {
     if (c.modified !== lastEvalStamp) {
       lastEvalStamp = c.modified;
       waitingEval = c;
-      // the receptor job for an older edit is out of date: stopped at once, so the new contours
-      // have the second core to themselves (the new job starts when they are painted)
-      evals.cancel();
     }
   });
   // read by the latency benchmark (bench/ui-latency.mjs): samples and the case they were taken on

@@ -132,11 +132,15 @@ export function latticeFor(p: PreparedCase, gridSize: number): Lattice {
   return { xs, ys, extent: { x0, x1, y0: -y1, y1 } };
 }
 
+/** cropToBands' output buffer, reused from call to call */
+let cropBuffer = new Float64Array(0);
+
 /**
  * The part of the lattice that holds every node at or above `lowest`, with one more node on each
  * side (clamped to the lattice). The bands it gives are the full lattice's exactly: marching
  * squares only draws through cells with a node at or above the threshold, and every such cell is
  * inside the crop. Contouring then costs in proportion to the plume, not the lattice.
+ * The cropped values live in a buffer that the next call reuses: use them before cropping again.
  */
 export function cropToBands(
   values: Float64Array,
@@ -164,7 +168,8 @@ export function cropToBands(
   j1 = Math.min(ny - 1, j1 + 1);
   const cx = i1 - i0 + 1, cy = j1 - j0 + 1;
   if (cx < 2 || cy < 2) return { values, xs, ys };
-  const out = new Float64Array(cx * cy);
+  if (cropBuffer.length < cx * cy) cropBuffer = new Float64Array(Math.max(cx * cy, values.length));
+  const out = cropBuffer.subarray(0, cx * cy);
   for (let i = 0; i < cx; i++) out.set(values.subarray((i0 + i) * ny + j0, (i0 + i) * ny + j1 + 1), i * cy);
   return { values: out, xs: xs.subarray(i0, i1 + 1), ys: ys.subarray(j0, j1 + 1) };
 }
@@ -175,6 +180,9 @@ export function bandThresholds(limit: number, c0: number): number[] {
 
 /** performance.now() as milliseconds since the epoch, comparable across the page and its workers */
 export const epochNow = (): number => (typeof performance !== 'undefined' ? performance.timeOrigin + performance.now() : Date.now());
+
+/** The lattice values of the last plume, kept for the next (a worker redraws many times a second). */
+let gridBuffer = new Float64Array(0);
 
 /**
  * Contours at time t (d; Infinity: steady state) on a gridSize × gridSize lattice, as packed map
@@ -189,7 +197,9 @@ export function plumeForCase(c: Case, t: number | null, gridSize: number, lattic
   const time = t ?? p.viewTime;
   const lat = lattice ?? latticeFor(p, gridSize);
   const t1 = now();
-  const values = concentrationGrid(p.model, lat.xs, lat.ys, p.depth, time);
+  const n = lat.xs.length * lat.ys.length;
+  if (gridBuffer.length !== n) gridBuffer = new Float64Array(n);
+  const values = concentrationGrid(p.model, lat.xs, lat.ys, p.depth, time, { into: gridBuffer });
   const t2 = now();
   const thresholds = bandThresholds(p.limit, p.model.c0);
   const crop = thresholds.length ? cropToBands(values, lat.xs, lat.ys, thresholds[0]) : null;
