@@ -6,8 +6,9 @@
  *   typing or dragging never piles up work and the screen always converges on the latest inputs.
  * - The plume goes first: the contours come back as transferred typed arrays and the map updates
  *   its band paths at once; the results signal (plume included, for export and the report) is
- *   republished and the receptor job for an edit starts when that edit's contours are painted,
- *   so on a two-core tablet neither slows the contours down.
+ *   republished when that edit's contours are painted, and the receptor job for the edit starts
+ *   RECEPTOR_PAUSE_MS later unless a newer edit came first, so on a two-core tablet the receptor
+ *   work does not slow the contours down while the user types or drags.
  * - A receptor job overtaken by a newer edit is cancelled when it has already run for
  *   CANCEL_AFTER_MS (the exact solution at many receptors can take seconds; its result would be
  *   thrown away): its worker is terminated and replaced when the next receptor job starts. A
@@ -40,6 +41,12 @@ class Cancelled extends Error {}
 
 /** A receptor job younger than this is left to finish when a newer edit arrives (see the header). */
 export const CANCEL_AFTER_MS = 250;
+/**
+ * The receptor job for an edit starts this long after its contours are painted, unless a newer
+ * edit arrives first: while the user types or drags, each change redraws the contours with the
+ * tablet's second core to itself, and the receptor table follows when they pause.
+ */
+export const RECEPTOR_PAUSE_MS = 120;
 
 /** A worker that can be stopped mid-job (terminated and replaced). */
 /**
@@ -171,9 +178,16 @@ export function startEvaluation(): () => void {
   const settle = () => {
     if (!plumes.busy && !evals.busy && evaluationState.peek() !== 'error') evaluationState.value = 'idle';
   };
+  let pauseTimer: ReturnType<typeof setTimeout> | null = null;
   const startWaitingEval = () => {
+    if (pauseTimer !== null) clearTimeout(pauseTimer);
+    pauseTimer = null;
     if (waitingEval) evals.request(waitingEval);
     waitingEval = null;
+  };
+  /** start the waiting receptor job after a pause in editing (see RECEPTOR_PAUSE_MS) */
+  const startAfterPause = () => {
+    if (waitingEval && pauseTimer === null) pauseTimer = setTimeout(startWaitingEval, RECEPTOR_PAUSE_MS);
   };
 
   const plumes: LatestOnly<PlumeJob, PlumeLayer> = new LatestOnly(
@@ -204,9 +218,9 @@ export function startEvaluation(): () => void {
         });
         if (latencySamples.length > 200) latencySamples.splice(0, 100);
         // the results (which carry the plume for export and the report) re-render after the
-        // contours are on screen, and then the receptor job starts
+        // contours are on screen; the receptor job starts after a pause in editing
         publishEval();
-        startWaitingEval();
+        startAfterPause();
         settle();
       });
     },
@@ -246,12 +260,16 @@ export function startEvaluation(): () => void {
     if (c.modified !== lastEvalStamp) {
       lastEvalStamp = c.modified;
       waitingEval = c;
+      // a newer edit: the pause starts again after its contours are painted
+      if (pauseTimer !== null) clearTimeout(pauseTimer);
+      pauseTimer = null;
     }
   });
   // read by the latency benchmark (bench/ui-latency.mjs): samples and the case they were taken on
   (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek() };
   return () => {
     stop();
+    if (pauseTimer !== null) clearTimeout(pauseTimer);
     plumeWorker.terminate();
     resultWorker.terminate();
   };

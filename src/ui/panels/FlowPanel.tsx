@@ -8,22 +8,31 @@ import { MATERIAL_PRESETS, materialPreset, FIELD_RANGES, citeValue } from '../..
 import type { Case, HeadReading } from '../../case/schema';
 import { fmtLength } from '../format';
 import { fieldIssue } from '../validity';
+import { preparedCase } from '../evaluation';
 
 function rangeHelp(field: string, unit: string, lead = 'Usual range'): string {
   const r = FIELD_RANGES.find((x) => x.field === field);
   return r ? `${lead} ${citeValue(r, unit === '–' ? '' : unit).replace(/ \(/, ' (').trim()}.` : '';
 }
 
+/**
+ * Derived flow and aquifer values for the case on screen: from its preparation on the main thread
+ * (done with every edit), or the last results' while an input is invalid.
+ */
+function derivedNow(): { v: number; R: number; ax: number; ay: number; az: number; gradient: number; azimuthDeg: number } | null {
+  return preparedCase.value?.derived ?? currentResults.value?.derived ?? null;
+}
+
 export function FlowPanel() {
   const c = currentCase.value;
   const flow = c.site.flow;
-  const r = currentResults.value;
+  const dv = derivedNow();
   const k = c.aquifer.hydraulicConductivity;
   const summary =
     (flow.method === 'direction'
       ? `Towards ${fmtNum(flow.azimuthDeg)}°, gradient ${fmtNum(flow.gradient)}`
-      : `From ${flow.readings.length} water levels${r ? `: towards ${fmtNum(r.derived.azimuthDeg, 3)}°, gradient ${fmtNum(r.derived.gradient, 2)}` : ''}`) +
-    `; K ${fmtNum(k.value)} ${unitLabel(k.unit)}${r ? `, v ${fmtNum(r.derived.v, 3)} m/d, R ${fmtNum(r.derived.R, 3)}` : ''}`;
+      : `From ${flow.readings.length} water levels${dv ? `: towards ${fmtNum(dv.azimuthDeg, 3)}°, gradient ${fmtNum(dv.gradient, 2)}` : ''}`) +
+    `; K ${fmtNum(k.value)} ${unitLabel(k.unit)}${dv ? `, v ${fmtNum(dv.v, 3)} m/d, R ${fmtNum(dv.R, 3)}` : ''}`;
   return (
     <Section id="flow" title="Which way does the water go?" summary={summary}>
       <Segmented
@@ -69,11 +78,11 @@ export function FlowPanel() {
       ) : (
         <HeadReadings c={c} />
       )}
-      {r && (
+      {dv && (
         <p class="dg-derived" data-testid="flow-derived">
-          Flow towards <strong>{fmtNum(r.derived.azimuthDeg, 4)}°</strong>, gradient <strong>{fmtNum(r.derived.gradient, 3)}</strong>;
-          seepage velocity v = K·i/nₑ = <strong>{fmtNum(r.derived.v, 3)} m/d</strong> ({fmtLength(r.derived.v * 365.25)}/yr), retardation
-          factor R = <strong>{fmtNum(r.derived.R, 3)}</strong> (plume front moves at v/R).
+          Flow towards <strong>{fmtNum(dv.azimuthDeg, 4)}°</strong>, gradient <strong>{fmtNum(dv.gradient, 3)}</strong>;
+          seepage velocity v = K·i/nₑ = <strong>{fmtNum(dv.v, 3)} m/d</strong> ({fmtLength(dv.v * 365.25)}/yr), retardation
+          factor R = <strong>{fmtNum(dv.R, 3)}</strong> (plume front moves at v/R).
         </p>
       )}
       <Aquifer c={c} />
@@ -154,6 +163,7 @@ function HeadReadings({ c }: { c: Case }) {
 function Aquifer({ c }: { c: Case }) {
   const a = c.aquifer;
   const r = currentResults.value;
+  const dv = derivedNow();
   const disp = a.dispersivity;
   return (
     <div class="dg-group" data-group="aquifer">
@@ -296,8 +306,8 @@ function Aquifer({ c }: { c: Case }) {
           />
           {r && (
             <p class="dg-derived" data-testid="dispersivity-derived">
-              L = distance to the farthest receptor; αL = <strong>{fmtLength(r.derived.ax)}</strong>, αT = {fmtLength(r.derived.ay)}, αV ={' '}
-              {fmtLength(r.derived.az)}
+              L = distance to the farthest receptor; αL = <strong>{fmtLength((dv ?? r.derived).ax)}</strong>, αT = {fmtLength((dv ?? r.derived).ay)}, αV ={' '}
+              {fmtLength((dv ?? r.derived).az)}
               {r.derived.dispersivityRelation ? ` (${r.derived.dispersivityRelation})` : ''}. Field dispersivities scatter over 2–3
               orders of magnitude at one scale (Gelhar, Welty &amp; Rehfeldt 1992): use site values when you have them.
             </p>

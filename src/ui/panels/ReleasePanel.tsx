@@ -8,13 +8,16 @@ import type { Case } from '../../case/schema';
 import { convert } from '../../core/units';
 import { fmtLength } from '../format';
 import { moveSource } from '../frame';
+import { preparedCase } from '../evaluation';
 
 export function ReleasePanel() {
   const c = currentCase.value;
   const src = c.site.source;
-  const r = currentResults.value;
+  // the width across the flow as the engine takes it, for the case on screen (prepared on the main
+  // thread with every edit); the last results' while an input is invalid
+  const width = preparedCase.value?.derived.width ?? currentResults.value?.derived.width ?? null;
   const outline = src.footprint !== null;
-  const summary = `${outline ? 'Traced outline' : 'Point'}, ${r ? fmtLength(r.derived.width) : fmtNum(src.width.value) + ' ' + unitLabel(src.width.unit)} across the flow; ${c.contaminant.name || 'contaminant'} at ${fmtNum(c.source.concentration.value)} ${unitLabel(c.source.concentration.unit)}`;
+  const summary = `${outline ? 'Traced outline' : 'Point'}, ${width !== null ? fmtLength(width) : fmtNum(src.width.value) + ' ' + unitLabel(src.width.unit)} across the flow; ${c.contaminant.name || 'contaminant'} at ${fmtNum(c.source.concentration.value)} ${unitLabel(c.source.concentration.unit)}`;
   return (
     <Section id="release" title="Where is the release?" summary={summary}>
       <Segmented
@@ -32,7 +35,7 @@ export function ReleasePanel() {
       {outline ? (
         <div class="dg-derived" data-testid="source-width">
           <p>
-            Width across the flow: <strong>{r ? fmtLength(r.derived.width) : '…'}</strong>, from the traced outline
+            Width across the flow: <strong>{width !== null ? fmtLength(width) : '…'}</strong>, from the traced outline
             ({src.footprint!.length} corners) and the flow direction; recomputed when either changes. The source plane sits on
             the outline's downgradient edge (common practice).
           </p>

@@ -6,6 +6,7 @@
  */
 import { Section } from './Section';
 import { useState } from 'preact/hooks';
+import { memo } from 'preact/compat';
 import { currentCase, currentResults, updateCase } from '../state';
 import { Segmented } from '../fields';
 import { selectedId } from '../view';
@@ -53,9 +54,9 @@ export function ResultsPanel() {
         <div class={stale ? 'dg-stale' : ''} data-stale={stale} data-testid="results">
           {stale && !issue && <p class="dg-banner" role="status">Updating…</p>}
           <Summary r={r} />
-          <ReceptorTable r={r} />
-          <Charts r={r} />
-          <Warnings r={r} />
+          <ReceptorTableOf r={r} />
+          <ChartsOf r={r} />
+          <WarningsOf r={r} />
         </div>
       )}
       {r && (
@@ -65,6 +66,19 @@ export function ResultsPanel() {
       )}
     </Section>
   );
+}
+
+/**
+ * The same results, whatever plume they carry: the evaluation loop republishes them with each new
+ * plume (for export and the report), and an edit re-renders this panel before its results exist;
+ * neither changes the table, charts or warnings, which then skip re-rendering (they still follow
+ * the signals they read themselves: selection, units).
+ */
+function sameResults(a: { r: Evaluation }, b: { r: Evaluation }): boolean {
+  if (a.r === b.r) return true;
+  const ka = Object.keys(a.r) as (keyof Evaluation)[];
+  if (ka.length !== Object.keys(b.r).length) return false;
+  return ka.every((k) => k === 'plume' || a.r[k] === b.r[k]);
 }
 
 function Caution() {
@@ -238,3 +252,7 @@ function Warnings({ r }: { r: Evaluation }) {
     </div>
   );
 }
+
+const ReceptorTableOf = memo(ReceptorTable, sameResults);
+const ChartsOf = memo(Charts, sameResults);
+const WarningsOf = memo(Warnings, sameResults);
