@@ -20,7 +20,9 @@
 // The breakdown splits each sample at the posting of the request, the worker's start and end (its
 // clock, performance.timeOrigin + now(), converted to the page's), the arrival of the result, the
 // DOM update and the paint; medians of the parts need not add up to the median of the whole.
-// The receptor worker runs at the same time, as it does in use.
+// Edits follow one another as soon as the previous contours are painted, sooner than the evaluation
+// loop starts the receptor job (RECEPTOR_PAUSE_MS after a paint, src/ui/evaluation.ts), so the
+// receptor worker is idle during the samples, as it is while a user types or drags.
 //
 // A display paints on its own frame cadence (about 16.7 ms at 60 Hz; the measured animation-frame
 // interval is printed). Contours finished at a random moment wait on average half a frame, up to
