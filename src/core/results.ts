@@ -39,9 +39,14 @@ function checkReceptor(r: Receptor, field = 'receptor'): void {
   if (r.zBottom < r.zTop) throw new ValidationError(`${field}.zBottom`, r.zBottom, `≥ screen top (${r.zTop})`);
 }
 
-function cAt(m: ScreeningModel, kind: SolutionKind, r: Receptor, t: number, opts?: ExactOptions): number {
-  const c = m.c0 * relativeAt(m, kind, r.x, r.y, r, t, opts);
+/** mg/L from C/C0: negative rounding and non-finite values (never expected) read as 0 */
+function mgPerL(m: ScreeningModel, relative: number): number {
+  const c = m.c0 * relative;
   return c > 0 && Number.isFinite(c) ? c : 0;
+}
+
+function cAt(m: ScreeningModel, kind: SolutionKind, r: Receptor, t: number, opts?: ExactOptions): number {
+  return mgPerL(m, relativeAt(m, kind, r.x, r.y, r, t, opts));
 }
 
 /** Concentration (mg/L) at a point; t = Infinity for steady state. */
@@ -65,10 +70,7 @@ export function breakthroughCurve(m: ScreeningModel, r: Receptor, times: ArrayLi
   checkReceptor(r);
   for (let k = 0; k < times.length; k++) requireTime(`times[${k}]`, times[k]);
   const out = relativeSeries(m, kind, r.x, r.y, r, times);
-  for (let k = 0; k < out.length; k++) {
-    const c = m.c0 * out[k];
-    out[k] = c > 0 && Number.isFinite(c) ? c : 0;
-  }
+  for (let k = 0; k < out.length; k++) out[k] = mgPerL(m, out[k]);
   return out;
 }
 
@@ -263,19 +265,15 @@ export function plumeLength(m: ScreeningModel, limit: number, z: number, t = Inf
   // within that tolerance of the limit) the scan is redone point by point.
   const line = new Float64Array(n);
   relativeGrid(m, kind, xs, [0], { zTop: z, zBottom: z }, t, line);
-  const cOf = (u: number) => {
-    const c = m.c0 * u;
-    return c > 0 && Number.isFinite(c) ? c : 0;
-  };
-  let fs = Array.from(line, (u) => cOf(u) - limit);
+  let fs = Array.from(line, (u) => mgPerL(m, u) - limit);
   let last = lastAtLimit(fs);
-  const confirmed = (k: number): boolean => {
-    if (k < 0) return fs.every((d) => d < -1e-4 * limit);
-    const a = f(xs[k]);
-    if (k === n - 1) return a >= 0;
-    const b = f(xs[k + 1]);
-    fs[k] = a;
-    fs[k + 1] = b;
+  const confirmed = (i: number): boolean => {
+    if (i < 0) return fs.every((d) => d < -1e-4 * limit);
+    const a = f(xs[i]);
+    if (i === n - 1) return a >= 0;
+    const b = f(xs[i + 1]);
+    fs[i] = a;
+    fs[i + 1] = b;
     return a >= 0 && b < 0;
   };
   if (!confirmed(last)) {
@@ -317,10 +315,7 @@ export function concentrationGrid(
     throw new RangeError(`into must be a Float64Array of xs.length × ys.length = ${n} values`);
   const out = into ?? new Float64Array(n);
   relativeGrid(m, opts?.solution ?? m.solution, xs, ys, { zTop: z, zBottom: z }, t, out, opts);
-  for (let i = 0; i < out.length; i++) {
-    const c = out[i] * m.c0;
-    out[i] = c > 0 && Number.isFinite(c) ? c : 0;
-  }
+  for (let i = 0; i < out.length; i++) out[i] = mgPerL(m, out[i]);
   return out;
 }
 

@@ -24,7 +24,7 @@ import { prepareCase, type PreparedCase } from '../case/prepare';
 import { ValidationError } from '../core';
 import type { ScreeningApi } from '../worker/screening';
 import type { Evaluation, PlumeLayer } from './results';
-import { currentCase, publishResults } from './state';
+import { currentCase, currentResults, publishResults } from './state';
 import { playTime } from './view';
 import { settings } from './settings';
 import { inputIssue } from './validity';
@@ -34,6 +34,15 @@ export const evaluationState = signal<'idle' | 'busy' | 'error'>('idle');
 export const evaluationError = signal<string | null>(null);
 /** The current case prepared for the engine (null while an input is invalid): map geometry. */
 export const preparedCase = signal<PreparedCase | null>(null);
+/**
+ * Derived values shown beside the inputs (width across the flow, flow, v, R, dispersivities, in
+ * internal units) for the case on screen: from its preparation on the main thread, done with every
+ * edit, or the last results' while an input is invalid. Reading it subscribes the component to both.
+ */
+export function derivedForScreen(): Pick<Evaluation['derived'], 'v' | 'R' | 'ax' | 'ay' | 'az' | 'gradient' | 'azimuthDeg' | 'width'> | null {
+  return preparedCase.value?.derived ?? currentResults.value?.derived ?? null;
+}
+
 /** The contours on the map (they arrive before the receptor results). */
 export const currentPlume = signal<PlumeLayer | null>(null);
 
@@ -48,7 +57,6 @@ export const CANCEL_AFTER_MS = 250;
  */
 export const RECEPTOR_PAUSE_MS = 120;
 
-/** A worker that can be stopped mid-job (terminated and replaced). */
 /**
  * A worker that can be stopped mid-job (terminated). A cancelled worker is replaced only when the
  * next job needs it, so nothing boots while the contours for the newer edit are being computed.
@@ -179,9 +187,12 @@ export function startEvaluation(): () => void {
     if (!plumes.busy && !evals.busy && evaluationState.peek() !== 'error') evaluationState.value = 'idle';
   };
   let pauseTimer: ReturnType<typeof setTimeout> | null = null;
-  const startWaitingEval = () => {
+  const clearPause = () => {
     if (pauseTimer !== null) clearTimeout(pauseTimer);
     pauseTimer = null;
+  };
+  const startWaitingEval = () => {
+    clearPause();
     if (waitingEval) evals.request(waitingEval);
     waitingEval = null;
   };
@@ -261,15 +272,14 @@ export function startEvaluation(): () => void {
       lastEvalStamp = c.modified;
       waitingEval = c;
       // a newer edit: the pause starts again after its contours are painted
-      if (pauseTimer !== null) clearTimeout(pauseTimer);
-      pauseTimer = null;
+      clearPause();
     }
   });
   // read by the latency benchmark (bench/ui-latency.mjs): samples and the case they were taken on
   (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek() };
   return () => {
     stop();
-    if (pauseTimer !== null) clearTimeout(pauseTimer);
+    clearPause();
     plumeWorker.terminate();
     resultWorker.terminate();
   };

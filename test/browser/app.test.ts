@@ -164,7 +164,7 @@ describe('field screen', () => {
     await close();
   });
 
-  it('converges on the last of several quick edits, with the exact solution (stale receptor jobs are stopped)', async () => {
+  it('converges on the last of several quick edits, with the exact solution (out-of-date receptor results are dropped)', async () => {
     const { page, errors, close } = await open();
     await openDemo(page);
     await page.click('[data-section=results] .dg-seg button[data-value=exact]');
@@ -175,7 +175,7 @@ describe('field screen', () => {
     await waitSettled(page);
     const settledAt40 = await tableRows(page);
     const bandsAt40 = await bandPaths(page);
-    // edits faster than a receptor job takes: each newer edit stops the older job
+    // edits sooner than the receptor pause: older jobs never start, or finish and are dropped
     for (const v of ['12', '25', '33', '47', '40']) {
       await conc.fill(v);
       await page.waitForTimeout(15);

@@ -8,25 +8,17 @@ import { MATERIAL_PRESETS, materialPreset, FIELD_RANGES, citeValue } from '../..
 import type { Case, HeadReading } from '../../case/schema';
 import { fmtLength } from '../format';
 import { fieldIssue } from '../validity';
-import { preparedCase } from '../evaluation';
+import { derivedForScreen } from '../evaluation';
 
 function rangeHelp(field: string, unit: string, lead = 'Usual range'): string {
   const r = FIELD_RANGES.find((x) => x.field === field);
   return r ? `${lead} ${citeValue(r, unit === '–' ? '' : unit).replace(/ \(/, ' (').trim()}.` : '';
 }
 
-/**
- * Derived flow and aquifer values for the case on screen: from its preparation on the main thread
- * (done with every edit), or the last results' while an input is invalid.
- */
-function derivedNow(): { v: number; R: number; ax: number; ay: number; az: number; gradient: number; azimuthDeg: number } | null {
-  return preparedCase.value?.derived ?? currentResults.value?.derived ?? null;
-}
-
 export function FlowPanel() {
   const c = currentCase.value;
   const flow = c.site.flow;
-  const dv = derivedNow();
+  const dv = derivedForScreen();
   const k = c.aquifer.hydraulicConductivity;
   const summary =
     (flow.method === 'direction'
@@ -163,7 +155,7 @@ function HeadReadings({ c }: { c: Case }) {
 function Aquifer({ c }: { c: Case }) {
   const a = c.aquifer;
   const r = currentResults.value;
-  const dv = derivedNow();
+  const dv = derivedForScreen();
   const disp = a.dispersivity;
   return (
     <div class="dg-group" data-group="aquifer">
@@ -258,10 +250,10 @@ function Aquifer({ c }: { c: Case }) {
           updateCase((d) => {
             if (m === d.aquifer.dispersivity.mode) return;
             if (m === 'given') {
-              const dv = currentResults.peek()?.derived;
-              const ax = dv ? Number(dv.ax.toPrecision(3)) : 10;
-              const ay = dv ? Number(dv.ay.toPrecision(3)) : 1;
-              const az = dv ? Number(dv.az.toPrecision(3)) : 0.1;
+              const last = currentResults.peek()?.derived;
+              const ax = last ? Number(last.ax.toPrecision(3)) : 10;
+              const ay = last ? Number(last.ay.toPrecision(3)) : 1;
+              const az = last ? Number(last.az.toPrecision(3)) : 0.1;
               d.aquifer.dispersivity = {
                 mode: 'given',
                 longitudinal: { value: ax, unit: 'm' },
@@ -304,10 +296,10 @@ function Aquifer({ c }: { c: Case }) {
             onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.verticalRatio = v))}
             help="Vertical is typically ~10× smaller than horizontal transverse (Gelhar et al. 1992); ASTM E1739 uses 1/20 (recalled)."
           />
-          {r && (
+          {r && dv && (
             <p class="dg-derived" data-testid="dispersivity-derived">
-              L = distance to the farthest receptor; αL = <strong>{fmtLength((dv ?? r.derived).ax)}</strong>, αT = {fmtLength((dv ?? r.derived).ay)}, αV ={' '}
-              {fmtLength((dv ?? r.derived).az)}
+              L = distance to the farthest receptor; αL = <strong>{fmtLength(dv.ax)}</strong>, αT = {fmtLength(dv.ay)}, αV ={' '}
+              {fmtLength(dv.az)}
               {r.derived.dispersivityRelation ? ` (${r.derived.dispersivityRelation})` : ''}. Field dispersivities scatter over 2–3
               orders of magnitude at one scale (Gelhar, Welty &amp; Rehfeldt 1992): use site values when you have them.
             </p>

@@ -1,6 +1,6 @@
 /** Where the release is and what it releases: source geometry and strength, and the contaminant. */
 import { Section } from './Section';
-import { currentCase, updateCase, currentResults } from '../state';
+import { currentCase, updateCase } from '../state';
 import { QuantityField, NumberField, OptionalQuantityField, Segmented, fmtNum, unitLabel } from '../fields';
 import { mapTool } from '../view';
 import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, type ContaminantPreset } from '../../case/presets';
@@ -8,14 +8,13 @@ import type { Case } from '../../case/schema';
 import { convert } from '../../core/units';
 import { fmtLength } from '../format';
 import { moveSource } from '../frame';
-import { preparedCase } from '../evaluation';
+import { derivedForScreen } from '../evaluation';
 
 export function ReleasePanel() {
   const c = currentCase.value;
   const src = c.site.source;
-  // the width across the flow as the engine takes it, for the case on screen (prepared on the main
-  // thread with every edit); the last results' while an input is invalid
-  const width = preparedCase.value?.derived.width ?? currentResults.value?.derived.width ?? null;
+  // the width across the flow as the engine takes it, for the case on screen
+  const width = derivedForScreen()?.width ?? null;
   const outline = src.footprint !== null;
   const summary = `${outline ? 'Traced outline' : 'Point'}, ${width !== null ? fmtLength(width) : fmtNum(src.width.value) + ' ' + unitLabel(src.width.unit)} across the flow; ${c.contaminant.name || 'contaminant'} at ${fmtNum(c.source.concentration.value)} ${unitLabel(c.source.concentration.unit)}`;
   return (
