@@ -13,8 +13,20 @@
  * grids evaluated by bench/numpy_grids.py (vectorised numpy/scipy, run as a child process) and the
  * ratio JS/numpy, with the agreement of the JS grids with numpy's and numpy's own accuracy check.
  * Then the contour pipeline (bench/contourPipeline.ts). Targets are printed with whether they are met.
- * Options: --no-numpy (JS figures only), --python <command> (python3 by default),
- * --json <file> (also write every figure as JSON).
+ * Beside the contract grid (a fresh result array per call) the mirrored Domenico grid is also timed
+ * into a reused buffer, as the app's plume worker computes it, so the cost of the allocation shows.
+ * The lateral rows run in the WebAssembly lattice kernel (src/core/special/latticeKernel.ts; the
+ * same values as the TypeScript code); --no-wasm times the TypeScript path instead.
+ *
+ * Memory allocator: `npm run bench` starts this script (and so the numpy child, which inherits the
+ * environment) with glibc's MALLOC_TRIM_THRESHOLD_, MALLOC_TOP_PAD_ and MALLOC_MMAP_THRESHOLD_
+ * raised to 256 MiB / 64 MiB / 256 MiB. With glibc's defaults a freed 2 MB result array goes back
+ * to the operating system and the next one is faulted in page by page; on these virtual machines
+ * that cost more than the grid itself (measured 2026-12-02: 6.3 ms per 512² grid against 1.4 ms
+ * into a reused buffer, while numpy, whose arrays are freed at once and reused, was unaffected).
+ * The header line "allocator" says which settings a run had.
+ * Options: --no-numpy (JS figures only), --no-wasm (TypeScript lattice), --python <command>
+ * (python3 by default), --json <file> (also write every figure as JSON).
  * Nothing here asserts on time; tests never do.
  */
 import { cpus, loadavg } from 'node:os';
@@ -27,6 +39,8 @@ import { NumpyProcess, type NumpyInfo, type NumpyGrid } from './numpyRunner';
 import { ratio, sci, seconds, si, table, targetTable, type Target } from './report';
 import { AX, AY, AZ, DECAY, R, T, THICKNESS, V, WIDTH, Z, benchModel, benchTimes, benchWells, gridXs, gridYs } from './scenario';
 import { measureContourPipeline } from './contourPipeline';
+import { relativeGrid } from '../src/core/transport';
+import { latticeKernel, useLatticeKernel } from '../src/core/special/latticeKernel';
 
 const REL_TOL = 1e-6;
 const ABS_TOL = 1e-13;
@@ -62,6 +76,7 @@ function lateralArguments(xs: Float64Array, ys: Float64Array): Float64Array {
 
 async function main(): Promise<void> {
   const withNumpy = !process.argv.includes('--no-numpy');
+  if (process.argv.includes('--no-wasm')) useLatticeKernel(false);
   const jsonPath = argValue('--json');
   const rules = DEFAULT_RULES;
   const started = performance.now();
@@ -75,6 +90,8 @@ async function main(): Promise<void> {
   console.log('Downgradient benchmark: transport engine throughput');
   console.log(`node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'} (${cpus().length} cores; all figures single-threaded)`);
   const loadAtStart = loadavg()[0];
+  const mallocVars = ['MALLOC_TRIM_THRESHOLD_', 'MALLOC_TOP_PAD_', 'MALLOC_MMAP_THRESHOLD_'].filter((k) => process.env[k] !== undefined);
+  console.log(`allocator: ${mallocVars.length ? mallocVars.map((k) => `${k}=${process.env[k]}`).join(' ') : "glibc's defaults"} (see bench/bench.ts); lateral rows: ${latticeKernel() ? 'WebAssembly lattice kernel' : 'TypeScript'}`);
   console.log(
     `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up; JS and numpy repetitions interleaved in rounds; inputs built before the clock`,
   );
@@ -101,6 +118,10 @@ async function main(): Promise<void> {
     domAsym: { ...base, xs: dXs, ys: dYsAsym },
     exact: { ...base, xs: eXs, ys: eYs },
   };
+
+  // the mirrored grid again, into one buffer reused from call to call (C0 = 1, so C/C0 itself)
+  const intoModel = { ...benchModel('domenico'), c0: 1 };
+  const intoBuffer = new Float64Array(dXs.length * dYsSym.length);
 
   // ---- numpy: the same grids, with the JS results for the agreement check
   let numpy: { proc: NumpyProcess; info: NumpyInfo } | null = null;
@@ -152,6 +173,10 @@ async function main(): Promise<void> {
       erf: await local(erfLoop),
       domSym: await local(() => domenicoGrid(grids.domSym)),
       domAsym: await local(() => domenicoGrid(grids.domAsym)),
+      domSymInto: await local(() => {
+        relativeGrid(intoModel, 'domenico', dXs, dYsSym, { zTop: Z, zBottom: Z }, T, intoBuffer);
+        return intoBuffer;
+      }),
       exact: await local(() => patchSourceExactGrid(grids.exact, { relTol: REL_TOL, absTol: ABS_TOL })),
       btcDomenico: await local(curves(models[0][1])),
       ...npTimers,
@@ -176,6 +201,7 @@ async function main(): Promise<void> {
   });
   const domSym = figure('Domenico grid 512×512, y mirrored', dXs.length * dYsSym.length, timed.domSym, timed.erf);
   const domAsym = figure('Domenico grid 512×512, y not mirrored', dXs.length * dYsAsym.length, timed.domAsym, timed.erf);
+  const domInto = figure('  the same mirrored, into a reused buffer', dXs.length * dYsSym.length, timed.domSymInto, timed.erf);
   const exact = figure(`exact grid 64×64 (relTol ${REL_TOL.toExponential(0)}), y mirrored`, eXs.length * eYs.length, timed.exact, timed.erf);
   const nValues = wells.length * times.length;
   const btc = [
@@ -215,6 +241,7 @@ async function main(): Promise<void> {
       n ? ratio(n.jsOverNumpy) : '—',
     ];
   });
+  rows.splice(2, 0, [domInto.label, `${si(domInto.cellsPerSecond)}cells/s`, seconds(domInto.timing.medianSeconds), spread(domInto.timing), domInto.erfTimesPerCell.toFixed(2), '', '', '']);
   for (const f of btc) {
     rows.push([f.label, `${si(f.cellsPerSecond)}values/s`, seconds(f.timing.medianSeconds), spread(f.timing), f.erfTimesPerCell.toFixed(2), '', '', '']);
   }
@@ -274,7 +301,7 @@ async function main(): Promise<void> {
   );
 
   if (jsonPath) {
-    const out = { erfPerSecond, erf: erfTiming, figures: [domSym, domAsym, exact, ...btc], numpy: np, numpyTimings: npFigures, numpyError, contour, targets };
+    const out = { erfPerSecond, erf: erfTiming, figures: [domSym, domAsym, domInto, exact, ...btc], numpy: np, numpyTimings: npFigures, numpyError, contour, targets };
     writeFileSync(jsonPath, JSON.stringify(out, (_k, v: unknown) => (v === Infinity ? 'Infinity' : v), 2));
     console.log(`figures written to ${jsonPath}`);
   }

@@ -166,6 +166,7 @@ async function main() {
                 paint: got.drawnAt - got.layerAt,
                 timing: got.timing,
                 grid: got.gridSize,
+                kernel: got.kernel,
                 solution: got.solution,
               };
             await new Promise((r) => setTimeout(r, 1));
@@ -211,6 +212,7 @@ async function main() {
   }
 
   console.log(`UI latency: input change → contours redrawn, ${GRID} × ${GRID} lattice, ${RUNS} changes each (medians), ${cpus().length} cores, headless chromium without GPU`);
+  console.log(`lateral rows in the worker: ${[...new Set(rows.flatMap((r) => r.samples.map((s) => s.kernel)))].join(', ')} (src/core/special/latticeKernel.ts)`);
   const verdict = (r) => (r <= 1.5 ? 'met' : 'NOT met');
   printTable(
     ['solution', 'to contours in DOM', 'to painted (next frame)', 'grid compute (worker)', 'grid compute (Node)', 'DOM / compute', 'painted / compute', 'target ≤ 1.5× (DOM | painted)'],

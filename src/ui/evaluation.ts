@@ -149,6 +149,7 @@ export interface LatencySample {
   drawnAt: number;
   gridSize: number;
   solution: string;
+  kernel: PlumeLayer['kernel'];
   timing: PlumeLayer['timing'];
 }
 
@@ -225,6 +226,7 @@ export function startEvaluation(): () => void {
           drawnAt,
           gridSize: p.gridSize,
           solution: p.solution,
+          kernel: p.kernel,
           timing: p.timing,
         });
         if (latencySamples.length > 200) latencySamples.splice(0, 100);

@@ -5,6 +5,7 @@
  */
 import { erf, erfDiff } from '../special/erf';
 import { ERF_TABLE_SPLIT, erfLattice } from '../special/erfLattice';
+import { latticeKernel } from '../special/latticeKernel';
 
 const INV_SQRT_PI = 0.5641895835477563;
 
@@ -107,8 +108,17 @@ const CLASS_SIGN = [1, 1, -1];
  * and out[row + n − 1 − j] gets the same value (the whole row is written). Values are kept in
  * [0, 2·factor], the range of the exact difference, against rounding.
  * The row is cut where a_j or b_j changes class, so each segment is one fused multiply–add form.
+ * Runs in the WebAssembly port (special/latticeKernel.ts, the same doubles) where it is available.
  */
 export function lateralLattice(y0: number, dy: number, ny: number, h: number, s: number, mirrored: boolean, jStart: number, factor: number, out: Float64Array, row: number): void {
+  const k = latticeKernel();
+  if (k !== null) {
+    // the WebAssembly build of this function (special/latticeKernel.ts): the same values
+    const r = k.lateralRow(y0, dy, ny, h, s, mirrored, jStart, factor);
+    if (mirrored || jStart === 0) out.set(r, row);
+    else out.set(r.subarray(jStart), row + jStart);
+    return;
+  }
   if (latB.length < ny) {
     latA = new Float64Array(ny);
     latB = new Float64Array(ny);

@@ -14,22 +14,29 @@
  * nodes a_k + j·s of step j the Gaussian factorises,
  *   e^{−(a_k + js)²} = [e^{−a_k²}·(e^{−2a_k s})^j] · e^{−s²j²},
  * so a step costs m + 2 multiplications and no exponential: the bracket is carried per node, the
- * last factor (shared by all nodes) by Q ← Q·Qr, Qr ← Qr·e^{−2s²}; a chunk starts with m + 1
- * exponentials (e^{−2a_k s} = e^{−2 ws s}·e^{−2c_k s²}, the second factor once per run). Every chunk of at most
- * CHUNK = 64 points restarts from a value of the table (erfTable.ts, a few ulp) and fresh
- * exponentials, and is shortened so that no carried factor leaves [e^{−600}, e^{600}].
+ * last factor (shared by all nodes) by Q ← Q·Qr, Qr ← Qr·e^{−2s²}. A run is cut into segments of
+ * at most SEGMENT = 192 steps; a segment starts from a value of the table (erfTable.ts, a few ulp)
+ * with m + 1 exponentials (e^{−2a_k s} = e^{−2ws s}·e^{−2c_k s²}, the second factor once per step
+ * size), and goes on in chunks of at most CHUNK = 64 steps, each of which forms Q and Qr afresh
+ * (two exponentials) from the number J of steps since the seed. A segment ends where the rule
+ * would change, and is shortened so that no carried factor leaves [e^{−600}, e^{600}].
  *
  * Error (stated; test/core/erf-lattice.test.ts measures it against 40-digit decimal.js values):
  *  - quadrature: Gauss–Legendre's remainder δ^{2m+1}(m!)⁴/((2m+1)((2m)!)³)·f^{(2m)}(ξ), with
  *    f^{(2m)} = H_{2m}(t)e^{−t²} and |H_{2m}(t)| ≤ (2|t| + 2√(2m))^{2m}; relative to the step's
  *    integral (whose integrand differs from e^{−ξ²} by at most e^{δ(2|t| + δ)}) the rule is used
  *    only where that bound is ≤ 1e-15;
- *  - carried products: their rounding repeats systematically, so after j steps a factor carries up
- *    to about j²·ε/2 relative error, ≤ 2.3e-13 for j < 64;
- *  - the seed: a few ulp.
+ *  - carried products: the node values P_k are multiplied by the same rounded B_k at every step
+ *    (≤ 2.5 ε each, plus ε/2 per product), so after J ≤ 192 steps they carry ≤ 3Jε ≈ 1.3e-13; the
+ *    rounding of Qr repeats within a chunk, so Q carries about j²ε/2 ≤ 2.3e-13 after j < 64 steps;
+ *    the exponents of the fresh factors are rounded to ε·600 ≈ 7e-14 at most (the room above);
+ *  - the seed: a few ulp; the running sum adds positive terms (≤ Jε).
  *  So each value is within 5e-13 of its own magnitude. Chunks for which no rule meets the bound
  *  (coarse lattices) are evaluated point by point from the table (a few ulp); |u| > LATTICE_CUT = 10
  *  by Cody's single-exponential erfcTail (erf.ts), within 2u²ε ≤ 1.6e-13 relative (u < 27).
+ *
+ * Ported to WebAssembly in ../wasm/lattice.as.ts (loaded by latticeKernel.ts), which must perform
+ * the same operations in the same order: test/core/lattice-wasm.test.ts requires the same doubles.
  */
 import { ERF_TABLE_SPLIT, splitValue } from './erfTable';
 import { erfcTail } from './erf';
@@ -37,6 +44,8 @@ import { erfcTail } from './erf';
 export { ERF_TABLE_SPLIT };
 export const LATTICE_CUT = 10;
 const CHUNK = 64;
+/** steps of one segment (one seed from the table) at most */
+const SEGMENT = 192;
 /** carried factors stay within e^{±EXP_ROOM} */
 const EXP_ROOM = 600;
 const TWO_OVER_SQRT_PI = 1.1283791670955126;
@@ -82,8 +91,21 @@ function legendreRule(m: number): Rule {
 }
 
 const RULES = [legendreRule(4), legendreRule(6), legendreRule(8)];
-/** D_k of the rule in use (see run) */
-const D = new Float64Array(8);
+/**
+ * Carried state of the chunk kernels, shared through this array rather than passed as arguments:
+ * V8 boxes a floating-point argument of a call it does not inline into a fresh heap number.
+ * [0, 8) node values P_k, [8, 16) their step factors B_k, then the running value, the scale
+ * (2/√π)·|s|·sign, s², e^{−s²} and e^{−2s²}.
+ */
+const ST = new Float64Array(21);
+const P_VAL = 16;
+const P_SCALE = 17;
+const P_S2 = 18;
+const P_QR0 = 19;
+const P_Q2 = 20;
+/** D_k = e^{−2c_k s²} per rule, and the |s| they were formed for (every run of a lattice shares |s|) */
+const D = RULES.map((r) => new Float64Array(r.m));
+const dStep = [NaN, NaN, NaN];
 
 /**
  * Per rule, the largest X = δ·(2|t| + 2√(2m)) with C_m·X^{2m}·e^{X} ≤ 1e-15 (e^{X} ≥ e^{δ(2|t| + δ)}
@@ -102,37 +124,51 @@ const REACH = RULES.map((r) => {
 });
 const NODE_PAD = RULES.map((r) => 2 * Math.sqrt(2 * r.m));
 
+/** The rules' nodes, weights, reach and padding, for the WebAssembly port (latticeKernel.ts); read only. */
+export const LATTICE_RULES: readonly { readonly m: number; readonly c: Float64Array; readonly w: Float64Array; readonly reach: number; readonly pad: number }[] =
+  RULES.map((r, k) => ({ m: r.m, c: r.c, w: r.w, reach: REACH[k], pad: NODE_PAD[k] }));
+
 /** The smallest rule whose remainder bound is ≤ 1e-15 for steps δ at |t| ≤ tmax, or −1. */
 function ruleFor(delta: number, tmax: number): number {
   for (let r = 0; r < RULES.length; r++) if (delta * (2 * tmax + NODE_PAD[r]) <= REACH[r] && delta <= NODE_PAD[r]) return r;
   return -1;
 }
 
-// The three chunk functions are the same loop written out per rule on purpose: with the node state
-// in scalar locals it runs several times faster than with the state in arrays (measured with
-// npm run bench). `steps` step integrals from the seed value `val` at out[o].
+/** Steps J from a seed that keep every carried factor within e^{±EXP_ROOM} (|t| ≤ tmax, step δ). */
+function roomFor(delta: number, tmax: number): number {
+  return Math.min(Math.sqrt(EXP_ROOM) / delta, EXP_ROOM / (2 * tmax * delta));
+}
 
-/** One chunk with the 4-point rule. */
-function chunk4(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number, D: Float64Array, Qr0: number): void {
-  const c = RULES[0].c;
-  const w = RULES[0].w;
-  const E = Math.exp(-2 * ws * s);
-  let a = 0;
-  a = ws + c[0] * s;
-  let P0 = w[0] * Math.exp(-a * a);
-  const B0 = E * D[0];
-  a = ws + c[1] * s;
-  let P1 = w[1] * Math.exp(-a * a);
-  const B1 = E * D[1];
-  a = ws + c[2] * s;
-  let P2 = w[2] * Math.exp(-a * a);
-  const B2 = E * D[2];
-  a = ws + c[3] * s;
-  let P3 = w[3] * Math.exp(-a * a);
-  const B3 = E * D[3];
-  let Q = scale;
-  let Qr = Qr0;
-  const q2 = Qr0 * Qr0;
+// The three chunk kernels are the same loop written out per rule on purpose: with the node state
+// in scalar locals it runs several times faster than with the state in arrays (measured with
+// npm run bench). A kernel takes `steps` steps on from the state in ST (the value at out[o]),
+// writing out[o + di], …, out[o + steps·di]; J0 is the number of steps already taken since the
+// seed, which fixes the Gaussian factor Q = scale·e^{−s²J0²} and its ratio e^{−s²(2J0+1)}.
+
+/** Q and its ratio at J0 steps from the seed, into QQ[0], QQ[1]. */
+const QQ = new Float64Array(2);
+function gaussAt(J0: number): void {
+  const st = ST;
+  if (J0 === 0) {
+    QQ[0] = st[P_SCALE];
+    QQ[1] = st[P_QR0];
+  } else {
+    const s2 = st[P_S2];
+    QQ[0] = st[P_SCALE] * Math.exp(-s2 * J0 * J0);
+    QQ[1] = Math.exp(-s2 * (2 * J0 + 1));
+  }
+}
+
+/** Kernel for the 4-point rule. */
+function chunk4(steps: number, out: Float64Array, o: number, di: number, J0: number): void {
+  const st = ST;
+  gaussAt(J0);
+  let Q = QQ[0];
+  let Qr = QQ[1];
+  const q2 = st[P_Q2];
+  let P0 = st[0], P1 = st[1], P2 = st[2], P3 = st[3];
+  const B0 = st[8], B1 = st[9], B2 = st[10], B3 = st[11];
+  let val = st[P_VAL];
   for (let r = 0; r < steps; r++) {
     val += Q * ((P0 + P1) + (P2 + P3));
     o += di;
@@ -141,35 +177,20 @@ function chunk4(ws: number, s: number, steps: number, val: number, out: Float64A
     Q *= Qr;
     Qr *= q2;
   }
+  st[0] = P0; st[1] = P1; st[2] = P2; st[3] = P3;
+  st[P_VAL] = val;
 }
 
-/** One chunk with the 6-point rule. */
-function chunk6(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number, D: Float64Array, Qr0: number): void {
-  const c = RULES[1].c;
-  const w = RULES[1].w;
-  const E = Math.exp(-2 * ws * s);
-  let a = 0;
-  a = ws + c[0] * s;
-  let P0 = w[0] * Math.exp(-a * a);
-  const B0 = E * D[0];
-  a = ws + c[1] * s;
-  let P1 = w[1] * Math.exp(-a * a);
-  const B1 = E * D[1];
-  a = ws + c[2] * s;
-  let P2 = w[2] * Math.exp(-a * a);
-  const B2 = E * D[2];
-  a = ws + c[3] * s;
-  let P3 = w[3] * Math.exp(-a * a);
-  const B3 = E * D[3];
-  a = ws + c[4] * s;
-  let P4 = w[4] * Math.exp(-a * a);
-  const B4 = E * D[4];
-  a = ws + c[5] * s;
-  let P5 = w[5] * Math.exp(-a * a);
-  const B5 = E * D[5];
-  let Q = scale;
-  let Qr = Qr0;
-  const q2 = Qr0 * Qr0;
+/** Kernel for the 6-point rule. */
+function chunk6(steps: number, out: Float64Array, o: number, di: number, J0: number): void {
+  const st = ST;
+  gaussAt(J0);
+  let Q = QQ[0];
+  let Qr = QQ[1];
+  const q2 = st[P_Q2];
+  let P0 = st[0], P1 = st[1], P2 = st[2], P3 = st[3], P4 = st[4], P5 = st[5];
+  const B0 = st[8], B1 = st[9], B2 = st[10], B3 = st[11], B4 = st[12], B5 = st[13];
+  let val = st[P_VAL];
   for (let r = 0; r < steps; r++) {
     val += Q * (((P0 + P1) + (P2 + P3)) + (P4 + P5));
     o += di;
@@ -178,41 +199,20 @@ function chunk6(ws: number, s: number, steps: number, val: number, out: Float64A
     Q *= Qr;
     Qr *= q2;
   }
+  st[0] = P0; st[1] = P1; st[2] = P2; st[3] = P3; st[4] = P4; st[5] = P5;
+  st[P_VAL] = val;
 }
 
-/** One chunk with the 8-point rule. */
-function chunk8(ws: number, s: number, steps: number, val: number, out: Float64Array, o: number, di: number, scale: number, D: Float64Array, Qr0: number): void {
-  const c = RULES[2].c;
-  const w = RULES[2].w;
-  const E = Math.exp(-2 * ws * s);
-  let a = 0;
-  a = ws + c[0] * s;
-  let P0 = w[0] * Math.exp(-a * a);
-  const B0 = E * D[0];
-  a = ws + c[1] * s;
-  let P1 = w[1] * Math.exp(-a * a);
-  const B1 = E * D[1];
-  a = ws + c[2] * s;
-  let P2 = w[2] * Math.exp(-a * a);
-  const B2 = E * D[2];
-  a = ws + c[3] * s;
-  let P3 = w[3] * Math.exp(-a * a);
-  const B3 = E * D[3];
-  a = ws + c[4] * s;
-  let P4 = w[4] * Math.exp(-a * a);
-  const B4 = E * D[4];
-  a = ws + c[5] * s;
-  let P5 = w[5] * Math.exp(-a * a);
-  const B5 = E * D[5];
-  a = ws + c[6] * s;
-  let P6 = w[6] * Math.exp(-a * a);
-  const B6 = E * D[6];
-  a = ws + c[7] * s;
-  let P7 = w[7] * Math.exp(-a * a);
-  const B7 = E * D[7];
-  let Q = scale;
-  let Qr = Qr0;
-  const q2 = Qr0 * Qr0;
+/** Kernel for the 8-point rule. */
+function chunk8(steps: number, out: Float64Array, o: number, di: number, J0: number): void {
+  const st = ST;
+  gaussAt(J0);
+  let Q = QQ[0];
+  let Qr = QQ[1];
+  const q2 = st[P_Q2];
+  let P0 = st[0], P1 = st[1], P2 = st[2], P3 = st[3], P4 = st[4], P5 = st[5], P6 = st[6], P7 = st[7];
+  const B0 = st[8], B1 = st[9], B2 = st[10], B3 = st[11], B4 = st[12], B5 = st[13], B6 = st[14], B7 = st[15];
+  let val = st[P_VAL];
   for (let r = 0; r < steps; r++) {
     val += Q * (((P0 + P1) + (P2 + P3)) + ((P4 + P5) + (P6 + P7)));
     o += di;
@@ -221,6 +221,14 @@ function chunk8(ws: number, s: number, steps: number, val: number, out: Float64A
     Q *= Qr;
     Qr *= q2;
   }
+  st[0] = P0; st[1] = P1; st[2] = P2; st[3] = P3; st[4] = P4; st[5] = P5; st[6] = P6; st[7] = P7;
+  st[P_VAL] = val;
+}
+
+function kernel(rule: number, steps: number, out: Float64Array, o: number, di: number, J0: number): void {
+  if (rule === 0) chunk4(steps, out, o, di, J0);
+  else if (rule === 1) chunk6(steps, out, o, di, J0);
+  else chunk8(steps, out, o, di, J0);
 }
 
 /** Split value at u (signed erf for |u| < split, erfc(|u|) beyond; single-exponential past the cut). */
@@ -231,42 +239,74 @@ function pointValue(u: number): number {
 }
 
 /**
+ * Seeds the node values of rule r at the point w (step s) into ST: P_k = w_k·e^{−(w + c_k s)²} and
+ * B_k = e^{−2(w + c_k s)s} = e^{−2ws}·D_k.
+ */
+function seedNodes(r: number, w: number, s: number, val: number): void {
+  const st = ST;
+  const rule = RULES[r];
+  const c = rule.c;
+  const wt = rule.w;
+  const d = D[r];
+  const s2 = s * s;
+  if (dStep[r] !== s2) {
+    for (let k = 0; k < rule.m; k++) d[k] = Math.exp(-2 * c[k] * s2);
+    dStep[r] = s2;
+  }
+  const E = Math.exp(-2 * w * s);
+  for (let k = 0; k < rule.m; k++) {
+    const a = w + c[k] * s;
+    st[k] = wt[k] * Math.exp(-a * a);
+    st[8 + k] = E * d[k];
+  }
+  st[P_VAL] = val;
+}
+
+/**
  * Points p = 0 … count−1 at w_p = w0 + p·s (s = ±du, the direction in which the value grows; all
  * |w_p| on one side of the split and ≤ LATTICE_CUT) into out[i0 + p·di], as sign·splitValue(|w_p|).
+ * The run is cut into segments, each seeded from the table at its first point and continued in
+ * chunks of at most CHUNK steps (fresh Q at each chunk) while the rule stays the same, the carried
+ * factors keep their room and the segment is at most SEGMENT steps long.
  */
 function run(w0: number, s: number, count: number, out: Float64Array, i0: number, di: number, sign: number): void {
   const as = Math.abs(s);
-  const scale = TWO_OVER_SQRT_PI * as * sign;
-  // per-run constants: e^{−s²} and, for the rule in use, D_k = e^{−2c_k s²} (B_k = e^{−2 ws s}·D_k)
-  const Qr0 = Math.exp(-s * s);
-  let dRule = -1;
+  const st = ST;
+  st[P_SCALE] = TWO_OVER_SQRT_PI * as * sign;
   let p = 0;
   while (p < count) {
     const ws = w0 + p * s;
     const o = i0 + p * di;
-    let val = sign * splitValue(Math.abs(ws));
+    const val = sign * splitValue(Math.abs(ws));
     out[o] = val;
-    // chunk length: CHUNK points, fewer where a carried factor would leave e^{±EXP_ROOM}
-    const tStart = Math.abs(ws);
-    let len = Math.min(count - p, CHUNK);
-    const tEnd = Math.abs(w0 + (p + len - 1) * s);
-    const tmax = Math.max(tStart, tEnd) + as;
-    const room = Math.min(Math.sqrt(EXP_ROOM) / as, EXP_ROOM / (2 * tmax * as));
-    if (room < len) len = Math.max(2, Math.floor(room));
-    const r = len > 1 ? ruleFor(as, tmax) : -1;
+    if (p === count - 1) return;
+    // the first chunk decides the rule; its steps are shortened to the room of the carried factors
+    const t0 = Math.abs(ws);
+    let len = Math.min(count - 1 - p, CHUNK);
+    const tmax = Math.max(t0, Math.abs(w0 + (p + len) * s)) + as;
+    const room = roomFor(as, tmax);
+    if (room < len) len = Math.max(1, Math.floor(room));
+    const r = ruleFor(as, tmax);
     if (r < 0) {
-      for (let q = 1; q < len; q++) out[o + q * di] = sign * splitValue(Math.abs(ws + q * s));
-    } else {
-      if (r !== dRule) {
-        const c = RULES[r].c;
-        for (let k = 0; k < c.length; k++) D[k] = Math.exp(-2 * c[k] * s * s);
-        dRule = r;
-      }
-      if (r === 0) chunk4(ws, s, len - 1, val, out, o, di, scale, D, Qr0);
-      else if (r === 1) chunk6(ws, s, len - 1, val, out, o, di, scale, D, Qr0);
-      else chunk8(ws, s, len - 1, val, out, o, di, scale, D, Qr0);
+      for (let q = 1; q <= len; q++) out[o + q * di] = sign * splitValue(Math.abs(ws + q * s));
+      p += len;
+      continue;
     }
+    seedNodes(r, ws, s, val);
+    kernel(r, len, out, o, di, 0);
+    let J = len;
     p += len;
+    // further chunks of the same segment
+    while (p < count - 1 && J < SEGMENT) {
+      const steps = Math.min(count - 1 - p, CHUNK, SEGMENT - J);
+      const tEnd = Math.abs(w0 + (p + steps) * s);
+      if (ruleFor(as, Math.max(Math.abs(w0 + p * s), tEnd) + as) !== r) break;
+      if (J + steps > roomFor(as, Math.max(t0, tEnd) + as)) break;
+      kernel(r, steps, out, i0 + p * di, di, J);
+      J += steps;
+      p += steps;
+    }
+    // the next segment is seeded afresh at p (whose value the last chunk wrote)
   }
 }
 
@@ -304,6 +344,13 @@ export function erfLattice(u0: number, du: number, n: number, out: Float64Array)
   const jC = boundary(u0, du, n, LATTICE_CUT, jR, true);
   for (let j = 0; j < jc; j++) out[j] = pointValue(u0 + j * du);
   for (let j = jC; j < n; j++) out[j] = pointValue(u0 + j * du);
+  // per-step constants shared by the four runs (all step by ±du)
+  const s2 = du * du;
+  if (ST[P_S2] !== s2) {
+    ST[P_S2] = s2;
+    ST[P_QR0] = Math.exp(-s2);
+    ST[P_Q2] = Math.exp(-2 * s2);
+  }
   // left tail: erfc(−u) grows with j (−u falls by du per step)
   if (jL > jc) run(-(u0 + jc * du), -du, jL - jc, out, jc, 1, 1);
   // middle, negative side: −erf(−u); |u| grows as j falls

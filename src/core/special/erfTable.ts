@@ -61,6 +61,11 @@ function buildTable(): Float64Array {
 
 const T = buildTable();
 
+/** The table itself (degree 0…8 per node, node-major), for the WebAssembly port (latticeKernel.ts); read only. */
+export const ERF_TABLE: Float64Array = T;
+export const ERF_TABLE_NODES = NODES;
+export const ERF_TABLE_STRIDE = STRIDE;
+
 /** The table polynomial at x (0 ≤ x < TABLE_TOP): erf(x) below the split, erfc(x) above it. */
 function tablePoly(x: number): number {
   const k = (x * INV_H + 0.5) | 0;

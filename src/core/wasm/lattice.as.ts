@@ -1,0 +1,769 @@
+/**
+ * AssemblyScript port of the lattice error function (special/erfLattice.ts) and of the lateral
+ * rows built from it (solutions/spread.ts, lateralLattice), compiled to WebAssembly by
+ * scripts/build-wasm.mjs into special/latticeWasm.ts. The TypeScript modules stay the reference
+ * and the fallback; this port performs the same floating-point operations in the same order, with
+ * Math.exp imported from the host (env.exp), so its results are bit for bit those of the
+ * TypeScript code (test/core/lattice-wasm.test.ts checks that on thousands of lattices and rows).
+ * It exists for speed only: no bounds checks, no boxed numbers, no deoptimisation.
+ *
+ * Memory (byte offsets, fixed; written by the host at start-up, see special/latticeKernel.ts):
+ *   TABLE_AT   the erf/erfc Taylor table of erfTable.ts (NODES·STRIDE doubles)
+ *   RULES_AT   per rule r (4, 6, 8 points): nodes c[8], weights w[8], then REACH[3], NODE_PAD[3]
+ *   WORK_AT    three work arrays of `cap` doubles each: A, B (lattice values), ROW (the output row)
+ * Not part of the TypeScript build (tsconfig excludes src/core/wasm).
+ */
+
+// ---- exp: fdlibm's __ieee754_exp (Sun Microsystems 1993, freely distributable), the algorithm
+// of V8's Math.exp (v8/src/base/ieee754.cc), so both give the same bits (tested on 2 million
+// arguments against the host's Math.exp)
+
+const LN2_HI: f64 = 6.93147180369123816490e-01;
+const LN2_LO: f64 = 1.90821492927058770002e-10;
+const INV_LN2: f64 = 1.44269504088896338700e+00;
+const EXP_P1: f64 = 1.66666666666666019037e-01;
+const EXP_P2: f64 = -2.77777777770155933842e-03;
+const EXP_P3: f64 = 6.61375632143793436117e-05;
+const EXP_P4: f64 = -1.65339022054652515390e-06;
+const EXP_P5: f64 = 4.13813679705723846039e-08;
+const O_THRESHOLD: f64 = 7.09782712893383973096e+02;
+const U_THRESHOLD: f64 = -7.45133219101941108420e+02;
+const TWO_M1000: f64 = 9.33263618503218878990e-302;
+
+export function fdlibmExp(x: f64): f64 {
+  const bits = reinterpret<u64>(x);
+  let hx = <u32>(bits >> 32);
+  const xsb = hx >> 31;
+  hx &= 0x7fffffff;
+  let hi: f64 = 0;
+  let lo: f64 = 0;
+  let k: i32 = 0;
+  if (hx >= 0x40862e42) {
+    if (hx >= 0x7ff00000) {
+      if (((hx & 0xfffff) | <u32>bits) != 0) return x + x;
+      return xsb == 0 ? x : 0.0;
+    }
+    if (x > O_THRESHOLD) return Infinity;
+    if (x < U_THRESHOLD) return 0;
+  }
+  if (hx > 0x3fd62e42) {
+    if (hx < 0x3ff0a2b2) {
+      if (x == 1.0) return 2.718281828459045;
+      hi = x - (xsb == 0 ? LN2_HI : -LN2_HI);
+      lo = xsb == 0 ? LN2_LO : -LN2_LO;
+      k = 1 - <i32>xsb - <i32>xsb;
+    } else {
+      k = <i32>(INV_LN2 * x + (xsb == 0 ? 0.5 : -0.5));
+      const t = <f64>k;
+      hi = x - t * LN2_HI;
+      lo = t * LN2_LO;
+    }
+    x = hi - lo;
+  } else if (hx < 0x3e300000) {
+    if (1e300 + x > 1) return 1 + x;
+  } else k = 0;
+  const t = x * x;
+  const twopk = k >= -1021 ? reinterpret<f64>(<u64>(0x3ff + k) << 52) : reinterpret<f64>(<u64>(0x3ff + k + 1000) << 52);
+  const c = x - t * (EXP_P1 + t * (EXP_P2 + t * (EXP_P3 + t * (EXP_P4 + t * EXP_P5))));
+  if (k == 0) return 1 - ((x * c) / (c - 2.0) - x);
+  const y = 1 - ((lo - (x * c) / (2.0 - c)) - hi);
+  if (k >= -1021) {
+    if (k == 1024) return y * 2.0 * 8.98846567431157953865e+307;
+    return y * twopk;
+  }
+  return y * twopk * TWO_M1000;
+}
+
+@inline function hostExp(x: f64): f64 {
+  return fdlibmExp(x);
+}
+
+/** the first 64 KiB are left to the compiler's own static data */
+const TABLE_AT: usize = 65536;
+const INV_H: f64 = 128;
+const H: f64 = 1.0 / 128;
+const STRIDE: i32 = 9;
+const NODES: i32 = 1280;
+const SPLIT_NODE: i32 = 64;
+const ERF_TABLE_SPLIT: f64 = (<f64>SPLIT_NODE - 0.5) / INV_H;
+const TABLE_TOP: f64 = (<f64>NODES - 0.5) / INV_H;
+const RULES_AT: usize = TABLE_AT + <usize>(NODES * STRIDE) * 8;
+const REACH_AT: usize = RULES_AT + 3 * 16 * 8;
+const PAD_AT: usize = REACH_AT + 3 * 8;
+/** D_k per rule (8 slots each), the s² each was formed for (3), the row's cut points (6 × i32) */
+const DVAL_AT: usize = PAD_AT + 3 * 8;
+const DSTEP_AT: usize = DVAL_AT + 24 * 8;
+const CUTS_AT: usize = DSTEP_AT + 3 * 8;
+const WORK_AT: usize = 196608;
+
+const LATTICE_CUT: f64 = 10;
+const CHUNK: i32 = 64;
+const SEGMENT: i32 = 192;
+const EXP_ROOM: f64 = 600;
+const TWO_OVER_SQRT_PI: f64 = 1.1283791670955126;
+const S: f64 = ERF_TABLE_SPLIT;
+const INV_SQRT_PI: f64 = 0.56418958354775628695;
+const XBIG: f64 = 26.543;
+const XHUGE: f64 = 6.71e7;
+
+let cap: i32 = 0;
+
+/** Capacity of each work array in doubles (the host grows memory first). */
+export function setCapacity(n: i32): void {
+  cap = n;
+}
+export function workOffset(): usize {
+  return WORK_AT;
+}
+/** Marks the D_k caches empty (the host calls it after writing the rules). */
+export function reset(): void {
+  for (let r = 0; r < 3; r++) store<f64>(DSTEP_AT + (<usize>r << 3), NaN);
+  gS2 = NaN;
+}
+export function tableOffset(): usize {
+  return TABLE_AT;
+}
+export function rulesOffset(): usize {
+  return RULES_AT;
+}
+
+@inline function tab(k: i32): f64 {
+  return load<f64>(TABLE_AT + (<usize>k << 3));
+}
+@inline function ruleC(r: i32, k: i32): f64 {
+  return load<f64>(RULES_AT + (<usize>(r * 16 + k) << 3));
+}
+@inline function ruleW(r: i32, k: i32): f64 {
+  return load<f64>(RULES_AT + (<usize>(r * 16 + 8 + k) << 3));
+}
+@inline function ruleM(r: i32): i32 {
+  return 4 + 2 * r;
+}
+
+// ---- Cody's erfc pieces (special/erf.ts), for the table's top and the points past the cut
+
+function erfcxMid(y: f64): f64 {
+  let num: f64 = 2.15311535474403846e-8 * y;
+  let den: f64 = y;
+  num = (num + 0.564188496988670089) * y;
+  den = (den + 15.7449261107098347) * y;
+  num = (num + 8.88314979438837594) * y;
+  den = (den + 117.693950891312499) * y;
+  num = (num + 66.1191906371416295) * y;
+  den = (den + 537.181101862009858) * y;
+  num = (num + 298.635138197400131) * y;
+  den = (den + 1621.38957456669019) * y;
+  num = (num + 881.95222124176909) * y;
+  den = (den + 3290.79923573345963) * y;
+  num = (num + 1712.04761263407058) * y;
+  den = (den + 4362.61909014324716) * y;
+  num = (num + 2051.07837782607147) * y;
+  den = (den + 3439.36767414372164) * y;
+  return (num + 1230.33935479799725) / (den + 1230.33935480374942);
+}
+
+function erfcxLarge(y: f64): f64 {
+  if (y >= XHUGE) return INV_SQRT_PI / y;
+  const z = 1 / (y * y);
+  let num: f64 = 0.0163153871373020978 * z;
+  let den: f64 = z;
+  num = (num + 0.305326634961232344) * z;
+  den = (den + 2.56852019228982242) * z;
+  num = (num + 0.360344899949804439) * z;
+  den = (den + 1.87295284992346047) * z;
+  num = (num + 0.125781726111229246) * z;
+  den = (den + 0.527905102951428412) * z;
+  num = (num + 0.0160837851487422766) * z;
+  den = (den + 0.0605183413124413191) * z;
+  const r = (z * (num + 6.58749161529837803e-4)) / (den + 0.00233520497626869185);
+  return (INV_SQRT_PI - r) / y;
+}
+
+/** erfc(y), y above the table's top (> 4): Cody's split exponential, as erf.ts's erfc. */
+function erfcAboveTable(y: f64): f64 {
+  if (y >= XBIG) return 0;
+  const ys = Math.floor(y * 16) / 16;
+  const del = (y - ys) * (y + ys);
+  return hostExp(-ys * ys) * hostExp(-del) * erfcxLarge(y);
+}
+
+/** erf.ts's erfcTail (single exponential), y ≥ 0.46875. */
+function erfcTail(y: f64): f64 {
+  if (y >= XBIG) return 0;
+  return hostExp(-y * y) * (y <= 4 ? erfcxMid(y) : erfcxLarge(y));
+}
+
+// ---- erfTable.ts
+
+function tablePoly(x: f64): f64 {
+  const k = <i32>(x * INV_H + 0.5);
+  const d = x - <f64>k * H;
+  const b = k * STRIDE;
+  let p = tab(b + 8);
+  p = p * d + tab(b + 7);
+  p = p * d + tab(b + 6);
+  p = p * d + tab(b + 5);
+  p = p * d + tab(b + 4);
+  p = p * d + tab(b + 3);
+  p = p * d + tab(b + 2);
+  p = p * d + tab(b + 1);
+  return p * d + tab(b);
+}
+
+function splitValue(y: f64): f64 {
+  return y < TABLE_TOP ? tablePoly(y) : erfcAboveTable(y);
+}
+
+// ---- erfLattice.ts
+
+let gS2: f64 = NaN;
+let gQr0: f64 = 0;
+let gQ2: f64 = 0;
+
+@inline function dVal(i: i32): f64 {
+  return load<f64>(DVAL_AT + (<usize>i << 3));
+}
+
+function ruleFor(delta: f64, tmax: f64): i32 {
+  for (let r = 0; r < 3; r++) {
+    const pad = load<f64>(PAD_AT + (<usize>r << 3));
+    if (delta * (2 * tmax + pad) <= load<f64>(REACH_AT + (<usize>r << 3)) && delta <= pad) return r;
+  }
+  return -1;
+}
+
+function roomFor(delta: f64, tmax: f64): f64 {
+  return Math.min(Math.sqrt(EXP_ROOM) / delta, EXP_ROOM / (2 * tmax * delta));
+}
+
+@inline function outAt(base: usize, o: i32): usize {
+  return base + (<usize>o << 3);
+}
+
+function pointValue(u: f64): f64 {
+  const y = Math.abs(u);
+  const v = y > LATTICE_CUT ? erfcTail(y) : splitValue(y);
+  return y < S && u < 0 ? -v : v;
+}
+
+/**
+ * One run of erfLattice.ts's `run` as a resumable state machine ("lane"), so that two runs can
+ * share the vector kernel below, one per lane of an f64x2. A lane takes exactly the seeds, chunks
+ * and step sequence the scalar run takes; only the steps of two lanes are interleaved.
+ */
+@unmanaged class Lane {
+  w0: f64;
+  s: f64;
+  as: f64;
+  sign: f64;
+  scale: f64;
+  t0: f64;
+  val: f64;
+  Q: f64;
+  Qr: f64;
+  base: usize;
+  ptr: usize;
+  dp: isize;
+  count: i32;
+  i0: i32;
+  di: i32;
+  /** index of the point the last write reached */
+  p: i32;
+  /** steps since the segment's seed */
+  J: i32;
+  /** steps of the current chunk still to take (0: an event is due) */
+  pending: i32;
+  /** rule of the segment, −1 outside one */
+  rule: i32;
+  /** 0 idle, 1 running */
+  busy: i32;
+}
+
+const LANE_SIZE: usize = 256;
+/** per lane: the Lane fields, then P_k at +128 and B_k at +192 (8 doubles each) */
+const LANES_AT: usize = CUTS_AT + 64;
+const laneA = changetype<Lane>(LANES_AT);
+const laneB = changetype<Lane>(LANES_AT + LANE_SIZE);
+
+@inline function laneP(l: Lane, k: i32): usize {
+  return changetype<usize>(l) + 128 + (<usize>k << 3);
+}
+@inline function laneB_(l: Lane, k: i32): usize {
+  return changetype<usize>(l) + 192 + (<usize>k << 3);
+}
+
+function startLane(l: Lane, w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32, sign: f64): void {
+  l.w0 = w0;
+  l.s = s;
+  l.as = Math.abs(s);
+  l.sign = sign;
+  l.scale = TWO_OVER_SQRT_PI * l.as * sign;
+  l.base = base;
+  l.count = count;
+  l.i0 = i0;
+  l.di = di;
+  l.dp = <isize>di << 3;
+  l.p = 0;
+  l.J = 0;
+  l.pending = 0;
+  l.rule = -1;
+  l.busy = 1;
+}
+
+/** P_k = w_k·e^{−(w + c_k s)²}, B_k = e^{−2ws}·D_k, zero beyond the rule's m (as erfLattice.ts's seedNodes). */
+function seedLane(l: Lane, r: i32, w: f64, s: f64): void {
+  const m = ruleM(r);
+  const s2 = s * s;
+  const stepAt = DSTEP_AT + (<usize>r << 3);
+  if (load<f64>(stepAt) != s2) {
+    for (let k = 0; k < m; k++) store<f64>(DVAL_AT + (<usize>(r * 8 + k) << 3), hostExp(-2 * ruleC(r, k) * s2));
+    store<f64>(stepAt, s2);
+  }
+  const E = hostExp(-2 * w * s);
+  for (let k = 0; k < 8; k++) {
+    if (k < m) {
+      const a = w + ruleC(r, k) * s;
+      store<f64>(laneP(l, k), ruleW(r, k) * hostExp(-a * a));
+      store<f64>(laneB_(l, k), E * dVal(r * 8 + k));
+    } else {
+      store<f64>(laneP(l, k), 0);
+      store<f64>(laneB_(l, k), 1);
+    }
+  }
+}
+
+/** Q = scale·e^{−s²J²} and its ratio e^{−s²(2J+1)} at J steps from the seed (erfLattice.ts's gaussAt). */
+function gaussLane(l: Lane): void {
+  if (l.J == 0) {
+    l.Q = l.scale;
+    l.Qr = gQr0;
+  } else {
+    const J = <f64>l.J;
+    l.Q = l.scale * hostExp(-gS2 * J * J);
+    l.Qr = hostExp(-gS2 * (2 * J + 1));
+  }
+}
+
+/**
+ * At the end of a chunk of a segment (rule ≥ 0, nothing pending): the next chunk of the same
+ * segment (fresh Q, steps pending) and true, or the segment's end (rule −1, the next seed due at p)
+ * and false.
+ */
+function continueSegment(l: Lane): bool {
+  const p = l.p;
+  const count = l.count;
+  const s = l.s;
+  const as = l.as;
+  if (p < count - 1 && l.J < SEGMENT) {
+    const steps = min(min(count - 1 - p, CHUNK), SEGMENT - l.J);
+    const tEnd = Math.abs(l.w0 + <f64>(p + steps) * s);
+    if (ruleFor(as, Math.max(Math.abs(l.w0 + <f64>p * s), tEnd) + as) == l.rule && !(<f64>(l.J + steps) > roomFor(as, Math.max(l.t0, tEnd) + as))) {
+      gaussLane(l);
+      l.pending = steps;
+      return true;
+    }
+  }
+  l.rule = -1;
+  return false;
+}
+
+/**
+ * Handles a lane's due event (seed, point-by-point chunk, next chunk of a segment or the end)
+ * until it has kernel steps pending or is finished; the same decisions, in the same order, as
+ * erfLattice.ts's `run`.
+ */
+function advance(l: Lane): void {
+  while (l.busy != 0 && l.pending == 0) {
+    const s = l.s;
+    const as = l.as;
+    const count = l.count;
+    if (l.rule >= 0 && continueSegment(l)) continue;
+    const p = l.p;
+    if (p >= count) {
+      l.busy = 0;
+      return;
+    }
+    const ws = l.w0 + <f64>p * s;
+    const o = l.i0 + p * l.di;
+    const val = l.sign * splitValue(Math.abs(ws));
+    store<f64>(outAt(l.base, o), val);
+    if (p == count - 1) {
+      l.busy = 0;
+      return;
+    }
+    const t0 = Math.abs(ws);
+    let len = min(count - 1 - p, CHUNK);
+    const tmax = Math.max(t0, Math.abs(l.w0 + <f64>(p + len) * s)) + as;
+    const room = roomFor(as, tmax);
+    if (room < <f64>len) len = <i32>Math.max(1, Math.floor(room));
+    const r = ruleFor(as, tmax);
+    if (r < 0) {
+      for (let q = 1; q <= len; q++) store<f64>(outAt(l.base, o + q * l.di), l.sign * splitValue(Math.abs(ws + <f64>q * s)));
+      l.p = p + len;
+      continue;
+    }
+    seedLane(l, r, ws, s);
+    l.rule = r;
+    l.t0 = t0;
+    l.val = val;
+    l.ptr = outAt(l.base, o);
+    l.J = 0;
+    gaussLane(l);
+    l.pending = len;
+  }
+}
+
+/** n steps of one lane (the other idle), scalar; the state stays in the lane. */
+function stepOne(l: Lane, n: i32): void {
+  let val = l.val;
+  let Q = l.Q;
+  let Qr = l.Qr;
+  const q2 = gQ2;
+  let ptr = l.ptr;
+  const dp = l.dp;
+  const m = ruleM(l.rule);
+  let p0 = load<f64>(laneP(l, 0)), p1 = load<f64>(laneP(l, 1)), p2 = load<f64>(laneP(l, 2)), p3 = load<f64>(laneP(l, 3));
+  const b0 = load<f64>(laneB_(l, 0)), b1 = load<f64>(laneB_(l, 1)), b2 = load<f64>(laneB_(l, 2)), b3 = load<f64>(laneB_(l, 3));
+  if (m == 4) {
+    for (let r = 0; r < n; r++) {
+      val += Q * ((p0 + p1) + (p2 + p3));
+      ptr += dp;
+      store<f64>(ptr, val);
+      p0 *= b0; p1 *= b1; p2 *= b2; p3 *= b3;
+      Q *= Qr;
+      Qr *= q2;
+    }
+  } else {
+    let p4 = load<f64>(laneP(l, 4)), p5 = load<f64>(laneP(l, 5)), p6 = load<f64>(laneP(l, 6)), p7 = load<f64>(laneP(l, 7));
+    const b4 = load<f64>(laneB_(l, 4)), b5 = load<f64>(laneB_(l, 5)), b6 = load<f64>(laneB_(l, 6)), b7 = load<f64>(laneB_(l, 7));
+    if (m == 6) {
+      for (let r = 0; r < n; r++) {
+        val += Q * (((p0 + p1) + (p2 + p3)) + (p4 + p5));
+        ptr += dp;
+        store<f64>(ptr, val);
+        p0 *= b0; p1 *= b1; p2 *= b2; p3 *= b3; p4 *= b4; p5 *= b5;
+        Q *= Qr;
+        Qr *= q2;
+      }
+    } else {
+      for (let r = 0; r < n; r++) {
+        val += Q * (((p0 + p1) + (p2 + p3)) + ((p4 + p5) + (p6 + p7)));
+        ptr += dp;
+        store<f64>(ptr, val);
+        p0 *= b0; p1 *= b1; p2 *= b2; p3 *= b3; p4 *= b4; p5 *= b5; p6 *= b6; p7 *= b7;
+        Q *= Qr;
+        Qr *= q2;
+      }
+    }
+    store<f64>(laneP(l, 4), p4); store<f64>(laneP(l, 5), p5); store<f64>(laneP(l, 6), p6); store<f64>(laneP(l, 7), p7);
+  }
+  store<f64>(laneP(l, 0), p0); store<f64>(laneP(l, 1), p1); store<f64>(laneP(l, 2), p2); store<f64>(laneP(l, 3), p3);
+  l.val = val;
+  l.Q = Q;
+  l.Qr = Qr;
+  l.ptr = ptr;
+}
+
+@inline function pair(a: Lane, b: Lane, k: i32): v128 {
+  return f64x2(load<f64>(laneP(a, k)), load<f64>(laneP(b, k)));
+}
+@inline function pairB(a: Lane, b: Lane, k: i32): v128 {
+  return f64x2(load<f64>(laneB_(a, k)), load<f64>(laneB_(b, k)));
+}
+@inline function unpair(a: Lane, b: Lane, k: i32, v: v128): void {
+  store<f64>(laneP(a, k), f64x2.extract_lane(v, 0));
+  store<f64>(laneP(b, k), f64x2.extract_lane(v, 1));
+}
+
+/**
+ * n steps of both lanes at once, lane 0 lane A and lane 1 lane B, with the larger of their rules:
+ * the nodes a smaller rule lacks are 0 (and stay 0), and adding 0 changes no sum, so each lane's
+ * values are those of its own rule exactly.
+ */
+function stepTwo(a: Lane, b: Lane): void {
+  let val = f64x2(a.val, b.val);
+  let Q = f64x2(a.Q, b.Q);
+  let Qr = f64x2(a.Qr, b.Qr);
+  const q2 = f64x2.splat(gQ2);
+  let pa = a.ptr;
+  let pb = b.ptr;
+  const da = a.dp;
+  const db = b.dp;
+  const m = max(ruleM(a.rule), ruleM(b.rule));
+  let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
+  const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
+  let v4 = pair(a, b, 4), v5 = pair(a, b, 5), v6 = pair(a, b, 6), v7 = pair(a, b, 7);
+  const c4 = pairB(a, b, 4), c5 = pairB(a, b, 5), c6 = pairB(a, b, 6), c7 = pairB(a, b, 7);
+  for (;;) {
+    const n = min(a.pending, b.pending);
+    if (m == 4) {
+      for (let r = 0; r < n; r++) {
+        val = f64x2.add(val, f64x2.mul(Q, f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3))));
+        pa += da;
+        pb += db;
+        store<f64>(pa, f64x2.extract_lane(val, 0));
+        store<f64>(pb, f64x2.extract_lane(val, 1));
+        v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
+        Q = f64x2.mul(Q, Qr);
+        Qr = f64x2.mul(Qr, q2);
+      }
+    } else if (m == 6) {
+      for (let r = 0; r < n; r++) {
+        const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(v4, v5));
+        val = f64x2.add(val, f64x2.mul(Q, h));
+        pa += da;
+        pb += db;
+        store<f64>(pa, f64x2.extract_lane(val, 0));
+        store<f64>(pb, f64x2.extract_lane(val, 1));
+        v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
+        v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5);
+        Q = f64x2.mul(Q, Qr);
+        Qr = f64x2.mul(Qr, q2);
+      }
+    } else {
+      for (let r = 0; r < n; r++) {
+        const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(f64x2.add(v4, v5), f64x2.add(v6, v7)));
+        val = f64x2.add(val, f64x2.mul(Q, h));
+        pa += da;
+        pb += db;
+        store<f64>(pa, f64x2.extract_lane(val, 0));
+        store<f64>(pb, f64x2.extract_lane(val, 1));
+        v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
+        v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5); v6 = f64x2.mul(v6, c6); v7 = f64x2.mul(v7, c7);
+        Q = f64x2.mul(Q, Qr);
+        Qr = f64x2.mul(Qr, q2);
+      }
+    }
+    took(a, n);
+    took(b, n);
+    // a lane whose chunk ended goes on with the next chunk of its segment in place (a fresh Q);
+    // a lane whose segment ended leaves the loop for its seed
+    let go = true;
+    if (a.pending == 0) {
+      if (continueSegment(a)) {
+        Q = f64x2.replace_lane(Q, 0, a.Q);
+        Qr = f64x2.replace_lane(Qr, 0, a.Qr);
+      } else go = false;
+    }
+    if (b.pending == 0) {
+      if (continueSegment(b)) {
+        Q = f64x2.replace_lane(Q, 1, b.Q);
+        Qr = f64x2.replace_lane(Qr, 1, b.Qr);
+      } else go = false;
+    }
+    if (!go) break;
+  }
+  unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
+  unpair(a, b, 4, v4); unpair(a, b, 5, v5); unpair(a, b, 6, v6); unpair(a, b, 7, v7);
+  a.val = f64x2.extract_lane(val, 0);
+  b.val = f64x2.extract_lane(val, 1);
+  a.Q = f64x2.extract_lane(Q, 0);
+  b.Q = f64x2.extract_lane(Q, 1);
+  a.Qr = f64x2.extract_lane(Qr, 0);
+  b.Qr = f64x2.extract_lane(Qr, 1);
+  a.ptr = pa;
+  b.ptr = pb;
+}
+
+/** after n kernel steps: the lane's position and segment count move on */
+@inline function took(l: Lane, n: i32): void {
+  l.pending -= n;
+  l.p += n;
+  l.J += n;
+}
+
+// the queue of runs for the two lanes: (w0, s, sign) as f64 and (count, base, i0, di) as i32/usize
+const QUEUE_AT: usize = LANES_AT + 2 * LANE_SIZE;
+let queued: i32 = 0;
+let taken: i32 = 0;
+
+function enqueue(w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32, sign: f64): void {
+  const at = QUEUE_AT + <usize>queued * 64;
+  store<f64>(at, w0);
+  store<f64>(at + 8, s);
+  store<f64>(at + 16, sign);
+  store<i32>(at + 24, count);
+  store<i32>(at + 28, <i32>base);
+  store<i32>(at + 32, i0);
+  store<i32>(at + 36, di);
+  queued++;
+}
+
+/** gives the lane the next queued run; false when none is left */
+function takeRun(l: Lane): bool {
+  if (taken >= queued) return false;
+  const at = QUEUE_AT + <usize>taken * 64;
+  taken++;
+  startLane(l, load<f64>(at), load<f64>(at + 8), load<i32>(at + 24), <usize>load<i32>(at + 28), load<i32>(at + 32), load<i32>(at + 36), load<f64>(at + 16));
+  return true;
+}
+
+/** Runs every queued run, two at a time. */
+function drain(): void {
+  const a = laneA;
+  const b = laneB;
+  a.busy = 0;
+  b.busy = 0;
+  for (;;) {
+    if (a.busy == 0 && takeRun(a)) advance(a);
+    while (a.busy == 0 && takeRun(a)) advance(a);
+    while (b.busy == 0 && takeRun(b)) advance(b);
+    if (a.busy == 0 && b.busy == 0) break;
+    if (a.busy != 0 && b.busy != 0) {
+      stepTwo(a, b);
+      advance(a);
+      advance(b);
+    } else {
+      const l = a.busy != 0 ? a : b;
+      stepOne(l, l.pending);
+      took(l, l.pending);
+      advance(l);
+    }
+  }
+  queued = 0;
+  taken = 0;
+}
+
+function boundary(u0: f64, du: f64, n: i32, lim: f64, from: i32, inclusive: bool): i32 {
+  const jf = Math.min(<f64>n, Math.max(<f64>from, Math.floor((lim - u0) / du)));
+  let j = <i32>jf;
+  if (inclusive) {
+    while (j > from && u0 + <f64>(j - 1) * du > lim) j--;
+    while (j < n && u0 + <f64>j * du <= lim) j++;
+  } else {
+    while (j > from && u0 + <f64>(j - 1) * du >= lim) j--;
+    while (j < n && u0 + <f64>j * du < lim) j++;
+  }
+  return j;
+}
+
+/** erfLattice.ts's erfLattice into the array at `base` (n ≤ cap). */
+function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
+  if (n <= 0) return;
+  if (!(du > 0) || n < 4) {
+    for (let j = 0; j < n; j++) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
+    return;
+  }
+  const jc = boundary(u0, du, n, -LATTICE_CUT, 0, false);
+  const jL = boundary(u0, du, n, -S, jc, true);
+  const j0 = boundary(u0, du, n, 0, jL, false);
+  const jR = boundary(u0, du, n, S, j0, false);
+  const jC = boundary(u0, du, n, LATTICE_CUT, jR, true);
+  for (let j = 0; j < jc; j++) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
+  for (let j = jC; j < n; j++) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
+  const s2 = du * du;
+  if (gS2 != s2) {
+    gS2 = s2;
+    gQr0 = hostExp(-s2);
+    gQ2 = hostExp(-2 * s2);
+  }
+  // the four runs are queued; the caller drains the queue (two lattices' runs share the lanes)
+  if (jL > jc) enqueue(-(u0 + <f64>jc * du), -du, jL - jc, base, jc, 1, 1);
+  if (j0 > jL) enqueue(-(u0 + <f64>(j0 - 1) * du), du, j0 - jL, base, j0 - 1, -1, -1);
+  if (jR > j0) enqueue(u0 + <f64>j0 * du, du, jR - j0, base, j0, 1, 1);
+  if (jC > jR) enqueue(u0 + <f64>(jC - 1) * du, -du, jC - jR, base, jC - 1, -1, 1);
+}
+
+/** The lattice into work array B (for the host's erfLattice). */
+export function lattice(u0: f64, du: f64, n: i32): void {
+  latticeAt(u0, du, n, WORK_AT + (<usize>cap << 3));
+  drain();
+}
+
+// ---- spread.ts, lateralLattice
+
+function firstPast(u0: f64, du: f64, n: i32, lim: f64, strict: bool): i32 {
+  const jf = Math.min(<f64>n, Math.max(0, Math.floor((lim - u0) / du)));
+  let j = <i32>jf;
+  if (strict) {
+    while (j > 0 && u0 + <f64>(j - 1) * du > lim) j--;
+    while (j < n && !(u0 + <f64>j * du > lim)) j++;
+  } else {
+    while (j > 0 && u0 + <f64>(j - 1) * du >= lim) j--;
+    while (j < n && !(u0 + <f64>j * du >= lim)) j++;
+  }
+  return j;
+}
+
+@inline function cut(i: i32): i32 {
+  return load<i32>(CUTS_AT + (<usize>i << 2));
+}
+@inline function setCut(i: i32, v: i32): void {
+  store<i32>(CUTS_AT + (<usize>i << 2), v);
+}
+
+@inline function classK(c: i32): f64 {
+  return c == 0 ? -1 : c == 1 ? 0 : 1;
+}
+@inline function classSign(c: i32): f64 {
+  return c == 2 ? -1 : 1;
+}
+
+/**
+ * spread.ts's lateralLattice with the row written to work array ROW at [0, ny): factor·[erf(a_j) −
+ * erf(b_j)] for j ≥ jStart (and the mirrored half when `mirrored`).
+ */
+export function lateralRow(y0: f64, dy: f64, ny: i32, h: f64, s: f64, mirrored: bool, jStart: i32, factor: f64): void {
+  const A = WORK_AT;
+  const B = WORK_AT + (<usize>cap << 3);
+  const ROW = WORK_AT + (<usize>cap << 4);
+  const inv = 1 / s;
+  const du = dy * inv;
+  const b0 = (y0 - h) * inv;
+  latticeAt(b0, du, ny, B);
+  const jb1 = firstPast(b0, du, ny, -S, true);
+  const jb2 = firstPast(b0, du, ny, S, false);
+  let ja1: i32;
+  let ja2: i32;
+  if (mirrored) {
+    ja1 = ny - jb2;
+    ja2 = ny - jb1;
+  } else {
+    const a0 = (y0 + h) * inv;
+    latticeAt(a0, du, ny, A);
+    ja1 = firstPast(a0, du, ny, -S, true);
+    ja2 = firstPast(a0, du, ny, S, false);
+  }
+  drain();
+  setCut(0, jStart);
+  setCut(1, max(jStart, ja1));
+  setCut(2, max(jStart, ja2));
+  setCut(3, max(jStart, jb1));
+  setCut(4, max(jStart, jb2));
+  setCut(5, ny);
+  for (let i = 1; i < 6; i++) {
+    const v = cut(i);
+    let k = i - 1;
+    while (k >= 0 && cut(k) > v) {
+      setCut(k + 1, cut(k));
+      k--;
+    }
+    setCut(k + 1, v);
+  }
+  const capV = 2 * factor;
+  for (let c = 0; c < 5; c++) {
+    const lo = cut(c);
+    const hi = cut(c + 1);
+    if (hi <= lo) continue;
+    const ca = lo < ja1 ? 0 : lo < ja2 ? 1 : 2;
+    const cb = lo < jb1 ? 0 : lo < jb2 ? 1 : 2;
+    const K = factor * (classK(ca) - classK(cb));
+    const sb = -factor * classSign(cb);
+    if (mirrored) {
+      const sa = factor * classSign(ca) * (ca == 1 ? -1 : 1);
+      for (let j = lo; j < hi; j++) {
+        const m = ny - 1 - j;
+        let f = K + sa * load<f64>(outAt(B, m)) + sb * load<f64>(outAt(B, j));
+        f = f > 0 ? (f < capV ? f : capV) : 0;
+        store<f64>(outAt(ROW, j), f);
+        store<f64>(outAt(ROW, m), f);
+      }
+    } else {
+      const sa = factor * classSign(ca);
+      for (let j = lo; j < hi; j++) {
+        const f = K + sa * load<f64>(outAt(A, j)) + sb * load<f64>(outAt(B, j));
+        store<f64>(outAt(ROW, j), f > 0 ? (f < capV ? f : capV) : 0);
+      }
+    }
+  }
+}
