@@ -749,9 +749,26 @@ export function lateralRow(y0: f64, dy: f64, ny: i32, h: f64, s: f64, mirrored: 
     const cb = lo < jb1 ? 0 : lo < jb2 ? 1 : 2;
     const K = factor * (classK(ca) - classK(cb));
     const sb = -factor * classSign(cb);
+    // two cells at a time: the same operations lane by lane; the clamp f > 0 ? min(f, cap) : 0 as
+    // pmin(cap, pmax(0, f)) (pmax(0, f) = 0 < f ? f : 0, pmin(cap, h) = h < cap ? h : cap)
+    const vK = f64x2.splat(K);
+    const vsb = f64x2.splat(sb);
+    const vcap = f64x2.splat(capV);
+    const vzero = f64x2.splat(0);
     if (mirrored) {
       const sa = factor * classSign(ca) * (ca == 1 ? -1 : 1);
-      for (let j = lo; j < hi; j++) {
+      const vsa = f64x2.splat(sa);
+      let j = lo;
+      for (; j + 1 < hi; j += 2) {
+        const m = ny - 1 - j;
+        // (B[m], B[m − 1]) from the pair at m − 1
+        const bm = v128.shuffle<f64>(v128.load(outAt(B, m - 1)), v128.load(outAt(B, m - 1)), 1, 0);
+        const f = f64x2.add(f64x2.add(vK, f64x2.mul(vsa, bm)), f64x2.mul(vsb, v128.load(outAt(B, j))));
+        const c = f64x2.pmin(vcap, f64x2.pmax(vzero, f));
+        v128.store(outAt(ROW, j), c);
+        v128.store(outAt(ROW, m - 1), v128.shuffle<f64>(c, c, 1, 0));
+      }
+      for (; j < hi; j++) {
         const m = ny - 1 - j;
         let f = K + sa * load<f64>(outAt(B, m)) + sb * load<f64>(outAt(B, j));
         f = f > 0 ? (f < capV ? f : capV) : 0;
@@ -760,7 +777,13 @@ export function lateralRow(y0: f64, dy: f64, ny: i32, h: f64, s: f64, mirrored: 
       }
     } else {
       const sa = factor * classSign(ca);
-      for (let j = lo; j < hi; j++) {
+      const vsa = f64x2.splat(sa);
+      let j = lo;
+      for (; j + 1 < hi; j += 2) {
+        const f = f64x2.add(f64x2.add(vK, f64x2.mul(vsa, v128.load(outAt(A, j)))), f64x2.mul(vsb, v128.load(outAt(B, j))));
+        v128.store(outAt(ROW, j), f64x2.pmin(vcap, f64x2.pmax(vzero, f)));
+      }
+      for (; j < hi; j++) {
         const f = K + sa * load<f64>(outAt(A, j)) + sb * load<f64>(outAt(B, j));
         store<f64>(outAt(ROW, j), f > 0 ? (f < capV ? f : capV) : 0);
       }
