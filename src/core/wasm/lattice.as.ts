@@ -284,6 +284,9 @@ const LANE_SIZE: usize = 256;
 const LANES_AT: usize = CUTS_AT + 64;
 const laneA = changetype<Lane>(LANES_AT);
 const laneB = changetype<Lane>(LANES_AT + LANE_SIZE);
+/** the idle partner of a lone run (its values land in one unused slot) */
+const laneC = changetype<Lane>(LANES_AT + 2 * LANE_SIZE);
+const IDLE_SLOT: usize = LANES_AT + 3 * LANE_SIZE;
 
 @inline function laneP(l: Lane, k: i32): usize {
   return changetype<usize>(l) + 128 + (<usize>k << 3);
@@ -413,57 +416,6 @@ function advance(l: Lane): void {
   }
 }
 
-/** n steps of one lane (the other idle), scalar; the state stays in the lane. */
-function stepOne(l: Lane, n: i32): void {
-  let val = l.val;
-  let Q = l.Q;
-  let Qr = l.Qr;
-  const q2 = gQ2;
-  let ptr = l.ptr;
-  const dp = l.dp;
-  const m = ruleM(l.rule);
-  let p0 = load<f64>(laneP(l, 0)), p1 = load<f64>(laneP(l, 1)), p2 = load<f64>(laneP(l, 2)), p3 = load<f64>(laneP(l, 3));
-  const b0 = load<f64>(laneB_(l, 0)), b1 = load<f64>(laneB_(l, 1)), b2 = load<f64>(laneB_(l, 2)), b3 = load<f64>(laneB_(l, 3));
-  if (m == 4) {
-    for (let r = 0; r < n; r++) {
-      val += Q * ((p0 + p1) + (p2 + p3));
-      ptr += dp;
-      store<f64>(ptr, val);
-      p0 *= b0; p1 *= b1; p2 *= b2; p3 *= b3;
-      Q *= Qr;
-      Qr *= q2;
-    }
-  } else {
-    let p4 = load<f64>(laneP(l, 4)), p5 = load<f64>(laneP(l, 5)), p6 = load<f64>(laneP(l, 6)), p7 = load<f64>(laneP(l, 7));
-    const b4 = load<f64>(laneB_(l, 4)), b5 = load<f64>(laneB_(l, 5)), b6 = load<f64>(laneB_(l, 6)), b7 = load<f64>(laneB_(l, 7));
-    if (m == 6) {
-      for (let r = 0; r < n; r++) {
-        val += Q * (((p0 + p1) + (p2 + p3)) + (p4 + p5));
-        ptr += dp;
-        store<f64>(ptr, val);
-        p0 *= b0; p1 *= b1; p2 *= b2; p3 *= b3; p4 *= b4; p5 *= b5;
-        Q *= Qr;
-        Qr *= q2;
-      }
-    } else {
-      for (let r = 0; r < n; r++) {
-        val += Q * (((p0 + p1) + (p2 + p3)) + ((p4 + p5) + (p6 + p7)));
-        ptr += dp;
-        store<f64>(ptr, val);
-        p0 *= b0; p1 *= b1; p2 *= b2; p3 *= b3; p4 *= b4; p5 *= b5; p6 *= b6; p7 *= b7;
-        Q *= Qr;
-        Qr *= q2;
-      }
-    }
-    store<f64>(laneP(l, 4), p4); store<f64>(laneP(l, 5), p5); store<f64>(laneP(l, 6), p6); store<f64>(laneP(l, 7), p7);
-  }
-  store<f64>(laneP(l, 0), p0); store<f64>(laneP(l, 1), p1); store<f64>(laneP(l, 2), p2); store<f64>(laneP(l, 3), p3);
-  l.val = val;
-  l.Q = Q;
-  l.Qr = Qr;
-  l.ptr = ptr;
-}
-
 @inline function pair(a: Lane, b: Lane, k: i32): v128 {
   return f64x2(load<f64>(laneP(a, k)), load<f64>(laneP(b, k)));
 }
@@ -476,11 +428,12 @@ function stepOne(l: Lane, n: i32): void {
 }
 
 /**
- * n steps of both lanes at once, lane 0 lane A and lane 1 lane B, with the larger of their rules:
- * the nodes a smaller rule lacks are 0 (and stay 0), and adding 0 changes no sum, so each lane's
- * values are those of its own rule exactly.
+ * n steps of both lanes at once, lane 0 lane A and lane 1 lane B, with the 4-, 6- or 8-point loop
+ * (the larger of their rules): the nodes a smaller rule lacks are 0 (and stay 0), and adding 0
+ * changes no sum, so each lane's values are those of its own rule exactly. The state is loaded
+ * from the lanes and stored back, so that each loop keeps only its own values in registers.
  */
-function stepTwo(a: Lane, b: Lane): void {
+function loopTwo4(a: Lane, b: Lane, n: i32): void {
   let val = f64x2(a.val, b.val);
   let Q = f64x2(a.Q, b.Q);
   let Qr = f64x2(a.Qr, b.Qr);
@@ -489,72 +442,80 @@ function stepTwo(a: Lane, b: Lane): void {
   let pb = b.ptr;
   const da = a.dp;
   const db = b.dp;
-  const m = max(ruleM(a.rule), ruleM(b.rule));
   let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
+  for (let r = 0; r < n; r++) {
+    val = f64x2.add(val, f64x2.mul(Q, f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3))));
+    pa += da;
+    pb += db;
+    store<f64>(pa, f64x2.extract_lane(val, 0));
+    store<f64>(pb, f64x2.extract_lane(val, 1));
+    v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
+    Q = f64x2.mul(Q, Qr);
+    Qr = f64x2.mul(Qr, q2);
+  }
+  unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
+  storeTwo(a, b, val, Q, Qr, pa, pb);
+}
+
+function loopTwo6(a: Lane, b: Lane, n: i32): void {
+  let val = f64x2(a.val, b.val);
+  let Q = f64x2(a.Q, b.Q);
+  let Qr = f64x2(a.Qr, b.Qr);
+  const q2 = f64x2.splat(gQ2);
+  let pa = a.ptr;
+  let pb = b.ptr;
+  const da = a.dp;
+  const db = b.dp;
+  let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3), v4 = pair(a, b, 4), v5 = pair(a, b, 5);
+  const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3), c4 = pairB(a, b, 4), c5 = pairB(a, b, 5);
+  for (let r = 0; r < n; r++) {
+    const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(v4, v5));
+    val = f64x2.add(val, f64x2.mul(Q, h));
+    pa += da;
+    pb += db;
+    store<f64>(pa, f64x2.extract_lane(val, 0));
+    store<f64>(pb, f64x2.extract_lane(val, 1));
+    v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
+    v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5);
+    Q = f64x2.mul(Q, Qr);
+    Qr = f64x2.mul(Qr, q2);
+  }
+  unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3); unpair(a, b, 4, v4); unpair(a, b, 5, v5);
+  storeTwo(a, b, val, Q, Qr, pa, pb);
+}
+
+function loopTwo8(a: Lane, b: Lane, n: i32): void {
+  let val = f64x2(a.val, b.val);
+  let Q = f64x2(a.Q, b.Q);
+  let Qr = f64x2(a.Qr, b.Qr);
+  const q2 = f64x2.splat(gQ2);
+  let pa = a.ptr;
+  let pb = b.ptr;
+  const da = a.dp;
+  const db = b.dp;
+  let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
   let v4 = pair(a, b, 4), v5 = pair(a, b, 5), v6 = pair(a, b, 6), v7 = pair(a, b, 7);
+  const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
   const c4 = pairB(a, b, 4), c5 = pairB(a, b, 5), c6 = pairB(a, b, 6), c7 = pairB(a, b, 7);
-  for (;;) {
-    const n = min(a.pending, b.pending);
-    if (m == 4) {
-      for (let r = 0; r < n; r++) {
-        val = f64x2.add(val, f64x2.mul(Q, f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3))));
-        pa += da;
-        pb += db;
-        store<f64>(pa, f64x2.extract_lane(val, 0));
-        store<f64>(pb, f64x2.extract_lane(val, 1));
-        v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
-        Q = f64x2.mul(Q, Qr);
-        Qr = f64x2.mul(Qr, q2);
-      }
-    } else if (m == 6) {
-      for (let r = 0; r < n; r++) {
-        const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(v4, v5));
-        val = f64x2.add(val, f64x2.mul(Q, h));
-        pa += da;
-        pb += db;
-        store<f64>(pa, f64x2.extract_lane(val, 0));
-        store<f64>(pb, f64x2.extract_lane(val, 1));
-        v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
-        v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5);
-        Q = f64x2.mul(Q, Qr);
-        Qr = f64x2.mul(Qr, q2);
-      }
-    } else {
-      for (let r = 0; r < n; r++) {
-        const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(f64x2.add(v4, v5), f64x2.add(v6, v7)));
-        val = f64x2.add(val, f64x2.mul(Q, h));
-        pa += da;
-        pb += db;
-        store<f64>(pa, f64x2.extract_lane(val, 0));
-        store<f64>(pb, f64x2.extract_lane(val, 1));
-        v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
-        v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5); v6 = f64x2.mul(v6, c6); v7 = f64x2.mul(v7, c7);
-        Q = f64x2.mul(Q, Qr);
-        Qr = f64x2.mul(Qr, q2);
-      }
-    }
-    took(a, n);
-    took(b, n);
-    // a lane whose chunk ended goes on with the next chunk of its segment in place (a fresh Q);
-    // a lane whose segment ended leaves the loop for its seed
-    let go = true;
-    if (a.pending == 0) {
-      if (continueSegment(a)) {
-        Q = f64x2.replace_lane(Q, 0, a.Q);
-        Qr = f64x2.replace_lane(Qr, 0, a.Qr);
-      } else go = false;
-    }
-    if (b.pending == 0) {
-      if (continueSegment(b)) {
-        Q = f64x2.replace_lane(Q, 1, b.Q);
-        Qr = f64x2.replace_lane(Qr, 1, b.Qr);
-      } else go = false;
-    }
-    if (!go) break;
+  for (let r = 0; r < n; r++) {
+    const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(f64x2.add(v4, v5), f64x2.add(v6, v7)));
+    val = f64x2.add(val, f64x2.mul(Q, h));
+    pa += da;
+    pb += db;
+    store<f64>(pa, f64x2.extract_lane(val, 0));
+    store<f64>(pb, f64x2.extract_lane(val, 1));
+    v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
+    v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5); v6 = f64x2.mul(v6, c6); v7 = f64x2.mul(v7, c7);
+    Q = f64x2.mul(Q, Qr);
+    Qr = f64x2.mul(Qr, q2);
   }
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
   unpair(a, b, 4, v4); unpair(a, b, 5, v5); unpair(a, b, 6, v6); unpair(a, b, 7, v7);
+  storeTwo(a, b, val, Q, Qr, pa, pb);
+}
+
+@inline function storeTwo(a: Lane, b: Lane, val: v128, Q: v128, Qr: v128, pa: usize, pb: usize): void {
   a.val = f64x2.extract_lane(val, 0);
   b.val = f64x2.extract_lane(val, 1);
   a.Q = f64x2.extract_lane(Q, 0);
@@ -565,6 +526,42 @@ function stepTwo(a: Lane, b: Lane): void {
   b.ptr = pb;
 }
 
+/**
+ * Both lanes until one of them reaches the end of its segment; a lane whose chunk ends on the way
+ * goes on with the next chunk of its segment (a fresh Q, as erfLattice.ts's chunks).
+ */
+function loopTwo(a: Lane, b: Lane, m: i32, n: i32): void {
+  if (m == 4) loopTwo4(a, b, n);
+  else if (m == 6) loopTwo6(a, b, n);
+  else loopTwo8(a, b, n);
+}
+
+function stepTwo(a: Lane, b: Lane): void {
+  const m = max(ruleM(a.rule), ruleM(b.rule));
+  for (;;) {
+    const n = min(a.pending, b.pending);
+    loopTwo(a, b, m, n);
+    took(a, n);
+    took(b, n);
+    let go = true;
+    if (a.pending == 0 && !continueSegment(a)) go = false;
+    if (b.pending == 0 && !continueSegment(b)) go = false;
+    if (!go) break;
+  }
+}
+
+function idleLane(l: Lane): void {
+  l.val = 0;
+  l.Q = 0;
+  l.Qr = 0;
+  l.ptr = IDLE_SLOT;
+  l.dp = 0;
+  for (let k = 0; k < 8; k++) {
+    store<f64>(laneP(l, k), 0);
+    store<f64>(laneB_(l, k), 1);
+  }
+}
+
 /** after n kernel steps: the lane's position and segment count move on */
 @inline function took(l: Lane, n: i32): void {
   l.pending -= n;
@@ -573,7 +570,7 @@ function stepTwo(a: Lane, b: Lane): void {
 }
 
 // the queue of runs for the two lanes: (w0, s, sign) as f64 and (count, base, i0, di) as i32/usize
-const QUEUE_AT: usize = LANES_AT + 2 * LANE_SIZE;
+const QUEUE_AT: usize = LANES_AT + 4 * LANE_SIZE;
 let queued: i32 = 0;
 let taken: i32 = 0;
 
@@ -614,9 +611,12 @@ function drain(): void {
       advance(a);
       advance(b);
     } else {
+      // one run left: the same loops with an idle partner whose lane computes zeros into a slot
       const l = a.busy != 0 ? a : b;
-      stepOne(l, l.pending);
-      took(l, l.pending);
+      const n = l.pending;
+      idleLane(laneC);
+      loopTwo(l, laneC, ruleM(l.rule), n);
+      took(l, n);
       advance(l);
     }
   }
