@@ -52,7 +52,6 @@ export interface LatticeKernel {
 class Kernel implements LatticeKernel {
   private cap = 0;
   private views: { b: Float64Array; row: Float64Array } | null = null;
-  private viewLength = -1;
 
   constructor(private readonly x: LatticeExports) {
     this.ensure(1024);
@@ -82,11 +81,11 @@ class Kernel implements LatticeKernel {
 
   private viewsFor(n: number): { b: Float64Array; row: Float64Array } {
     this.ensure(n);
-    if (this.views === null || this.viewLength !== n || this.views.b.buffer !== this.x.memory.buffer) {
+    // ensure() drops the views whenever memory grows (the only way the buffer changes)
+    if (this.views === null || this.views.b.length !== n) {
       const buf = this.x.memory.buffer;
       const work = this.x.workOffset();
       this.views = { b: new Float64Array(buf, work + 8 * this.cap, n), row: new Float64Array(buf, work + 16 * this.cap, n) };
-      this.viewLength = n;
     }
     return this.views;
   }
