@@ -32,6 +32,7 @@ interface LatticeExports {
   lattice(u0: number, du: number, n: number): void;
   lateralRow(y0: number, dy: number, ny: number, h: number, s: number, mirrored: number, jStart: number, factor: number): void;
   fdlibmExp(x: number): number;
+  expPairAt(a: number, b: number): void;
 }
 declare const WebAssembly: {
   Module: new (bytes: Uint8Array) => object;
@@ -47,6 +48,8 @@ export interface LatticeKernel {
   lateralRow(y0: number, dy: number, ny: number, h: number, s: number, mirrored: boolean, jStart: number, factor: number): Float64Array;
   /** the module's own exp (fdlibm's), for the test that it is the host's Math.exp */
   exp(x: number): number;
+  /** its two-lane exp (expPair), for the same test: [e^a, e^b] */
+  expPair(a: number, b: number): [number, number];
 }
 
 class Kernel implements LatticeKernel {
@@ -104,6 +107,13 @@ class Kernel implements LatticeKernel {
 
   exp(x: number): number {
     return this.x.fdlibmExp(x);
+  }
+
+  expPair(a: number, b: number): [number, number] {
+    this.x.expPairAt(a, b);
+    const at = this.x.workOffset() / 8;
+    const mem = new Float64Array(this.x.memory.buffer);
+    return [mem[at], mem[at + 1]];
   }
 }
 

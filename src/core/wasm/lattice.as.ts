@@ -32,6 +32,8 @@ const EXP_P5: f64 = 4.13813679705723846039e-08;
 const O_THRESHOLD: f64 = 7.09782712893383973096e+02;
 const U_THRESHOLD: f64 = -7.45133219101941108420e+02;
 const TWO_M1000: f64 = 9.33263618503218878990e-302;
+const EXP_TINY: f64 = 3.725290298461914e-9; // 2⁻²⁸
+const EXP_ORDINARY: f64 = 707;
 
 export function fdlibmExp(x: f64): f64 {
   const bits = reinterpret<u64>(x);
@@ -77,6 +79,41 @@ export function fdlibmExp(x: f64): f64 {
   return y * twopk * TWO_M1000;
 }
 
+/**
+ * fdlibmExp on both lanes of an f64x2, the same bits lane by lane. Where both arguments are
+ * ordinary (2⁻²⁸ ≤ |x| ≤ 707, x ≠ 1, so the reduction's k lies in [−1020, 1020] and no branch of
+ * fdlibmExp but its main one is taken) the lanes are computed together: fdlibm's k = 0 branch
+ * (|x| ≤ ½ln2), 1 − ((x·c)/(c − 2) − x), is the main branch's 1 − ((lo − (x·c)/(2 − c)) − hi) with
+ * hi = x, lo = 0 exactly (division is symmetric in sign), and its |x| < 1.5·ln2 branch sets the k,
+ * hi and lo the main branch's truncation gives there. Otherwise each lane goes to fdlibmExp.
+ */
+export function expPair(x: v128): v128 {
+  const ax = f64x2.abs(x);
+  const ordinary = v128.and(v128.and(f64x2.ge(ax, f64x2.splat(EXP_TINY)), f64x2.le(ax, f64x2.splat(EXP_ORDINARY))), f64x2.ne(x, f64x2.splat(1.0)));
+  if (!i64x2.all_true(ordinary)) return f64x2(fdlibmExp(f64x2.extract_lane(x, 0)), fdlibmExp(f64x2.extract_lane(x, 1)));
+  // |x| > ½ln2 in fdlibm's test of the high word: hx > 0x3fd62e42
+  const reduce = f64x2.ge(ax, f64x2.splat(reinterpret<f64>(<u64>0x3fd62e4300000000)));
+  const half = v128.or(f64x2.splat(0.5), v128.and(x, i64x2.splat(0x8000000000000000)));
+  const t = v128.and(f64x2.trunc(f64x2.add(f64x2.mul(f64x2.splat(INV_LN2), x), half)), reduce);
+  const hi = f64x2.sub(x, f64x2.mul(t, f64x2.splat(LN2_HI)));
+  const lo = f64x2.mul(t, f64x2.splat(LN2_LO));
+  const r = f64x2.sub(hi, lo);
+  const tt = f64x2.mul(r, r);
+  let q = f64x2.add(f64x2.splat(EXP_P4), f64x2.mul(tt, f64x2.splat(EXP_P5)));
+  q = f64x2.add(f64x2.splat(EXP_P3), f64x2.mul(tt, q));
+  q = f64x2.add(f64x2.splat(EXP_P2), f64x2.mul(tt, q));
+  q = f64x2.add(f64x2.splat(EXP_P1), f64x2.mul(tt, q));
+  const c = f64x2.sub(r, f64x2.mul(tt, q));
+  const y = f64x2.sub(f64x2.splat(1.0), f64x2.sub(f64x2.sub(lo, f64x2.div(f64x2.mul(r, c), f64x2.sub(f64x2.splat(2.0), c))), hi));
+  const k = i64x2.extend_low_i32x4_s(i32x4.trunc_sat_f64x2_s_zero(t));
+  return f64x2.mul(y, i64x2.shl(i64x2.add(k, i64x2.splat(0x3ff)), 52));
+}
+
+/** expPair for the host's test: e^a into WORK_AT, e^b after it. */
+export function expPairAt(a: f64, b: f64): void {
+  v128.store(WORK_AT, expPair(f64x2(a, b)));
+}
+
 /** the first 64 KiB are left to the compiler's own static data */
 const TABLE_AT: usize = 65536;
 const INV_H: f64 = 128;
@@ -94,6 +131,14 @@ const DVAL_AT: usize = PAD_AT + 3 * 8;
 const DSTEP_AT: usize = DVAL_AT + 24 * 8;
 const CUTS_AT: usize = DSTEP_AT + 3 * 8;
 const WORK_AT: usize = 196608;
+/**
+ * The two lanes' vector state, interleaved so that the lane loops load and store it as vectors
+ * (lane A low, lane B high): P_k at PAIRS_AT + 16k, B_k at PAIRS_AT + 128 + 16k, e^{−2s²} twice at
+ * PAIRS_AT + 256. (A vector built from two scalars is a pure value that V8 11 rebuilds inside the
+ * loop, two shuffles per factor and step; a load stays a load.)
+ */
+const PAIRS_AT: usize = WORK_AT - 512;
+const Q2_AT: usize = PAIRS_AT + 256;
 
 const LATTICE_CUT: f64 = 10;
 const CHUNK: i32 = 64;
@@ -283,15 +328,17 @@ const LANE_SIZE: usize = 256;
 const LANES_AT: usize = CUTS_AT + 64;
 const laneA = changetype<Lane>(LANES_AT);
 const laneB = changetype<Lane>(LANES_AT + LANE_SIZE);
-/** the idle partner of a lone run (its values land in one unused slot) */
-const laneC = changetype<Lane>(LANES_AT + 2 * LANE_SIZE);
+/** where an idle lane's values land (one unused slot) */
 const IDLE_SLOT: usize = LANES_AT + 3 * LANE_SIZE;
 
+@inline function laneHalf(l: Lane): usize {
+  return changetype<usize>(l) == LANES_AT ? 0 : 8;
+}
 @inline function laneP(l: Lane, k: i32): usize {
-  return changetype<usize>(l) + 128 + (<usize>k << 3);
+  return PAIRS_AT + (<usize>k << 4) + laneHalf(l);
 }
 @inline function laneB_(l: Lane, k: i32): usize {
-  return changetype<usize>(l) + 192 + (<usize>k << 3);
+  return PAIRS_AT + 128 + (<usize>k << 4) + laneHalf(l);
 }
 
 function startLane(l: Lane, w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32, sign: f64): void {
@@ -318,18 +365,24 @@ function seedLane(l: Lane, r: i32, w: f64, s: f64): void {
   const s2 = s * s;
   const stepAt = DSTEP_AT + (<usize>r << 3);
   if (load<f64>(stepAt) != s2) {
-    for (let k = 0; k < m; k++) store<f64>(DVAL_AT + (<usize>(r * 8 + k) << 3), fdlibmExp(-2 * ruleC(r, k) * s2));
+    for (let k = 0; k < m; k += 2) v128.store(DVAL_AT + (<usize>(r * 8 + k) << 3), expPair(f64x2(-2 * ruleC(r, k) * s2, -2 * ruleC(r, k + 1) * s2)));
     store<f64>(stepAt, s2);
   }
   const E = fdlibmExp(-2 * w * s);
-  for (let k = 0; k < 8; k++) {
+  for (let k = 0; k < 8; k += 2) {
     if (k < m) {
       const a = w + ruleC(r, k) * s;
-      store<f64>(laneP(l, k), ruleW(r, k) * fdlibmExp(-a * a));
+      const b = w + ruleC(r, k + 1) * s;
+      const g = expPair(f64x2(-a * a, -b * b));
+      store<f64>(laneP(l, k), ruleW(r, k) * f64x2.extract_lane(g, 0));
+      store<f64>(laneP(l, k + 1), ruleW(r, k + 1) * f64x2.extract_lane(g, 1));
       store<f64>(laneB_(l, k), E * dVal(r * 8 + k));
+      store<f64>(laneB_(l, k + 1), E * dVal(r * 8 + k + 1));
     } else {
       store<f64>(laneP(l, k), 0);
+      store<f64>(laneP(l, k + 1), 0);
       store<f64>(laneB_(l, k), 1);
+      store<f64>(laneB_(l, k + 1), 1);
     }
   }
 }
@@ -341,8 +394,9 @@ function gaussLane(l: Lane): void {
     l.Qr = gQr0;
   } else {
     const J = <f64>l.J;
-    l.Q = l.scale * fdlibmExp(-gS2 * J * J);
-    l.Qr = fdlibmExp(-gS2 * (2 * J + 1));
+    const g = expPair(f64x2(-gS2 * J * J, -gS2 * (2 * J + 1)));
+    l.Q = l.scale * f64x2.extract_lane(g, 0);
+    l.Qr = f64x2.extract_lane(g, 1);
   }
 }
 
@@ -416,14 +470,13 @@ function advance(l: Lane): void {
 }
 
 @inline function pair(a: Lane, b: Lane, k: i32): v128 {
-  return f64x2(load<f64>(laneP(a, k)), load<f64>(laneP(b, k)));
+  return v128.load(PAIRS_AT + (<usize>k << 4));
 }
 @inline function pairB(a: Lane, b: Lane, k: i32): v128 {
-  return f64x2(load<f64>(laneB_(a, k)), load<f64>(laneB_(b, k)));
+  return v128.load(PAIRS_AT + 128 + (<usize>k << 4));
 }
 @inline function unpair(a: Lane, b: Lane, k: i32, v: v128): void {
-  store<f64>(laneP(a, k), f64x2.extract_lane(v, 0));
-  store<f64>(laneP(b, k), f64x2.extract_lane(v, 1));
+  v128.store(PAIRS_AT + (<usize>k << 4), v);
 }
 
 /**
@@ -437,7 +490,7 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
   let val = f64x2(a.val, b.val);
   let Q = f64x2(a.Q, b.Q);
   let Qr = f64x2(a.Qr, b.Qr);
-  const q2 = f64x2.splat(gQ2);
+  const q2 = v128.load(Q2_AT);
   let pa = a.ptr;
   let pb = b.ptr;
   const da = a.dp;
@@ -462,7 +515,7 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
   let val = f64x2(a.val, b.val);
   let Q = f64x2(a.Q, b.Q);
   let Qr = f64x2(a.Qr, b.Qr);
-  const q2 = f64x2.splat(gQ2);
+  const q2 = v128.load(Q2_AT);
   let pa = a.ptr;
   let pb = b.ptr;
   const da = a.dp;
@@ -489,7 +542,7 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
   let val = f64x2(a.val, b.val);
   let Q = f64x2(a.Q, b.Q);
   let Qr = f64x2(a.Qr, b.Qr);
-  const q2 = f64x2.splat(gQ2);
+  const q2 = v128.load(Q2_AT);
   let pa = a.ptr;
   let pb = b.ptr;
   const da = a.dp;
@@ -614,8 +667,8 @@ function drain(): void {
       // one run left: the same loops with an idle partner whose lane computes zeros into a slot
       const l = a.busy != 0 ? a : b;
       const n = l.pending;
-      idleLane(laneC);
-      loopTwo(l, laneC, ruleM(l.rule), n);
+      idleLane(changetype<usize>(l) == changetype<usize>(a) ? b : a);
+      loopTwo(a, b, ruleM(l.rule), n);
       took(l, n);
       advance(l);
     }
@@ -637,6 +690,28 @@ function boundary(u0: f64, du: f64, n: i32, lim: f64, from: i32, inclusive: bool
   return j;
 }
 
+/**
+ * pointValue at the points j in [from, to), all beyond the cut (|u| > 10, where it is erfcTail):
+ * two at a time, with one expPair.
+ */
+function beyondCut(u0: f64, du: f64, from: i32, to: i32, base: usize): void {
+  let j = from;
+  for (; j + 1 < to; j += 2) {
+    const y0 = Math.abs(u0 + <f64>j * du);
+    const y1 = Math.abs(u0 + <f64>(j + 1) * du);
+    let v0: f64 = 0;
+    let v1: f64 = 0;
+    if (y0 < XBIG || y1 < XBIG) {
+      const g = expPair(f64x2(-y0 * y0, -y1 * y1));
+      if (y0 < XBIG) v0 = f64x2.extract_lane(g, 0) * erfcxLarge(y0);
+      if (y1 < XBIG) v1 = f64x2.extract_lane(g, 1) * erfcxLarge(y1);
+    }
+    store<f64>(outAt(base, j), v0);
+    store<f64>(outAt(base, j + 1), v1);
+  }
+  if (j < to) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
+}
+
 /** erfLattice.ts's erfLattice into the array at `base` (n ≤ cap). */
 function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
   if (n <= 0) return;
@@ -649,13 +724,16 @@ function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
   const j0 = boundary(u0, du, n, 0, jL, false);
   const jR = boundary(u0, du, n, S, j0, false);
   const jC = boundary(u0, du, n, LATTICE_CUT, jR, true);
-  for (let j = 0; j < jc; j++) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
-  for (let j = jC; j < n; j++) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
+  beyondCut(u0, du, 0, jc, base);
+  beyondCut(u0, du, jC, n, base);
   const s2 = du * du;
   if (gS2 != s2) {
     gS2 = s2;
-    gQr0 = fdlibmExp(-s2);
-    gQ2 = fdlibmExp(-2 * s2);
+    const g = expPair(f64x2(-s2, -2 * s2));
+    gQr0 = f64x2.extract_lane(g, 0);
+    gQ2 = f64x2.extract_lane(g, 1);
+    store<f64>(Q2_AT, gQ2);
+    store<f64>(Q2_AT + 8, gQ2);
   }
   // the four runs are queued; the caller drains the queue (two lattices' runs share the lanes)
   if (jL > jc) enqueue(-(u0 + <f64>jc * du), -du, jL - jc, base, jc, 1, 1);
