@@ -87,7 +87,7 @@ export function fdlibmExp(x: f64): f64 {
  * hi = x, lo = 0 exactly (division is symmetric in sign), and its |x| < 1.5·ln2 branch sets the k,
  * hi and lo the main branch's truncation gives there. Otherwise each lane goes to fdlibmExp.
  */
-export function expPair(x: v128): v128 {
+function expPair(x: v128): v128 {
   const ax = f64x2.abs(x);
   const ordinary = v128.and(v128.and(f64x2.ge(ax, f64x2.splat(EXP_TINY)), f64x2.le(ax, f64x2.splat(EXP_ORDINARY))), f64x2.ne(x, f64x2.splat(1.0)));
   if (!i64x2.all_true(ordinary)) return f64x2(fdlibmExp(f64x2.extract_lane(x, 0)), fdlibmExp(f64x2.extract_lane(x, 1)));
@@ -315,8 +315,12 @@ function pointValue(u: f64): f64 {
   p: i32;
   /** steps since the segment's seed */
   J: i32;
-  /** steps of the current chunk still to take (0: an event is due) */
+  /** steps of the current segment still to take (0: an event is due) */
   pending: i32;
+  /** steps of the current chunk still to take, the chunk's index and the segment's chunk count */
+  chunkLeft: i32;
+  chunk: i32;
+  chunks: i32;
   /** rule of the segment, −1 outside one */
   rule: i32;
   /** 0 idle, 1 running */
@@ -324,7 +328,7 @@ function pointValue(u: f64): f64 {
 }
 
 const LANE_SIZE: usize = 256;
-/** per lane: the Lane fields, then P_k at +128 and B_k at +192 (8 doubles each) */
+/** per lane: the Lane fields, then the segment's chunks (planSegment): Q at +128, Qr at +160 (4 doubles each), steps at +192 (4 × i32) */
 const LANES_AT: usize = CUTS_AT + 64;
 const laneA = changetype<Lane>(LANES_AT);
 const laneB = changetype<Lane>(LANES_AT + LANE_SIZE);
@@ -387,40 +391,71 @@ function seedLane(l: Lane, r: i32, w: f64, s: f64): void {
   }
 }
 
-/** Q = scale·e^{−s²J²} and its ratio e^{−s²(2J+1)} at J steps from the seed (erfLattice.ts's gaussAt). */
-function gaussLane(l: Lane): void {
-  if (l.J == 0) {
-    l.Q = l.scale;
-    l.Qr = gQr0;
-  } else {
-    const J = <f64>l.J;
-    const g = expPair(f64x2(-gS2 * J * J, -gS2 * (2 * J + 1)));
-    l.Q = l.scale * f64x2.extract_lane(g, 0);
-    l.Qr = f64x2.extract_lane(g, 1);
-  }
+@inline function chunkQ(l: Lane, c: i32): usize {
+  return changetype<usize>(l) + 128 + (<usize>c << 3);
+}
+@inline function chunkQr(l: Lane, c: i32): usize {
+  return changetype<usize>(l) + 160 + (<usize>c << 3);
+}
+@inline function chunkSteps(l: Lane, c: i32): usize {
+  return changetype<usize>(l) + 192 + (<usize>c << 2);
 }
 
 /**
- * At the end of a chunk of a segment (rule ≥ 0, nothing pending): the next chunk of the same
- * segment (fresh Q, steps pending) and true, or the segment's end (rule −1, the next seed due at p)
- * and false.
+ * The whole segment a seed starts, planned at once: its first chunk of `first` steps (Q = scale,
+ * Qr = e^{−s²}), then the chunks erfLattice.ts's `run` continues with while the rule stays the
+ * same, the carried factors keep their room and the segment stays within SEGMENT steps, each with
+ * the fresh Q = scale·e^{−s²J²} and Qr = e^{−s²(2J+1)} of erfLattice.ts's gaussAt at its J (they
+ * depend on nothing the steps change). The lane loops switch to them at the chunk ends without
+ * leaving the loop. At most four chunks: after the first, each is CHUNK steps long unless the run
+ * or the segment ends with it.
  */
-function continueSegment(l: Lane): bool {
-  const p = l.p;
+function planSegment(l: Lane, first: i32): void {
+  store<i32>(chunkSteps(l, 0), first);
+  let total = first;
+  let n = 1;
+  let p = l.p + first;
+  let J = first;
   const count = l.count;
   const s = l.s;
   const as = l.as;
-  if (p < count - 1 && l.J < SEGMENT) {
-    const steps = min(min(count - 1 - p, CHUNK), SEGMENT - l.J);
+  while (n < 4 && p < count - 1 && J < SEGMENT) {
+    const steps = min(min(count - 1 - p, CHUNK), SEGMENT - J);
     const tEnd = Math.abs(l.w0 + <f64>(p + steps) * s);
-    if (ruleFor(as, Math.max(Math.abs(l.w0 + <f64>p * s), tEnd) + as) == l.rule && !(<f64>(l.J + steps) > roomFor(as, Math.max(l.t0, tEnd) + as))) {
-      gaussLane(l);
-      l.pending = steps;
-      return true;
-    }
+    if (ruleFor(as, Math.max(Math.abs(l.w0 + <f64>p * s), tEnd) + as) != l.rule) break;
+    if (<f64>(J + steps) > roomFor(as, Math.max(l.t0, tEnd) + as)) break;
+    const Jf = <f64>J;
+    const g = expPair(f64x2(-gS2 * Jf * Jf, -gS2 * (2 * Jf + 1)));
+    store<f64>(chunkQ(l, n), l.scale * f64x2.extract_lane(g, 0));
+    store<f64>(chunkQr(l, n), f64x2.extract_lane(g, 1));
+    store<i32>(chunkSteps(l, n), steps);
+    n++;
+    total += steps;
+    p += steps;
+    J += steps;
   }
-  l.rule = -1;
-  return false;
+  l.chunks = n;
+  l.chunk = 0;
+  l.chunkLeft = first;
+  l.pending = total;
+}
+
+/**
+ * At a chunk end in the lane loops (na, nb: the next chunk's steps of the lane whose chunk ended,
+ * else 0): Q (at = 0) or Qr (at = 32) with that lane's fresh value from planSegment.
+ */
+@inline function chunkStart(v: v128, a: Lane, b: Lane, na: i32, nb: i32, at: usize): v128 {
+  if (na > 0 && na < 1 << 30) v = f64x2.replace_lane(v, 0, load<f64>(chunkQ(a, a.chunk) + at));
+  if (nb > 0 && nb < 1 << 30) v = f64x2.replace_lane(v, 1, load<f64>(chunkQ(b, b.chunk) + at));
+  return v;
+}
+
+/** at a lane's chunk end in the lane loops: the next chunk's steps, or 1 << 30 at the segment's end */
+@inline function nextChunk(l: Lane): i32 {
+  const c = l.chunk + 1;
+  if (c >= l.chunks) return 1 << 30;
+  l.chunk = c;
+  return load<i32>(chunkSteps(l, c));
 }
 
 /**
@@ -433,7 +468,6 @@ function advance(l: Lane): void {
     const s = l.s;
     const as = l.as;
     const count = l.count;
-    if (l.rule >= 0 && continueSegment(l)) continue;
     const p = l.p;
     if (p >= count) {
       l.busy = 0;
@@ -464,8 +498,9 @@ function advance(l: Lane): void {
     l.val = val;
     l.ptr = outAt(l.base, o);
     l.J = 0;
-    gaussLane(l);
-    l.pending = len;
+    l.Q = l.scale;
+    l.Qr = gQr0;
+    planSegment(l, len);
   }
 }
 
@@ -497,6 +532,8 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
   const db = b.dp;
   let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
+  let ca = a.chunkLeft;
+  let cb = b.chunkLeft;
   for (let r = 0; r < n; r++) {
     val = f64x2.add(val, f64x2.mul(Q, f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3))));
     pa += da;
@@ -506,7 +543,19 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
     v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
+    ca--;
+    cb--;
+    if ((ca == 0) | (cb == 0)) {
+      const na = ca == 0 ? nextChunk(a) : 0;
+      const nb = cb == 0 ? nextChunk(b) : 0;
+      Q = chunkStart(Q, a, b, na, nb, 0);
+      Qr = chunkStart(Qr, a, b, na, nb, 32);
+      ca = max(ca, na);
+      cb = max(cb, nb);
+    }
   }
+  a.chunkLeft = ca;
+  b.chunkLeft = cb;
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
@@ -522,6 +571,8 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
   const db = b.dp;
   let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3), v4 = pair(a, b, 4), v5 = pair(a, b, 5);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3), c4 = pairB(a, b, 4), c5 = pairB(a, b, 5);
+  let ca = a.chunkLeft;
+  let cb = b.chunkLeft;
   for (let r = 0; r < n; r++) {
     const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(v4, v5));
     val = f64x2.add(val, f64x2.mul(Q, h));
@@ -533,7 +584,19 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
     v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
+    ca--;
+    cb--;
+    if ((ca == 0) | (cb == 0)) {
+      const na = ca == 0 ? nextChunk(a) : 0;
+      const nb = cb == 0 ? nextChunk(b) : 0;
+      Q = chunkStart(Q, a, b, na, nb, 0);
+      Qr = chunkStart(Qr, a, b, na, nb, 32);
+      ca = max(ca, na);
+      cb = max(cb, nb);
+    }
   }
+  a.chunkLeft = ca;
+  b.chunkLeft = cb;
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3); unpair(a, b, 4, v4); unpair(a, b, 5, v5);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
@@ -551,6 +614,8 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
   let v4 = pair(a, b, 4), v5 = pair(a, b, 5), v6 = pair(a, b, 6), v7 = pair(a, b, 7);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
   const c4 = pairB(a, b, 4), c5 = pairB(a, b, 5), c6 = pairB(a, b, 6), c7 = pairB(a, b, 7);
+  let ca = a.chunkLeft;
+  let cb = b.chunkLeft;
   for (let r = 0; r < n; r++) {
     const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(f64x2.add(v4, v5), f64x2.add(v6, v7)));
     val = f64x2.add(val, f64x2.mul(Q, h));
@@ -562,7 +627,19 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
     v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5); v6 = f64x2.mul(v6, c6); v7 = f64x2.mul(v7, c7);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
+    ca--;
+    cb--;
+    if ((ca == 0) | (cb == 0)) {
+      const na = ca == 0 ? nextChunk(a) : 0;
+      const nb = cb == 0 ? nextChunk(b) : 0;
+      Q = chunkStart(Q, a, b, na, nb, 0);
+      Qr = chunkStart(Qr, a, b, na, nb, 32);
+      ca = max(ca, na);
+      cb = max(cb, nb);
+    }
   }
+  a.chunkLeft = ca;
+  b.chunkLeft = cb;
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
   unpair(a, b, 4, v4); unpair(a, b, 5, v5); unpair(a, b, 6, v6); unpair(a, b, 7, v7);
   storeTwo(a, b, val, Q, Qr, pa, pb);
@@ -579,28 +656,19 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
   b.ptr = pb;
 }
 
-/**
- * Both lanes until one of them reaches the end of its segment; a lane whose chunk ends on the way
- * goes on with the next chunk of its segment (a fresh Q, as erfLattice.ts's chunks).
- */
+/** n steps of both lanes with the loop of m nodes (the larger rule of the two). */
 function loopTwo(a: Lane, b: Lane, m: i32, n: i32): void {
   if (m == 4) loopTwo4(a, b, n);
   else if (m == 6) loopTwo6(a, b, n);
   else loopTwo8(a, b, n);
 }
 
+/** Both lanes until one of them reaches the end of its segment. */
 function stepTwo(a: Lane, b: Lane): void {
-  const m = max(ruleM(a.rule), ruleM(b.rule));
-  for (;;) {
-    const n = min(a.pending, b.pending);
-    loopTwo(a, b, m, n);
-    took(a, n);
-    took(b, n);
-    let go = true;
-    if (a.pending == 0 && !continueSegment(a)) go = false;
-    if (b.pending == 0 && !continueSegment(b)) go = false;
-    if (!go) break;
-  }
+  const n = min(a.pending, b.pending);
+  loopTwo(a, b, max(ruleM(a.rule), ruleM(b.rule)), n);
+  took(a, n);
+  took(b, n);
 }
 
 function idleLane(l: Lane): void {
@@ -609,6 +677,7 @@ function idleLane(l: Lane): void {
   l.Qr = 0;
   l.ptr = IDLE_SLOT;
   l.dp = 0;
+  l.chunkLeft = 1 << 30;
   for (let k = 0; k < 8; k++) {
     store<f64>(laneP(l, k), 0);
     store<f64>(laneB_(l, k), 1);
@@ -620,6 +689,7 @@ function idleLane(l: Lane): void {
   l.pending -= n;
   l.p += n;
   l.J += n;
+  if (l.pending == 0) l.rule = -1;
 }
 
 // the queue of runs for the two lanes: (w0, s, sign) as f64 and (count, base, i0, di) as i32/usize
