@@ -87,7 +87,7 @@ export function fdlibmExp(x: f64): f64 {
  * hi = x, lo = 0 exactly (division is symmetric in sign), and its |x| < 1.5·ln2 branch sets the k,
  * hi and lo the main branch's truncation gives there. Otherwise each lane goes to fdlibmExp.
  */
-function expPair(x: v128): v128 {
+@inline function expPair(x: v128): v128 {
   const ax = f64x2.abs(x);
   const ordinary = v128.and(v128.and(f64x2.ge(ax, f64x2.splat(EXP_TINY)), f64x2.le(ax, f64x2.splat(EXP_ORDINARY))), f64x2.ne(x, f64x2.splat(1.0)));
   if (!i64x2.all_true(ordinary)) return f64x2(fdlibmExp(f64x2.extract_lane(x, 0)), fdlibmExp(f64x2.extract_lane(x, 1)));
