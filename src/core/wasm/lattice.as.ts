@@ -532,9 +532,11 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
   const db = b.dp;
   let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
-  let ca = a.chunkLeft;
-  let cb = b.chunkLeft;
-  for (let r = 0; r < n; r++) {
+  // the steps (from this call's start) at which lane A's and lane B's chunks end, and the nearer
+  let ea = a.chunkLeft;
+  let eb = b.chunkLeft;
+  let ev = min(ea, eb);
+  for (let r = 1; r <= n; r++) {
     val = f64x2.add(val, f64x2.mul(Q, f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3))));
     pa += da;
     pb += db;
@@ -543,19 +545,18 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
     v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
-    ca--;
-    cb--;
-    if ((ca == 0) | (cb == 0)) {
-      const na = ca == 0 ? nextChunk(a) : 0;
-      const nb = cb == 0 ? nextChunk(b) : 0;
+    if (r == ev) {
+      const na = r == ea ? nextChunk(a) : 0;
+      const nb = r == eb ? nextChunk(b) : 0;
       Q = chunkStart(Q, a, b, na, nb, 0);
       Qr = chunkStart(Qr, a, b, na, nb, 32);
-      ca = max(ca, na);
-      cb = max(cb, nb);
+      ea += na;
+      eb += nb;
+      ev = min(ea, eb);
     }
   }
-  a.chunkLeft = ca;
-  b.chunkLeft = cb;
+  a.chunkLeft = ea - n;
+  b.chunkLeft = eb - n;
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
@@ -571,9 +572,11 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
   const db = b.dp;
   let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3), v4 = pair(a, b, 4), v5 = pair(a, b, 5);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3), c4 = pairB(a, b, 4), c5 = pairB(a, b, 5);
-  let ca = a.chunkLeft;
-  let cb = b.chunkLeft;
-  for (let r = 0; r < n; r++) {
+  // the steps (from this call's start) at which lane A's and lane B's chunks end, and the nearer
+  let ea = a.chunkLeft;
+  let eb = b.chunkLeft;
+  let ev = min(ea, eb);
+  for (let r = 1; r <= n; r++) {
     const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(v4, v5));
     val = f64x2.add(val, f64x2.mul(Q, h));
     pa += da;
@@ -584,19 +587,18 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
     v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
-    ca--;
-    cb--;
-    if ((ca == 0) | (cb == 0)) {
-      const na = ca == 0 ? nextChunk(a) : 0;
-      const nb = cb == 0 ? nextChunk(b) : 0;
+    if (r == ev) {
+      const na = r == ea ? nextChunk(a) : 0;
+      const nb = r == eb ? nextChunk(b) : 0;
       Q = chunkStart(Q, a, b, na, nb, 0);
       Qr = chunkStart(Qr, a, b, na, nb, 32);
-      ca = max(ca, na);
-      cb = max(cb, nb);
+      ea += na;
+      eb += nb;
+      ev = min(ea, eb);
     }
   }
-  a.chunkLeft = ca;
-  b.chunkLeft = cb;
+  a.chunkLeft = ea - n;
+  b.chunkLeft = eb - n;
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3); unpair(a, b, 4, v4); unpair(a, b, 5, v5);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
@@ -614,9 +616,11 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
   let v4 = pair(a, b, 4), v5 = pair(a, b, 5), v6 = pair(a, b, 6), v7 = pair(a, b, 7);
   const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
   const c4 = pairB(a, b, 4), c5 = pairB(a, b, 5), c6 = pairB(a, b, 6), c7 = pairB(a, b, 7);
-  let ca = a.chunkLeft;
-  let cb = b.chunkLeft;
-  for (let r = 0; r < n; r++) {
+  // the steps (from this call's start) at which lane A's and lane B's chunks end, and the nearer
+  let ea = a.chunkLeft;
+  let eb = b.chunkLeft;
+  let ev = min(ea, eb);
+  for (let r = 1; r <= n; r++) {
     const h = f64x2.add(f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3)), f64x2.add(f64x2.add(v4, v5), f64x2.add(v6, v7)));
     val = f64x2.add(val, f64x2.mul(Q, h));
     pa += da;
@@ -627,19 +631,18 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
     v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5); v6 = f64x2.mul(v6, c6); v7 = f64x2.mul(v7, c7);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
-    ca--;
-    cb--;
-    if ((ca == 0) | (cb == 0)) {
-      const na = ca == 0 ? nextChunk(a) : 0;
-      const nb = cb == 0 ? nextChunk(b) : 0;
+    if (r == ev) {
+      const na = r == ea ? nextChunk(a) : 0;
+      const nb = r == eb ? nextChunk(b) : 0;
       Q = chunkStart(Q, a, b, na, nb, 0);
       Qr = chunkStart(Qr, a, b, na, nb, 32);
-      ca = max(ca, na);
-      cb = max(cb, nb);
+      ea += na;
+      eb += nb;
+      ev = min(ea, eb);
     }
   }
-  a.chunkLeft = ca;
-  b.chunkLeft = cb;
+  a.chunkLeft = ea - n;
+  b.chunkLeft = eb - n;
   unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
   unpair(a, b, 4, v4); unpair(a, b, 5, v5); unpair(a, b, 6, v6); unpair(a, b, 7, v7);
   storeTwo(a, b, val, Q, Qr, pa, pb);
