@@ -23,9 +23,11 @@
  *
  * Error (stated; test/core/erf-lattice.test.ts measures it against 40-digit decimal.js values):
  *  - quadrature: Gauss–Legendre's remainder δ^{2m+1}(m!)⁴/((2m+1)((2m)!)³)·f^{(2m)}(ξ), with
- *    f^{(2m)} = H_{2m}(t)e^{−t²} and |H_{2m}(t)| ≤ (2|t| + 2√(2m))^{2m}; relative to the step's
- *    integral (whose integrand differs from e^{−ξ²} by at most e^{δ(2|t| + δ)}) the rule is used
- *    only where that bound is ≤ 1e-15;
+ *    f^{(2m)} = H_{2m}(t)e^{−t²} and |H_{2m}(t)| ≤ Σ_k |h_k|·|t|^k (H_{2m}'s coefficients taken
+ *    positive: a bound that increases with |t|); relative to the step's integral (whose integrand
+ *    differs from e^{−ξ²} by at most e^{δ(2|t| + δ)}) the rule is used only where that bound is
+ *    ≤ 1e-15, checked against a table of the largest step per rule at |t| = 0, 1/16, 2/16, … 14
+ *    (a step's |t| rounded up to the table, so the check errs on the safe side);
  *  - carried products: the node values P_k are multiplied by the same rounded B_k at every step
  *    (≤ 2.5 ε each, plus ε/2 per product), so after J ≤ 192 steps they carry ≤ 3Jε ≈ 1.3e-13; the
  *    rounding of Qr repeats within a chunk, so Q carries about j²ε/2 ≤ 2.3e-13 after j < 64 steps;
@@ -107,30 +109,59 @@ const P_Q2 = 20;
 const D = RULES.map((r) => new Float64Array(r.m));
 const dStep = [NaN, NaN, NaN];
 
-/**
- * Per rule, the largest X = δ·(2|t| + 2√(2m)) with C_m·X^{2m}·e^{X} ≤ 1e-15 (e^{X} ≥ e^{δ(2|t| + δ)}
- * covers the integrand's variation over a step, as δ ≤ 2√(2m)); by bisection, once.
- */
-const REACH = RULES.map((r) => {
-  const f = (X: number) => Math.log(r.Cm) + 2 * r.m * Math.log(X) + X - Math.log(1e-15);
-  let lo = 1e-6;
-  let hi = 50;
-  for (let k = 0; k < 200; k++) {
-    const mid = 0.5 * (lo + hi);
-    if (f(mid) <= 0) lo = mid;
-    else hi = mid;
+/** coefficients h_0 … h_n of the Hermite polynomial H_n (H_{k+1} = 2t·H_k − 2k·H_{k−1}) */
+function hermiteCoefficients(n: number): number[] {
+  let prev = [1];
+  let cur = [0, 2];
+  if (n === 0) return prev;
+  for (let k = 1; k < n; k++) {
+    const next = new Array<number>(k + 2).fill(0);
+    for (let i = 0; i < cur.length; i++) next[i + 1] += 2 * cur[i];
+    for (let i = 0; i < prev.length; i++) next[i] -= 2 * k * prev[i];
+    prev = cur;
+    cur = next;
   }
-  return lo;
-});
-const NODE_PAD = RULES.map((r) => 2 * Math.sqrt(2 * r.m));
+  return cur;
+}
 
-/** The rules' nodes, weights, reach and padding, for the WebAssembly port (latticeKernel.ts); read only. */
-export const LATTICE_RULES: readonly { readonly m: number; readonly c: Float64Array; readonly w: Float64Array; readonly reach: number; readonly pad: number }[] =
-  RULES.map((r, k) => ({ m: r.m, c: r.c, w: r.w, reach: REACH[k], pad: NODE_PAD[k] }));
+/** the step table's |t| grid: STEP_CELLS points per unit, up to STEP_TOP */
+const STEP_CELLS = 16;
+const STEP_TOP = 14;
+const STEP_POINTS = STEP_TOP * STEP_CELLS + 1;
+/**
+ * STEP_MAX[r·STEP_POINTS + g]: the largest step δ for which rule r's bound above,
+ * C_m·δ^{2m}·Σ|h_k|t^k·e^{δ(2t + δ)} ≤ 1e-15, holds at t = g/STEP_CELLS (by bisection, once).
+ */
+const STEP_MAX = new Float64Array(RULES.length * STEP_POINTS);
+RULES.forEach((r, k) => {
+  const h = hermiteCoefficients(2 * r.m).map(Math.abs);
+  for (let g = 0; g < STEP_POINTS; g++) {
+    const t = g / STEP_CELLS;
+    let major = 0;
+    for (let i = h.length - 1; i >= 0; i--) major = major * t + h[i];
+    const base = Math.log(r.Cm) + Math.log(major) - Math.log(1e-15);
+    const f = (d: number) => base + 2 * r.m * Math.log(d) + d * (2 * t + d);
+    let lo = 1e-9;
+    let hi = 50;
+    for (let it = 0; it < 60; it++) {
+      const mid = 0.5 * (lo + hi);
+      if (f(mid) <= 0) lo = mid;
+      else hi = mid;
+    }
+    STEP_MAX[k * STEP_POINTS + g] = lo;
+  }
+});
+
+/** The rules' nodes and weights, for the WebAssembly port (latticeKernel.ts); read only. */
+export const LATTICE_RULES: readonly { readonly m: number; readonly c: Float64Array; readonly w: Float64Array }[] = RULES.map((r) => ({ m: r.m, c: r.c, w: r.w }));
+/** The step table (STEP_MAX, rule-major, STEP_POINTS per rule), for the WebAssembly port; read only. */
+export const LATTICE_STEP_MAX: Float64Array = STEP_MAX;
 
 /** The smallest rule whose remainder bound is ≤ 1e-15 for steps δ at |t| ≤ tmax, or −1. */
 function ruleFor(delta: number, tmax: number): number {
-  for (let r = 0; r < RULES.length; r++) if (delta * (2 * tmax + NODE_PAD[r]) <= REACH[r] && delta <= NODE_PAD[r]) return r;
+  if (!(tmax <= STEP_TOP)) return -1;
+  const g = Math.ceil(tmax * STEP_CELLS);
+  for (let r = 0; r < RULES.length; r++) if (delta <= STEP_MAX[r * STEP_POINTS + g]) return r;
   return -1;
 }
 

@@ -14,7 +14,7 @@
  */
 import { LATTICE_WASM } from './latticeWasm';
 import { ERF_TABLE } from './erfTable';
-import { LATTICE_RULES } from './erfLattice';
+import { LATTICE_RULES, LATTICE_STEP_MAX } from './erfLattice';
 
 // The pure core compiles without DOM or Node typings, so the few WebAssembly names it uses are
 // declared here (ECMAScript hosts provide them: browsers, workers and Node alike).
@@ -29,6 +29,7 @@ interface LatticeExports {
   workOffset(): number;
   tableOffset(): number;
   rulesOffset(): number;
+  stepTableOffset(): number;
   lattice(u0: number, du: number, n: number): void;
   lateralRow(y0: number, dy: number, ny: number, h: number, s: number, mirrored: number, jStart: number, factor: number): void;
   fdlibmExp(x: number): number;
@@ -64,9 +65,8 @@ class Kernel implements LatticeKernel {
     LATTICE_RULES.forEach((r, k) => {
       mem.set(r.c, at + 16 * k);
       mem.set(r.w, at + 16 * k + 8);
-      mem[at + 48 + k] = r.reach;
-      mem[at + 51 + k] = r.pad;
     });
+    mem.set(LATTICE_STEP_MAX, x.stepTableOffset() / 8);
     x.reset();
   }
 

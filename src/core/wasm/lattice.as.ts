@@ -10,7 +10,8 @@
  *
  * Memory (byte offsets, fixed; written by the host at start-up, see special/latticeKernel.ts):
  *   TABLE_AT   the erf/erfc Taylor table of erfTable.ts (NODES·STRIDE doubles)
- *   RULES_AT   per rule r (4, 6, 8 points): nodes c[8], weights w[8], then REACH[3], NODE_PAD[3]
+ *   RULES_AT   per rule r (4, 6, 8 points): nodes c[8], weights w[8]
+ *   STEP_AT    the largest step per rule on a grid of |t| (erfLattice.ts's STEP_MAX)
  *   DVAL_AT …  the D_k caches, the row's cut points, the lanes (LANES_AT), the paired run queue
  *              (QUEUE_AT): state of this module, not read by the host
  *   WORK_AT    three work arrays of `cap` doubles each: A, B (lattice values), ROW (the output row)
@@ -124,10 +125,14 @@ const SPLIT_NODE: i32 = 64;
 const ERF_TABLE_SPLIT: f64 = (<f64>SPLIT_NODE - 0.5) / INV_H;
 const TABLE_TOP: f64 = (<f64>NODES - 0.5) / INV_H;
 const RULES_AT: usize = TABLE_AT + <usize>(NODES * STRIDE) * 8;
-const REACH_AT: usize = RULES_AT + 3 * 16 * 8;
-const PAD_AT: usize = REACH_AT + 3 * 8;
+/** the largest step per rule on the |t| grid (erfLattice.ts's STEP_MAX): 3 rules × STEP_POINTS */
+const STEP_AT: usize = RULES_AT + 3 * 16 * 8;
+const STEP_CELLS: f64 = 16;
+const STEP_TOP: f64 = 14;
+const STEP_POINTS: i32 = 14 * 16 + 1;
+const STEP_END: usize = STEP_AT + <usize>(3 * STEP_POINTS) * 8;
 /** D_k per rule (8 slots each), the s² each was formed for (3), the row's cut points (6 × i32) */
-const DVAL_AT: usize = PAD_AT + 3 * 8;
+const DVAL_AT: usize = (STEP_END + 15) & ~15;
 const DSTEP_AT: usize = DVAL_AT + 24 * 8;
 const CUTS_AT: usize = DSTEP_AT + 3 * 8;
 const WORK_AT: usize = 196608;
@@ -169,6 +174,9 @@ export function tableOffset(): usize {
 }
 export function rulesOffset(): usize {
   return RULES_AT;
+}
+export function stepTableOffset(): usize {
+  return STEP_AT;
 }
 
 @inline function tab(k: i32): f64 {
@@ -269,10 +277,9 @@ let gQ2: f64 = 0;
 }
 
 function ruleFor(delta: f64, tmax: f64): i32 {
-  for (let r = 0; r < 3; r++) {
-    const pad = load<f64>(PAD_AT + (<usize>r << 3));
-    if (delta * (2 * tmax + pad) <= load<f64>(REACH_AT + (<usize>r << 3)) && delta <= pad) return r;
-  }
+  if (!(tmax <= STEP_TOP)) return -1;
+  const g = <i32>Math.ceil(tmax * STEP_CELLS);
+  for (let r = 0; r < 3; r++) if (delta <= load<f64>(STEP_AT + (<usize>(r * STEP_POINTS + g) << 3))) return r;
   return -1;
 }
 
@@ -519,7 +526,11 @@ function advance(l: Lane): void {
  * (the larger of their rules): the nodes a smaller rule lacks are 0 (and stay 0), and adding 0
  * changes no sum, so each lane's values are those of its own rule exactly. One function per rule,
  * so a 4-point pair does not pay for eight nodes; the state is loaded from the lanes and stored
- * back. (V8 11, Node 20's, still keeps the carried vectors of these loops in stack slots.)
+ * back. A lane whose chunk ends on the way gets its next chunk's Q and Qr (planSegment) in its
+ * half of the vectors, inside the loop. With V8 11 (Node 20) the 4-point loop keeps its state in
+ * registers; the 6- and 8-point loops have more live vectors than x64's sixteen registers and
+ * spill some. (Tried and measured slower there: a nested loop per chunk, and a loop unrolled by
+ * two, whose extra live values made V8 spill in the 4-point loop too.)
  */
 function loopTwo4(a: Lane, b: Lane, n: i32): void {
   let val = f64x2(a.val, b.val);
