@@ -26,14 +26,15 @@
  *    f^{(2m)} = H_{2m}(t)e^{−t²} and |H_{2m}(t)| ≤ Σ_k |h_k|·|t|^k (H_{2m}'s coefficients taken
  *    positive: a bound that increases with |t|); relative to the step's integral (whose integrand
  *    differs from e^{−ξ²} by at most e^{δ(2|t| + δ)}) the rule is used only where that bound is
- *    ≤ 1e-15, checked against a table of the largest step per rule at |t| = 0, 1/16, 2/16, … 14
- *    (a step's |t| rounded up to the table, so the check errs on the safe side);
+ *    ≤ 1e-14 (a value, a sum of positive step integrals, then carries at most that), checked
+ *    against a table of the largest step per rule at |t| = 0, 1/16, 2/16, … 14 (a step's |t|
+ *    rounded up to the table, so the check errs on the safe side);
  *  - carried products: the node values P_k are multiplied by the same rounded B_k at every step
  *    (≤ 2.5 ε each, plus ε/2 per product), so after J ≤ 192 steps they carry ≤ 3Jε ≈ 1.3e-13; the
  *    rounding of Qr repeats within a chunk, so Q carries about j²ε/2 ≤ 2.3e-13 after j < 64 steps;
  *    the exponents of the fresh factors are rounded to ε·600 ≈ 7e-14 at most (the room above);
- *  - the seed: a few ulp; the running sum adds positive terms (≤ Jε).
- *  So each value is within 5e-13 of its own magnitude. Chunks for which no rule meets the bound
+ *  - the seed: a few ulp; the running sum adds positive terms (≤ Jε ≈ 2e-14).
+ *  So each value is within 0.1 + 1.3 + 2.3 + 0.7 + 0.2 ≈ 4.6e-13 < 5e-13 of its own magnitude. Chunks for which no rule meets the bound
  *  (coarse lattices) are evaluated point by point from the table (a few ulp); |u| > LATTICE_CUT = 10
  *  by Cody's single-exponential erfcTail (erf.ts), within 2u²ε ≤ 1.6e-13 relative (u < 27).
  *
@@ -130,7 +131,7 @@ const STEP_TOP = 14;
 const STEP_POINTS = STEP_TOP * STEP_CELLS + 1;
 /**
  * STEP_MAX[r·STEP_POINTS + g]: the largest step δ for which rule r's bound above,
- * C_m·δ^{2m}·Σ|h_k|t^k·e^{δ(2t + δ)} ≤ 1e-15, holds at t = g/STEP_CELLS (by bisection, once).
+ * C_m·δ^{2m}·Σ|h_k|t^k·e^{δ(2t + δ)} ≤ 1e-14, holds at t = g/STEP_CELLS (by bisection, once).
  */
 const STEP_MAX = new Float64Array(RULES.length * STEP_POINTS);
 RULES.forEach((r, k) => {
@@ -139,7 +140,7 @@ RULES.forEach((r, k) => {
     const t = g / STEP_CELLS;
     let major = 0;
     for (let i = h.length - 1; i >= 0; i--) major = major * t + h[i];
-    const base = Math.log(r.Cm) + Math.log(major) - Math.log(1e-15);
+    const base = Math.log(r.Cm) + Math.log(major) - Math.log(1e-14);
     const f = (d: number) => base + 2 * r.m * Math.log(d) + d * (2 * t + d);
     let lo = 1e-9;
     let hi = 50;
@@ -157,7 +158,7 @@ export const LATTICE_RULES: readonly { readonly m: number; readonly c: Float64Ar
 /** The step table (STEP_MAX, rule-major, STEP_POINTS per rule), for the WebAssembly port; read only. */
 export const LATTICE_STEP_MAX: Float64Array = STEP_MAX;
 
-/** The smallest rule whose remainder bound is ≤ 1e-15 for steps δ at |t| ≤ tmax, or −1. */
+/** The smallest rule whose remainder bound is ≤ 1e-14 for steps δ at |t| ≤ tmax, or −1. */
 function ruleFor(delta: number, tmax: number): number {
   if (!(tmax <= STEP_TOP)) return -1;
   const g = Math.ceil(tmax * STEP_CELLS);
