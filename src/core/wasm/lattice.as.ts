@@ -231,6 +231,23 @@ function erfcxLarge(y: f64): f64 {
   return (INV_SQRT_PI - r) / y;
 }
 
+/** erfcxLarge on both lanes (4 < y < XHUGE in each), the same operations lane by lane */
+@inline function erfcxLargePair(y: v128): v128 {
+  const z = f64x2.div(f64x2.splat(1), f64x2.mul(y, y));
+  let num = f64x2.mul(f64x2.splat(0.0163153871373020978), z);
+  let den = z;
+  num = f64x2.mul(f64x2.add(num, f64x2.splat(0.305326634961232344)), z);
+  den = f64x2.mul(f64x2.add(den, f64x2.splat(2.56852019228982242)), z);
+  num = f64x2.mul(f64x2.add(num, f64x2.splat(0.360344899949804439)), z);
+  den = f64x2.mul(f64x2.add(den, f64x2.splat(1.87295284992346047)), z);
+  num = f64x2.mul(f64x2.add(num, f64x2.splat(0.125781726111229246)), z);
+  den = f64x2.mul(f64x2.add(den, f64x2.splat(0.527905102951428412)), z);
+  num = f64x2.mul(f64x2.add(num, f64x2.splat(0.0160837851487422766)), z);
+  den = f64x2.mul(f64x2.add(den, f64x2.splat(0.0605183413124413191)), z);
+  const r = f64x2.div(f64x2.mul(z, f64x2.add(num, f64x2.splat(6.58749161529837803e-4))), f64x2.add(den, f64x2.splat(0.00233520497626869185)));
+  return f64x2.div(f64x2.sub(f64x2.splat(INV_SQRT_PI), r), y);
+}
+
 /** erfc(y), y above the table's top (> 4): Cody's split exponential, as erf.ts's erfc. */
 function erfcAboveTable(y: f64): f64 {
   if (y >= XBIG) return 0;
@@ -251,15 +268,15 @@ function tablePoly(x: f64): f64 {
   const k = <i32>(x * INV_H + 0.5);
   const d = x - <f64>k * H;
   const b = k * STRIDE;
-  let p = tab(b + 8);
-  p = p * d + tab(b + 7);
-  p = p * d + tab(b + 6);
-  p = p * d + tab(b + 5);
-  p = p * d + tab(b + 4);
-  p = p * d + tab(b + 3);
-  p = p * d + tab(b + 2);
-  p = p * d + tab(b + 1);
-  return p * d + tab(b);
+  const d2 = d * d;
+  const d4 = d2 * d2;
+  const p01 = tab(b) + tab(b + 1) * d;
+  const p23 = tab(b + 2) + tab(b + 3) * d;
+  const p45 = tab(b + 4) + tab(b + 5) * d;
+  const p67 = tab(b + 6) + tab(b + 7) * d;
+  const p03 = p01 + p23 * d2;
+  const p47 = p45 + p67 * d2;
+  return p03 + (p47 + tab(b + 8) * d4) * d4;
 }
 
 function splitValue(y: f64): f64 {
@@ -783,15 +800,14 @@ function beyondCut(u0: f64, du: f64, from: i32, to: i32, base: usize): void {
   for (; j + 1 < to; j += 2) {
     const y0 = Math.abs(u0 + <f64>j * du);
     const y1 = Math.abs(u0 + <f64>(j + 1) * du);
-    let v0: f64 = 0;
-    let v1: f64 = 0;
+    let v: v128 = f64x2.splat(0);
     if (y0 < XBIG || y1 < XBIG) {
-      const g = expPair(f64x2(-y0 * y0, -y1 * y1));
-      if (y0 < XBIG) v0 = f64x2.extract_lane(g, 0) * erfcxLarge(y0);
-      if (y1 < XBIG) v1 = f64x2.extract_lane(g, 1) * erfcxLarge(y1);
+      // a lane at or past XBIG is 0 (erfcTail's); its lane of the product is not used
+      const y = f64x2(y0, y1);
+      v = v128.and(f64x2.mul(expPair(f64x2(-y0 * y0, -y1 * y1)), erfcxLargePair(y)), f64x2.lt(y, f64x2.splat(XBIG)));
     }
-    store<f64>(outAt(base, j), v0);
-    store<f64>(outAt(base, j + 1), v1);
+    store<f64>(outAt(base, j), f64x2.extract_lane(v, 0));
+    store<f64>(outAt(base, j + 1), f64x2.extract_lane(v, 1));
   }
   if (j < to) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
 }
