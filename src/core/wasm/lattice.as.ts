@@ -568,8 +568,8 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
     val = f64x2.add(val, f64x2.mul(Q, f64x2.add(f64x2.add(v0, v1), f64x2.add(v2, v3))));
     pa += da;
     pb += db;
-    store<f64>(pa, f64x2.extract_lane(val, 0));
-    store<f64>(pb, f64x2.extract_lane(val, 1));
+    v128.store64_lane(pa, val, 0);
+    v128.store64_lane(pb, val, 1);
     v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
     Q = f64x2.mul(Q, Qr);
     Qr = f64x2.mul(Qr, q2);
@@ -609,8 +609,8 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
     val = f64x2.add(val, f64x2.mul(Q, h));
     pa += da;
     pb += db;
-    store<f64>(pa, f64x2.extract_lane(val, 0));
-    store<f64>(pb, f64x2.extract_lane(val, 1));
+    v128.store64_lane(pa, val, 0);
+    v128.store64_lane(pb, val, 1);
     v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
     v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5);
     Q = f64x2.mul(Q, Qr);
@@ -653,8 +653,8 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
     val = f64x2.add(val, f64x2.mul(Q, h));
     pa += da;
     pb += db;
-    store<f64>(pa, f64x2.extract_lane(val, 0));
-    store<f64>(pb, f64x2.extract_lane(val, 1));
+    v128.store64_lane(pa, val, 0);
+    v128.store64_lane(pb, val, 1);
     v0 = f64x2.mul(v0, c0); v1 = f64x2.mul(v1, c1); v2 = f64x2.mul(v2, c2); v3 = f64x2.mul(v3, c3);
     v4 = f64x2.mul(v4, c4); v5 = f64x2.mul(v5, c5); v6 = f64x2.mul(v6, c6); v7 = f64x2.mul(v7, c7);
     Q = f64x2.mul(Q, Qr);
