@@ -14,6 +14,8 @@
  *   STEP_AT    the largest step per rule on a grid of |t| (erfLattice.ts's STEP_MAX)
  *   DVAL_AT …  the D_k caches, the row's cut points, the lanes (LANES_AT), the paired run queue
  *              (QUEUE_AT): state of this module, not read by the host
+ *   EXPC_AT    expPair's vector constants (stored by reset())
+ *   PAIRS_AT   the two lanes' vector state, interleaved (P_k, B_k, e^{−2s²})
  *   WORK_AT    three work arrays of `cap` doubles each: A, B (lattice values), ROW (the output row)
  * Not part of the TypeScript build (tsconfig excludes src/core/wasm).
  */
@@ -90,24 +92,24 @@ export function fdlibmExp(x: f64): f64 {
  */
 @inline function expPair(x: v128): v128 {
   const ax = f64x2.abs(x);
-  const ordinary = v128.and(v128.and(f64x2.ge(ax, f64x2.splat(EXP_TINY)), f64x2.le(ax, f64x2.splat(EXP_ORDINARY))), f64x2.ne(x, f64x2.splat(1.0)));
+  const ordinary = v128.and(v128.and(f64x2.ge(ax, v128.load(X_TINY)), f64x2.le(ax, v128.load(X_ORDINARY))), f64x2.ne(x, v128.load(X_ONE)));
   if (!i64x2.all_true(ordinary)) return f64x2(fdlibmExp(f64x2.extract_lane(x, 0)), fdlibmExp(f64x2.extract_lane(x, 1)));
   // |x| > ½ln2 in fdlibm's test of the high word: hx > 0x3fd62e42
-  const reduce = f64x2.ge(ax, f64x2.splat(reinterpret<f64>(<u64>0x3fd62e4300000000)));
-  const half = v128.or(f64x2.splat(0.5), v128.and(x, i64x2.splat(0x8000000000000000)));
-  const t = v128.and(f64x2.trunc(f64x2.add(f64x2.mul(f64x2.splat(INV_LN2), x), half)), reduce);
-  const hi = f64x2.sub(x, f64x2.mul(t, f64x2.splat(LN2_HI)));
-  const lo = f64x2.mul(t, f64x2.splat(LN2_LO));
+  const reduce = f64x2.ge(ax, v128.load(X_HALF_LN2));
+  const half = v128.or(v128.load(X_HALF), v128.and(x, v128.load(X_SIGN)));
+  const t = v128.and(f64x2.trunc(f64x2.add(f64x2.mul(v128.load(X_INV_LN2), x), half)), reduce);
+  const hi = f64x2.sub(x, f64x2.mul(t, v128.load(X_LN2_HI)));
+  const lo = f64x2.mul(t, v128.load(X_LN2_LO));
   const r = f64x2.sub(hi, lo);
   const tt = f64x2.mul(r, r);
-  let q = f64x2.add(f64x2.splat(EXP_P4), f64x2.mul(tt, f64x2.splat(EXP_P5)));
-  q = f64x2.add(f64x2.splat(EXP_P3), f64x2.mul(tt, q));
-  q = f64x2.add(f64x2.splat(EXP_P2), f64x2.mul(tt, q));
-  q = f64x2.add(f64x2.splat(EXP_P1), f64x2.mul(tt, q));
+  let q = f64x2.add(v128.load(X_P4), f64x2.mul(tt, v128.load(X_P5)));
+  q = f64x2.add(v128.load(X_P3), f64x2.mul(tt, q));
+  q = f64x2.add(v128.load(X_P2), f64x2.mul(tt, q));
+  q = f64x2.add(v128.load(X_P1), f64x2.mul(tt, q));
   const c = f64x2.sub(r, f64x2.mul(tt, q));
-  const y = f64x2.sub(f64x2.splat(1.0), f64x2.sub(f64x2.sub(lo, f64x2.div(f64x2.mul(r, c), f64x2.sub(f64x2.splat(2.0), c))), hi));
+  const y = f64x2.sub(v128.load(X_ONE), f64x2.sub(f64x2.sub(lo, f64x2.div(f64x2.mul(r, c), f64x2.sub(v128.load(X_TWO), c))), hi));
   const k = i64x2.extend_low_i32x4_s(i32x4.trunc_sat_f64x2_s_zero(t));
-  return f64x2.mul(y, i64x2.shl(i64x2.add(k, i64x2.splat(0x3ff)), 52));
+  return f64x2.mul(y, i64x2.shl(i64x2.add(k, v128.load(X_BIAS)), 52));
 }
 
 /** expPair for the host's test: e^a into WORK_AT, e^b after it. */
@@ -165,7 +167,48 @@ export function workOffset(): usize {
   return WORK_AT;
 }
 /** Marks the D_k caches empty (the host calls it after writing the rules). */
+/**
+ * The vector constants of expPair, stored once by reset(): loaded from memory they cost one load
+ * each where V8 11 would build each splat anew (three instructions) at every use.
+ */
+const EXPC_AT: usize = 180224;
+const X_TINY: usize = EXPC_AT + 0;
+const X_ORDINARY: usize = EXPC_AT + 16;
+const X_ONE: usize = EXPC_AT + 32;
+const X_HALF_LN2: usize = EXPC_AT + 48;
+const X_HALF: usize = EXPC_AT + 64;
+const X_SIGN: usize = EXPC_AT + 80;
+const X_INV_LN2: usize = EXPC_AT + 96;
+const X_LN2_HI: usize = EXPC_AT + 112;
+const X_LN2_LO: usize = EXPC_AT + 128;
+const X_P5: usize = EXPC_AT + 144;
+const X_P4: usize = EXPC_AT + 160;
+const X_P3: usize = EXPC_AT + 176;
+const X_P2: usize = EXPC_AT + 192;
+const X_P1: usize = EXPC_AT + 208;
+const X_TWO: usize = EXPC_AT + 224;
+const X_BIAS: usize = EXPC_AT + 240;
+function storeExpConstants(): void {
+  v128.store(X_TINY, f64x2.splat(EXP_TINY));
+  v128.store(X_ORDINARY, f64x2.splat(EXP_ORDINARY));
+  v128.store(X_ONE, f64x2.splat(1.0));
+  v128.store(X_HALF_LN2, f64x2.splat(reinterpret<f64>(<u64>0x3fd62e4300000000)));
+  v128.store(X_HALF, f64x2.splat(0.5));
+  v128.store(X_SIGN, i64x2.splat(0x8000000000000000));
+  v128.store(X_INV_LN2, f64x2.splat(INV_LN2));
+  v128.store(X_LN2_HI, f64x2.splat(LN2_HI));
+  v128.store(X_LN2_LO, f64x2.splat(LN2_LO));
+  v128.store(X_P5, f64x2.splat(EXP_P5));
+  v128.store(X_P4, f64x2.splat(EXP_P4));
+  v128.store(X_P3, f64x2.splat(EXP_P3));
+  v128.store(X_P2, f64x2.splat(EXP_P2));
+  v128.store(X_P1, f64x2.splat(EXP_P1));
+  v128.store(X_TWO, f64x2.splat(2.0));
+  v128.store(X_BIAS, i64x2.splat(0x3ff));
+}
+
 export function reset(): void {
+  storeExpConstants();
   for (let r = 0; r < 3; r++) store<f64>(DSTEP_AT + (<usize>r << 3), NaN);
   gS2 = NaN;
 }
