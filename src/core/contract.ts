@@ -6,7 +6,7 @@ import { cdf } from './solutions/oneD';
 import { relativeAt, relativeGrid } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
 import type { ScreeningModel, SolutionKind } from './model';
-import { ValidationError, optionalNonNegative, requireFinite, requireNonNegative, requirePositive, requireRetardation, requireTime } from './validation';
+import { ValidationError, optionalNonNegative, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireRetardation, requireTime } from './validation';
 
 export interface OgataBanksInput {
   x: number;
@@ -101,7 +101,7 @@ function gridAxes(p: PatchGridInput): { xs: ArrayLike<number>; ys: ArrayLike<num
   if (!xs || typeof xs.length !== 'number' || xs.length === 0) throw new ValidationError('xs', xs, 'a non-empty array of numbers > 0');
   if (!ys || typeof ys.length !== 'number' || ys.length === 0) throw new ValidationError('ys', ys, 'a non-empty array of finite numbers');
   for (let i = 0; i < xs.length; i++) if (!(xs[i] > 0) || !Number.isFinite(xs[i])) throw new ValidationError(`xs[${i}]`, xs[i], 'a finite number > 0');
-  for (let j = 0; j < ys.length; j++) requireFinite(`ys[${j}]`, ys[j]);
+  requireFiniteEach('ys', ys);
   if (xs.length * ys.length > 16_777_216) throw new ValidationError('xs×ys', xs.length * ys.length, 'at most 16 777 216 cells');
   return { xs, ys };
 }

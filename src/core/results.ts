@@ -15,7 +15,7 @@ import type { ScreeningModel, SolutionKind } from './model';
 import { relativeAt, relativeGrid, relativeSeries, kinetics } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
 import { domenicoAdmits, validateModel } from './validateModel';
-import { ValidationError, requireFinite, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
+import { ValidationError, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
 
 export interface Receptor {
   readonly x: number;
@@ -307,8 +307,8 @@ export function concentrationGrid(
   validateModel(m);
   requireNonNegative('z', z);
   requireTime('t', t);
-  for (let i = 0; i < xs.length; i++) requireFinite(`xs[${i}]`, xs[i]);
-  for (let j = 0; j < ys.length; j++) requireFinite(`ys[${j}]`, ys[j]);
+  requireFiniteEach('xs', xs);
+  requireFiniteEach('ys', ys);
   const n = xs.length * ys.length;
   const into = opts?.into;
   if (into !== undefined && !(into instanceof Float64Array && into.length === n))

@@ -56,6 +56,14 @@ export function requireFinite(field: string, v: unknown): number {
   return v;
 }
 
+/** requireFinite on every element of a list of numbers, the field named `name[j]` (built only for the one that fails). */
+export function requireFiniteEach(name: string, values: ArrayLike<unknown>): void {
+  for (let j = 0; j < values.length; j++) {
+    const v = values[j];
+    if (typeof v !== 'number' || !Number.isFinite(v) || !inWorkingRange(v)) requireFinite(`${name}[${j}]`, v);
+  }
+}
+
 export function requirePositive(field: string, v: unknown): number {
   if (typeof v !== 'number' || !Number.isFinite(v) || !(v > 0) || !inWorkingRange(v))
     throw new ValidationError(field, v, `a finite number > 0, between ${WORKING_MIN} and ${WORKING_MAX}`);

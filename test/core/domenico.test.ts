@@ -77,6 +77,18 @@ describe('edge cases first', () => {
     expect(domenico({ ...base, x: -5 })).toBe(0);
     expect(() => domenico({ ...base, v: 0 })).toThrow(ValidationError);
   });
+  it('a grid with one bad y value is rejected, the error naming that element (ys[2]) and the accepted range', () => {
+    const { x: _x, y: _y, ...grid } = base;
+    let err: unknown;
+    try {
+      domenicoGrid({ ...grid, xs: [10, 20], ys: [-5, 0, Number.NaN, 5] });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(ValidationError);
+    expect((err as ValidationError).field).toBe('ys[2]');
+    expect((err as ValidationError).message).toMatch(/finite number/);
+  });
   it('far downgradient at late time on the axis with αy, αz → small: ⅛·2·2·2 = 1 (the source concentration)', () => {
     expectWithin('tiny spreading', {}, domenico({ ...base, ax: 1e-3, ay: 1e-6, az: 1e-7, t: 1e5 }), 1, 1e-12);
   });
