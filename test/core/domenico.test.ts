@@ -77,6 +77,17 @@ describe('edge cases first', () => {
     expect(domenico({ ...base, x: -5 })).toBe(0);
     expect(() => domenico({ ...base, v: 0 })).toThrow(ValidationError);
   });
+  it('each grid is an array of its own: a later call (a smaller and a larger grid) leaves an earlier result as it was', () => {
+    const { x: _x, y: _y, ...grid } = base;
+    const ys = [-30, -10, 0, 10, 30];
+    const first = domenicoGrid({ ...grid, xs: [20, 60, 120], ys });
+    const kept = Float64Array.from(first);
+    domenicoGrid({ ...grid, xs: [40], ys: [0, 5] });
+    domenicoGrid({ ...grid, t: 900, xs: [10, 30, 50, 70, 90, 110], ys });
+    expect(Array.from(first)).toEqual(Array.from(kept));
+    expect(first.length).toBe(15);
+    expect(kept.some((c) => c > 0)).toBe(true);
+  });
   it('a grid with one bad y value is rejected, the error naming that element (ys[2]) and the accepted range', () => {
     const { x: _x, y: _y, ...grid } = base;
     let err: unknown;
