@@ -5,13 +5,14 @@
  *
  * Tolerances (stated in the modules' headers):
  *  - table: a few ulp; checked at 8 ε relative (4 for the table, 4 for @stdlib);
+ *  - the Taylor series near 0 (erfNearZero): a few ulp; checked at 8 ε relative as the table;
  *  - lattice: 5e-13 relative to each value, plus @stdlib's 4 ε.
  */
 import { describe, expect, it } from 'vitest';
 import stdlibErf from '@stdlib/math-base-special-erf';
 import stdlibErfc from '@stdlib/math-base-special-erfc';
 import { ERF_TABLE_SPLIT, splitValue } from '../../src/core/special/erfTable';
-import { erfLattice, LATTICE_CUT } from '../../src/core/special/erfLattice';
+import { erfLattice, erfNearZero, LATTICE_CUT } from '../../src/core/special/erfLattice';
 import { lateralLattice } from '../../src/core/solutions/spread';
 import { DBL_MIN, EPS, MismatchLog, Prng } from './helpers/check';
 
@@ -33,6 +34,20 @@ describe('table error function (erfTable.ts)', () => {
       log.check('splitValue vs @stdlib', y, splitValue(y), ref, Math.max(8 * EPS * Math.abs(ref), DBL_MIN)); // Cody's erfc is 0 from 26.54 (subnormal range)
     }
     log.assertNone();
+  });
+});
+
+describe('erf near 0 by its Taylor series (erfLattice.ts, erfNearZero)', () => {
+  it('at 20 000 seeded points on −split…split (seed 13), down to 1e-300: within 8 ε relative', () => {
+    const rng = new Prng(13);
+    const log = new MismatchLog();
+    for (let k = 0; k < 20000; k++) {
+      const u = (k < 15000 ? 2 * rng.uniform() - 1 : (rng.uniform() < 0.5 ? -1 : 1) * 10 ** (-300 * rng.uniform())) * S;
+      const ref = stdlibErf(u);
+      log.check('erfNearZero vs @stdlib', u, erfNearZero(u), ref, Math.max(8 * EPS * Math.abs(ref), DBL_MIN));
+    }
+    log.assertNone();
+    expect(Object.is(erfNearZero(-0), -0) && erfNearZero(0) === 0).toBe(true);
   });
 });
 

@@ -855,6 +855,50 @@ function beyondCut(u0: f64, du: f64, from: i32, to: i32, base: usize): void {
   if (j < to) store<f64>(outAt(base, j), pointValue(u0 + <f64>j * du));
 }
 
+// erfLattice.ts's erfNearZero: its coefficients and its operations, one point or two at a time
+const E0: f64 = 1.1283791670955126;
+const E1: f64 = -0.37612638903183754;
+const E2: f64 = 0.11283791670955126;
+const E3: f64 = -0.026866170645131252;
+const E4: f64 = 0.005223977625442188;
+const E5: f64 = -0.0008548327023450853;
+const E6: f64 = 0.00012055332981789664;
+const E7: f64 = -1.492565035840625e-5;
+const E8: f64 = 1.6462114365889248e-6;
+const E9: f64 = -1.6365844691234924e-7;
+const E10: f64 = 1.4807192815879218e-8;
+const E11: f64 = -1.2290555301717928e-9;
+
+function erfNearZero(u: f64): f64 {
+  const z = u * u;
+  const z2 = z * z;
+  const z4 = z2 * z2;
+  const p03 = E0 + E1 * z + (E2 + E3 * z) * z2;
+  const p47 = E4 + E5 * z + (E6 + E7 * z) * z2;
+  const p811 = E8 + E9 * z + (E10 + E11 * z) * z2;
+  return u * (p03 + (p47 + p811 * z4) * z4);
+}
+
+@inline function mulAdd(a: f64, b: f64, z: v128): v128 {
+  return f64x2.add(f64x2.splat(a), f64x2.mul(f64x2.splat(b), z));
+}
+
+/** erfNearZero at the points j in [from, to) (all |u| < the split), two at a time. */
+function nearZero(u0: f64, du: f64, from: i32, to: i32, base: usize): void {
+  let j = from;
+  for (; j + 1 < to; j += 2) {
+    const u = f64x2(u0 + <f64>j * du, u0 + <f64>(j + 1) * du);
+    const z = f64x2.mul(u, u);
+    const z2 = f64x2.mul(z, z);
+    const z4 = f64x2.mul(z2, z2);
+    const p03 = f64x2.add(mulAdd(E0, E1, z), f64x2.mul(mulAdd(E2, E3, z), z2));
+    const p47 = f64x2.add(mulAdd(E4, E5, z), f64x2.mul(mulAdd(E6, E7, z), z2));
+    const p811 = f64x2.add(mulAdd(E8, E9, z), f64x2.mul(mulAdd(E10, E11, z), z2));
+    v128.store(outAt(base, j), f64x2.mul(u, f64x2.add(p03, f64x2.mul(f64x2.add(p47, f64x2.mul(p811, z4)), z4))));
+  }
+  if (j < to) store<f64>(outAt(base, j), erfNearZero(u0 + <f64>j * du));
+}
+
 /** erfLattice.ts's erfLattice into the array at `base` (n ≤ cap). */
 function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
   if (n <= 0) return;
@@ -880,8 +924,7 @@ function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
   }
   // the four runs are queued; the caller drains the queue (two lattices' runs share the lanes)
   if (jL > jc) enqueue(-(u0 + <f64>jc * du), -du, jL - jc, base, jc, 1, 1);
-  if (j0 > jL) enqueue(-(u0 + <f64>(j0 - 1) * du), du, j0 - jL, base, j0 - 1, -1, -1);
-  if (jR > j0) enqueue(u0 + <f64>j0 * du, du, jR - j0, base, j0, 1, 1);
+  nearZero(u0, du, jL, jR, base);
   if (jC > jR) enqueue(u0 + <f64>(jC - 1) * du, -du, jC - jR, base, jC - 1, -1, 1);
 }
 
