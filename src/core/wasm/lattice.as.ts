@@ -168,7 +168,7 @@ export function workOffset(): usize {
 }
 /** Marks the D_k caches empty (the host calls it after writing the rules). */
 /**
- * The vector constants of expPair, stored once by reset(): loaded from memory they cost one load
+ * The vector constants of expPair (and nearZero's coefficients), stored once by reset(): loaded from memory they cost one load
  * each where V8 11 would build each splat anew (three instructions) at every use.
  */
 const EXPC_AT: usize = 180224;
@@ -188,6 +188,8 @@ const X_P2: usize = EXPC_AT + 192;
 const X_P1: usize = EXPC_AT + 208;
 const X_TWO: usize = EXPC_AT + 224;
 const X_BIAS: usize = EXPC_AT + 240;
+/** nearZero's twelve coefficients, as pairs */
+const X_E0: usize = EXPC_AT + 256;
 function storeExpConstants(): void {
   v128.store(X_TINY, f64x2.splat(EXP_TINY));
   v128.store(X_ORDINARY, f64x2.splat(EXP_ORDINARY));
@@ -205,6 +207,8 @@ function storeExpConstants(): void {
   v128.store(X_P1, f64x2.splat(EXP_P1));
   v128.store(X_TWO, f64x2.splat(2.0));
   v128.store(X_BIAS, i64x2.splat(0x3ff));
+  const e: StaticArray<f64> = [E0, E1, E2, E3, E4, E5, E6, E7, E8, E9, E10, E11];
+  for (let k = 0; k < 12; k++) v128.store(X_E0 + (<usize>k << 4), f64x2.splat(unchecked(e[k])));
 }
 
 export function reset(): void {
@@ -879,8 +883,9 @@ function erfNearZero(u: f64): f64 {
   return u * (p03 + (p47 + p811 * z4) * z4);
 }
 
-@inline function mulAdd(a: f64, b: f64, z: v128): v128 {
-  return f64x2.add(f64x2.splat(a), f64x2.mul(f64x2.splat(b), z));
+/** (E_k, E_k) pairs, stored by reset() at X_E0 + 16k */
+@inline function mulAdd(k: usize, z: v128): v128 {
+  return f64x2.add(v128.load(X_E0 + (k << 4)), f64x2.mul(v128.load(X_E0 + ((k + 1) << 4)), z));
 }
 
 /** erfNearZero at the points j in [from, to) (all |u| < the split), two at a time. */
@@ -891,9 +896,9 @@ function nearZero(u0: f64, du: f64, from: i32, to: i32, base: usize): void {
     const z = f64x2.mul(u, u);
     const z2 = f64x2.mul(z, z);
     const z4 = f64x2.mul(z2, z2);
-    const p03 = f64x2.add(mulAdd(E0, E1, z), f64x2.mul(mulAdd(E2, E3, z), z2));
-    const p47 = f64x2.add(mulAdd(E4, E5, z), f64x2.mul(mulAdd(E6, E7, z), z2));
-    const p811 = f64x2.add(mulAdd(E8, E9, z), f64x2.mul(mulAdd(E10, E11, z), z2));
+    const p03 = f64x2.add(mulAdd(0, z), f64x2.mul(mulAdd(2, z), z2));
+    const p47 = f64x2.add(mulAdd(4, z), f64x2.mul(mulAdd(6, z), z2));
+    const p811 = f64x2.add(mulAdd(8, z), f64x2.mul(mulAdd(10, z), z2));
     v128.store(outAt(base, j), f64x2.mul(u, f64x2.add(p03, f64x2.mul(f64x2.add(p47, f64x2.mul(p811, z4)), z4))));
   }
   if (j < to) store<f64>(outAt(base, j), erfNearZero(u0 + <f64>j * du));
