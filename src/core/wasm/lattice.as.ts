@@ -1028,6 +1028,19 @@ export function lateralRow(y0: f64, dy: f64, ny: i32, h: f64, s: f64, mirrored: 
       const sa = factor * classSign(ca) * (ca == 1 ? -1 : 1);
       const vsa = f64x2.splat(sa);
       let j = lo;
+      for (; j + 3 < hi; j += 4) {
+        const m = ny - 1 - j;
+        const bm0 = v128.load(outAt(B, m - 1));
+        const bm1 = v128.load(outAt(B, m - 3));
+        const f0 = f64x2.add(f64x2.add(vK, f64x2.mul(vsa, v128.shuffle<f64>(bm0, bm0, 1, 0))), f64x2.mul(vsb, v128.load(outAt(B, j))));
+        const f1 = f64x2.add(f64x2.add(vK, f64x2.mul(vsa, v128.shuffle<f64>(bm1, bm1, 1, 0))), f64x2.mul(vsb, v128.load(outAt(B, j + 2))));
+        const c0 = f64x2.pmin(vcap, f64x2.pmax(vzero, f0));
+        const c1 = f64x2.pmin(vcap, f64x2.pmax(vzero, f1));
+        v128.store(outAt(ROW, j), c0);
+        v128.store(outAt(ROW, j + 2), c1);
+        v128.store(outAt(ROW, m - 1), v128.shuffle<f64>(c0, c0, 1, 0));
+        v128.store(outAt(ROW, m - 3), v128.shuffle<f64>(c1, c1, 1, 0));
+      }
       for (; j + 1 < hi; j += 2) {
         const m = ny - 1 - j;
         // (B[m], B[m − 1]) from the pair at m − 1
