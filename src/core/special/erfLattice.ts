@@ -392,12 +392,11 @@ export function erfLattice(u0: number, du: number, n: number, out: Float64Array)
     for (let j = 0; j < n; j++) out[j] = pointValue(u0 + j * du);
     return;
   }
-  // index boundaries: [0, jc) below −cut, [jc, jL) left tail, [jL, j0) middle negative,
-  // [j0, jR) middle non-negative, [jR, jC) right tail, [jC, n) beyond the cut
+  // index boundaries: [0, jc) below −cut, [jc, jL) left tail, [jL, jR) middle (|u| < split),
+  // [jR, jC) right tail, [jC, n) beyond the cut
   const jc = boundary(u0, du, n, -LATTICE_CUT, 0, false);
   const jL = boundary(u0, du, n, -S, jc, true);
-  const j0 = boundary(u0, du, n, 0, jL, false);
-  const jR = boundary(u0, du, n, S, j0, false);
+  const jR = boundary(u0, du, n, S, jL, false);
   const jC = boundary(u0, du, n, LATTICE_CUT, jR, true);
   for (let j = 0; j < jc; j++) out[j] = pointValue(u0 + j * du);
   for (let j = jC; j < n; j++) out[j] = pointValue(u0 + j * du);

@@ -913,8 +913,7 @@ function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
   }
   const jc = boundary(u0, du, n, -LATTICE_CUT, 0, false);
   const jL = boundary(u0, du, n, -S, jc, true);
-  const j0 = boundary(u0, du, n, 0, jL, false);
-  const jR = boundary(u0, du, n, S, j0, false);
+  const jR = boundary(u0, du, n, S, jL, false);
   const jC = boundary(u0, du, n, LATTICE_CUT, jR, true);
   beyondCut(u0, du, 0, jc, base);
   beyondCut(u0, du, jC, n, base);
