@@ -36,8 +36,8 @@
  *    rounding of Qr repeats within a chunk, so Q carries about j²ε/2 ≤ 2.3e-13 after j < 64 steps;
  *    the exponents of the fresh factors are rounded to ε·600 ≈ 7e-14 at most (the room above);
  *  - the seed: a few ulp; the running sum adds positive terms (≤ Jε ≈ 2e-14).
- *  So each value is within 0.1 + 1.3 + 2.3 + 0.7 + 0.2 ≈ 4.6e-13 < 5e-13 of its own magnitude. Chunks for which no rule meets the bound
- *  (coarse lattices) are evaluated point by point from the table (a few ulp); |u| > LATTICE_CUT = 10
+ *  So each value is within 0.1 + 1.3 + 2.3 + 0.7 + 0.2 ≈ 4.6e-13 < 5e-13 of its own magnitude.
+ *  Chunks for which no rule meets the bound (coarse lattices) are evaluated point by point from the table (a few ulp); |u| > LATTICE_CUT = 10
  *  by Cody's single-exponential erfcTail (erf.ts), within 2u²ε ≤ 1.6e-13 relative (u < 27).
  *
  * Ported to WebAssembly in ../wasm/lattice.as.ts (loaded by latticeKernel.ts), which must perform
@@ -100,7 +100,7 @@ const RULES = [legendreRule(4), legendreRule(6), legendreRule(8)];
  * Carried state of the chunk kernels, shared through this array rather than passed as arguments:
  * V8 boxes a floating-point argument of a call it does not inline into a fresh heap number.
  * [0, 8) node values P_k, [8, 16) their step factors B_k, then the running value, the scale
- * (2/√π)·|s|·sign, s², e^{−s²} and e^{−2s²}.
+ * (2/√π)·|s|, s², e^{−s²} and e^{−2s²}.
  */
 const ST = new Float64Array(21);
 const P_VAL = 16;
@@ -321,20 +321,20 @@ function seedNodes(r: number, w: number, s: number, val: number): void {
 
 /**
  * Points p = 0 … count−1 at w_p = w0 + p·s (s = ±du, the direction in which the value grows; all
- * |w_p| on one side of the split and ≤ LATTICE_CUT) into out[i0 + p·di], as sign·splitValue(|w_p|).
+ * |w_p| on one side of the split and ≤ LATTICE_CUT) into out[i0 + p·di], as splitValue(|w_p|).
  * The run is cut into segments, each seeded from the table at its first point and continued in
  * chunks of at most CHUNK steps (fresh Q at each chunk) while the rule stays the same, the carried
  * factors keep their room and the segment is at most SEGMENT steps long.
  */
-function run(w0: number, s: number, count: number, out: Float64Array, i0: number, di: number, sign: number): void {
+function run(w0: number, s: number, count: number, out: Float64Array, i0: number, di: number): void {
   const as = Math.abs(s);
   const st = ST;
-  st[P_SCALE] = TWO_OVER_SQRT_PI * as * sign;
+  st[P_SCALE] = TWO_OVER_SQRT_PI * as;
   let p = 0;
   while (p < count) {
     const ws = w0 + p * s;
     const o = i0 + p * di;
-    const val = sign * splitValue(Math.abs(ws));
+    const val = splitValue(Math.abs(ws));
     out[o] = val;
     if (p === count - 1) return;
     // the first chunk decides the rule; its steps are shortened to the room of the carried factors
@@ -345,7 +345,7 @@ function run(w0: number, s: number, count: number, out: Float64Array, i0: number
     if (room < len) len = Math.max(1, Math.floor(room));
     const r = ruleFor(as, tmax);
     if (r < 0) {
-      for (let q = 1; q <= len; q++) out[o + q * di] = sign * splitValue(Math.abs(ws + q * s));
+      for (let q = 1; q <= len; q++) out[o + q * di] = splitValue(Math.abs(ws + q * s));
       p += len;
       continue;
     }
@@ -408,9 +408,9 @@ export function erfLattice(u0: number, du: number, n: number, out: Float64Array)
     ST[P_Q2] = Math.exp(-2 * s2);
   }
   // left tail: erfc(−u) grows with j (−u falls by du per step)
-  if (jL > jc) run(-(u0 + jc * du), -du, jL - jc, out, jc, 1, 1);
+  if (jL > jc) run(-(u0 + jc * du), -du, jL - jc, out, jc, 1);
   // middle (|u| < split): erf(u) point by point from its Taylor series
   for (let j = jL; j < jR; j++) out[j] = erfNearZero(u0 + j * du);
   // right tail: erfc(u) grows as j falls
-  if (jC > jR) run(u0 + (jC - 1) * du, -du, jC - jR, out, jC - 1, -1, 1);
+  if (jC > jR) run(u0 + (jC - 1) * du, -du, jC - jR, out, jC - 1, -1);
 }

@@ -370,7 +370,6 @@ function pointValue(u: f64): f64 {
   w0: f64;
   s: f64;
   as: f64;
-  sign: f64;
   scale: f64;
   t0: f64;
   val: f64;
@@ -416,12 +415,11 @@ const IDLE_SLOT: usize = LANES_AT + 3 * LANE_SIZE;
   return PAIRS_AT + 128 + (<usize>k << 4) + laneHalf(l);
 }
 
-function startLane(l: Lane, w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32, sign: f64): void {
+function startLane(l: Lane, w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32): void {
   l.w0 = w0;
   l.s = s;
   l.as = Math.abs(s);
-  l.sign = sign;
-  l.scale = TWO_OVER_SQRT_PI * l.as * sign;
+  l.scale = TWO_OVER_SQRT_PI * l.as;
   l.base = base;
   l.count = count;
   l.i0 = i0;
@@ -546,7 +544,7 @@ function advance(l: Lane): void {
     }
     const ws = l.w0 + <f64>p * s;
     const o = l.i0 + p * l.di;
-    const val = l.sign * splitValue(Math.abs(ws));
+    const val = splitValue(Math.abs(ws));
     store<f64>(outAt(l.base, o), val);
     if (p == count - 1) {
       l.busy = 0;
@@ -559,7 +557,7 @@ function advance(l: Lane): void {
     if (room < <f64>len) len = <i32>Math.max(1, Math.floor(room));
     const r = ruleFor(as, tmax);
     if (r < 0) {
-      for (let q = 1; q <= len; q++) store<f64>(outAt(l.base, o + q * l.di), l.sign * splitValue(Math.abs(ws + <f64>q * s)));
+      for (let q = 1; q <= len; q++) store<f64>(outAt(l.base, o + q * l.di), splitValue(Math.abs(ws + <f64>q * s)));
       l.p = p + len;
       continue;
     }
@@ -575,13 +573,13 @@ function advance(l: Lane): void {
   }
 }
 
-@inline function pair(a: Lane, b: Lane, k: i32): v128 {
+@inline function pair(k: i32): v128 {
   return v128.load(PAIRS_AT + (<usize>k << 4));
 }
-@inline function pairB(a: Lane, b: Lane, k: i32): v128 {
+@inline function pairB(k: i32): v128 {
   return v128.load(PAIRS_AT + 128 + (<usize>k << 4));
 }
-@inline function unpair(a: Lane, b: Lane, k: i32, v: v128): void {
+@inline function unpair(k: i32, v: v128): void {
   v128.store(PAIRS_AT + (<usize>k << 4), v);
 }
 
@@ -605,8 +603,8 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
   let pb = b.ptr;
   const da = a.dp;
   const db = b.dp;
-  let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
-  const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
+  let v0 = pair(0), v1 = pair(1), v2 = pair(2), v3 = pair(3);
+  const c0 = pairB(0), c1 = pairB(1), c2 = pairB(2), c3 = pairB(3);
   // the steps (from this call's start) at which lane A's and lane B's chunks end, and the nearer
   let ea = a.chunkLeft;
   let eb = b.chunkLeft;
@@ -632,7 +630,7 @@ function loopTwo4(a: Lane, b: Lane, n: i32): void {
   }
   a.chunkLeft = ea - n;
   b.chunkLeft = eb - n;
-  unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
+  unpair(0, v0); unpair(1, v1); unpair(2, v2); unpair(3, v3);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
 
@@ -645,8 +643,8 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
   let pb = b.ptr;
   const da = a.dp;
   const db = b.dp;
-  let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3), v4 = pair(a, b, 4), v5 = pair(a, b, 5);
-  const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3), c4 = pairB(a, b, 4), c5 = pairB(a, b, 5);
+  let v0 = pair(0), v1 = pair(1), v2 = pair(2), v3 = pair(3), v4 = pair(4), v5 = pair(5);
+  const c0 = pairB(0), c1 = pairB(1), c2 = pairB(2), c3 = pairB(3), c4 = pairB(4), c5 = pairB(5);
   // the steps (from this call's start) at which lane A's and lane B's chunks end, and the nearer
   let ea = a.chunkLeft;
   let eb = b.chunkLeft;
@@ -674,7 +672,7 @@ function loopTwo6(a: Lane, b: Lane, n: i32): void {
   }
   a.chunkLeft = ea - n;
   b.chunkLeft = eb - n;
-  unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3); unpair(a, b, 4, v4); unpair(a, b, 5, v5);
+  unpair(0, v0); unpair(1, v1); unpair(2, v2); unpair(3, v3); unpair(4, v4); unpair(5, v5);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
 
@@ -687,10 +685,10 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
   let pb = b.ptr;
   const da = a.dp;
   const db = b.dp;
-  let v0 = pair(a, b, 0), v1 = pair(a, b, 1), v2 = pair(a, b, 2), v3 = pair(a, b, 3);
-  let v4 = pair(a, b, 4), v5 = pair(a, b, 5), v6 = pair(a, b, 6), v7 = pair(a, b, 7);
-  const c0 = pairB(a, b, 0), c1 = pairB(a, b, 1), c2 = pairB(a, b, 2), c3 = pairB(a, b, 3);
-  const c4 = pairB(a, b, 4), c5 = pairB(a, b, 5), c6 = pairB(a, b, 6), c7 = pairB(a, b, 7);
+  let v0 = pair(0), v1 = pair(1), v2 = pair(2), v3 = pair(3);
+  let v4 = pair(4), v5 = pair(5), v6 = pair(6), v7 = pair(7);
+  const c0 = pairB(0), c1 = pairB(1), c2 = pairB(2), c3 = pairB(3);
+  const c4 = pairB(4), c5 = pairB(5), c6 = pairB(6), c7 = pairB(7);
   // the steps (from this call's start) at which lane A's and lane B's chunks end, and the nearer
   let ea = a.chunkLeft;
   let eb = b.chunkLeft;
@@ -718,8 +716,8 @@ function loopTwo8(a: Lane, b: Lane, n: i32): void {
   }
   a.chunkLeft = ea - n;
   b.chunkLeft = eb - n;
-  unpair(a, b, 0, v0); unpair(a, b, 1, v1); unpair(a, b, 2, v2); unpair(a, b, 3, v3);
-  unpair(a, b, 4, v4); unpair(a, b, 5, v5); unpair(a, b, 6, v6); unpair(a, b, 7, v7);
+  unpair(0, v0); unpair(1, v1); unpair(2, v2); unpair(3, v3);
+  unpair(4, v4); unpair(5, v5); unpair(6, v6); unpair(7, v7);
   storeTwo(a, b, val, Q, Qr, pa, pb);
 }
 
@@ -770,16 +768,15 @@ function idleLane(l: Lane): void {
   if (l.pending == 0) l.rule = -1;
 }
 
-// the queue of runs for the two lanes: (w0, s, sign) as f64 and (count, base, i0, di) as i32/usize
+// the queue of runs for the two lanes: (w0, s) as f64 and (count, base, i0, di) as i32/usize
 const QUEUE_AT: usize = LANES_AT + 4 * LANE_SIZE;
 let queued: i32 = 0;
 let taken: i32 = 0;
 
-function enqueue(w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32, sign: f64): void {
+function enqueue(w0: f64, s: f64, count: i32, base: usize, i0: i32, di: i32): void {
   const at = QUEUE_AT + <usize>queued * 64;
   store<f64>(at, w0);
   store<f64>(at + 8, s);
-  store<f64>(at + 16, sign);
   store<i32>(at + 24, count);
   store<i32>(at + 28, <i32>base);
   store<i32>(at + 32, i0);
@@ -792,7 +789,7 @@ function takeRun(l: Lane): bool {
   if (taken >= queued) return false;
   const at = QUEUE_AT + <usize>taken * 64;
   taken++;
-  startLane(l, load<f64>(at), load<f64>(at + 8), load<i32>(at + 24), <usize>load<i32>(at + 28), load<i32>(at + 32), load<i32>(at + 36), load<f64>(at + 16));
+  startLane(l, load<f64>(at), load<f64>(at + 8), load<i32>(at + 24), <usize>load<i32>(at + 28), load<i32>(at + 32), load<i32>(at + 36));
   return true;
 }
 
@@ -927,9 +924,9 @@ function latticeAt(u0: f64, du: f64, n: i32, base: usize): void {
     store<f64>(Q2_AT + 8, gQ2);
   }
   // the four runs are queued; the caller drains the queue (two lattices' runs share the lanes)
-  if (jL > jc) enqueue(-(u0 + <f64>jc * du), -du, jL - jc, base, jc, 1, 1);
+  if (jL > jc) enqueue(-(u0 + <f64>jc * du), -du, jL - jc, base, jc, 1);
   nearZero(u0, du, jL, jR, base);
-  if (jC > jR) enqueue(u0 + <f64>(jC - 1) * du, -du, jC - jR, base, jC - 1, -1, 1);
+  if (jC > jR) enqueue(u0 + <f64>(jC - 1) * du, -du, jC - jR, base, jC - 1, -1);
 }
 
 /** The lattice into work array B (for the host's erfLattice). */
