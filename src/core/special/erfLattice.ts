@@ -135,36 +135,52 @@ const STEP_POINTS = STEP_TOP * STEP_CELLS + 1;
  * STEP_MAX[r·STEP_POINTS + g]: the largest step δ for which rule r's bound above,
  * C_m·δ^{2m}·Σ|h_k|t^k·e^{δ(2t + δ)} ≤ 1e-14, holds at t = g/STEP_CELLS (by bisection, once).
  */
-const STEP_MAX = new Float64Array(RULES.length * STEP_POINTS);
-RULES.forEach((r, k) => {
-  const h = hermiteCoefficients(2 * r.m).map(Math.abs);
-  for (let g = 0; g < STEP_POINTS; g++) {
-    const t = g / STEP_CELLS;
-    let major = 0;
-    for (let i = h.length - 1; i >= 0; i--) major = major * t + h[i];
-    const base = Math.log(r.Cm) + Math.log(major) - Math.log(1e-14);
-    const f = (d: number) => base + 2 * r.m * Math.log(d) + d * (2 * t + d);
-    let lo = 1e-9;
-    let hi = 50;
-    for (let it = 0; it < 60; it++) {
-      const mid = 0.5 * (lo + hi);
-      if (f(mid) <= 0) lo = mid;
-      else hi = mid;
+let STEP_MAX: Float64Array | null = null;
+
+/**
+ * STEP_MAX, built on first use (40 000 logarithms, a few ms: not charged to loading the module),
+ * in one plain loop (a closure per point cost about twice as much).
+ */
+function stepTable(): Float64Array {
+  const table = new Float64Array(RULES.length * STEP_POINTS);
+  const logTarget = Math.log(1e-14);
+  for (let k = 0; k < RULES.length; k++) {
+    const r = RULES[k];
+    const twoM = 2 * r.m;
+    const h = hermiteCoefficients(twoM).map(Math.abs);
+    const logCm = Math.log(r.Cm);
+    for (let g = 0; g < STEP_POINTS; g++) {
+      const t = g / STEP_CELLS;
+      let major = 0;
+      for (let i = h.length - 1; i >= 0; i--) major = major * t + h[i];
+      const base = logCm + Math.log(major) - logTarget;
+      let lo = 1e-9;
+      let hi = 50;
+      for (let it = 0; it < 60; it++) {
+        const mid = 0.5 * (lo + hi);
+        if (base + twoM * Math.log(mid) + mid * (2 * t + mid) <= 0) lo = mid;
+        else hi = mid;
+      }
+      table[k * STEP_POINTS + g] = lo;
     }
-    STEP_MAX[k * STEP_POINTS + g] = lo;
   }
-});
+  return table;
+}
 
 /** The rules' nodes and weights, for the WebAssembly port (latticeKernel.ts); read only. */
 export const LATTICE_RULES: readonly { readonly m: number; readonly c: Float64Array; readonly w: Float64Array }[] = RULES.map((r) => ({ m: r.m, c: r.c, w: r.w }));
 /** The step table (STEP_MAX, rule-major, STEP_POINTS per rule), for the WebAssembly port; read only. */
-export const LATTICE_STEP_MAX: Float64Array = STEP_MAX;
+export function latticeStepMax(): Float64Array {
+  if (STEP_MAX === null) STEP_MAX = stepTable();
+  return STEP_MAX;
+}
 
 /** The smallest rule whose remainder bound is ≤ 1e-14 for steps δ at |t| ≤ tmax, or −1. */
 function ruleFor(delta: number, tmax: number): number {
   if (!(tmax <= STEP_TOP)) return -1;
   const g = Math.ceil(tmax * STEP_CELLS);
-  for (let r = 0; r < RULES.length; r++) if (delta <= STEP_MAX[r * STEP_POINTS + g]) return r;
+  const table = STEP_MAX ?? latticeStepMax();
+  for (let r = 0; r < RULES.length; r++) if (delta <= table[r * STEP_POINTS + g]) return r;
   return -1;
 }
 

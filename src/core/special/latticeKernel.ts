@@ -14,7 +14,7 @@
  */
 import { LATTICE_WASM } from './latticeWasm';
 import { ERF_TABLE } from './erfTable';
-import { LATTICE_RULES, LATTICE_STEP_MAX } from './erfLattice';
+import { LATTICE_RULES, latticeStepMax } from './erfLattice';
 
 // The pure core compiles without DOM or Node typings, so the few WebAssembly names it uses are
 // declared here (ECMAScript hosts provide them: browsers, workers and Node alike).
@@ -66,7 +66,7 @@ class Kernel implements LatticeKernel {
       mem.set(r.c, at + 16 * k);
       mem.set(r.w, at + 16 * k + 8);
     });
-    mem.set(LATTICE_STEP_MAX, x.stepTableOffset() / 8);
+    mem.set(latticeStepMax(), x.stepTableOffset() / 8);
     x.reset();
   }
 
