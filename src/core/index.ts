@@ -48,3 +48,4 @@ export type { ScreeningModel, SolutionKind, DecayPhase, Point3 } from './model';
 export type { ExactOptions } from './solutions/patchSource';
 export { erf, erfc, erfcx } from './special/erf';
 export * from './units';
+export { philox4x32, CounterStream, counterUniform, unitFromWords, checkSeed } from './random';
