@@ -22,6 +22,7 @@ import {
 } from '../../app/actions';
 import { FilesView } from './FilesView';
 import { CompareView } from './CompareView';
+import { useModalDialog } from './topLayer';
 import './library.css';
 
 export type SheetView = 'library' | 'files' | 'compare';
@@ -43,11 +44,8 @@ export function CaseMenu() {
 
 function Sheet() {
   const ref = useRef<HTMLDialogElement>(null);
-  useEffect(() => {
-    const d = ref.current;
-    if (d && !d.open) d.showModal();
-    void refreshStorageInfo();
-  }, []);
+  useModalDialog(ref);
+  useEffect(() => void refreshStorageInfo(), []);
   const view = sheet.value;
   const tab = (v: SheetView, label: string) => (
     <button

@@ -3,12 +3,13 @@
  * the update prompt, the two-tab conflict choice, and short notices (with Undo after a delete).
  * Everything is visible text or a button; nothing depends on hover.
  */
-import { useEffect, useRef } from 'preact/hooks';
+import { useRef } from 'preact/hooks';
 import { createPortal } from 'preact/compat';
 import { dismiss, notices, offlineReady, online, saveState, updateWaiting } from '../../app/session';
 import { resolveConflict } from '../../app/actions';
 import { currentCase } from '../state';
 import { ReportHost } from './ReportView';
+import { topLayerHost, useModalDialog } from './topLayer';
 import './library.css';
 
 function SaveChip() {
@@ -44,9 +45,7 @@ function NetChip() {
 function ConflictDialog() {
   const s = saveState.value;
   const ref = useRef<HTMLDialogElement>(null);
-  useEffect(() => {
-    if (ref.current && !ref.current.open) ref.current.showModal();
-  }, []);
+  useModalDialog(ref);
   if (s.kind !== 'conflict') return null;
   const theirsName = s.theirsCase?.name ?? s.theirs?.name ?? null;
   const when = s.theirs ? new Date(s.theirs.savedAt).toLocaleString() : null;
@@ -108,7 +107,7 @@ function Notices() {
         </div>
       ))}
     </div>,
-    document.body,
+    topLayerHost(),
   );
 }
 
