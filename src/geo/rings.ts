@@ -1,4 +1,4 @@
-/** Planar ring helpers shared by footprint.ts and contours.ts. */
+/** Planar ring helpers shared by footprint.ts, contours.ts and the map (a traced outline's centre). */
 
 /** signed area (> 0: counter-clockwise) of a ring, open or closed; shoelace about the first vertex
  * to limit cancellation when coordinates are large */
@@ -20,4 +20,32 @@ export function openRing<P extends readonly number[]>(ring: readonly P[]): P[] {
   }
   while (out.length > 1 && out[0][0] === out[out.length - 1][0] && out[0][1] === out[out.length - 1][1]) out.pop();
   return out;
+}
+
+/**
+ * Area-weighted centroid of a simple polygon given as an open or closed ring (shoelace formula,
+ * taken about the first vertex to limit cancellation when coordinates are large). A ring with no
+ * area (fewer than three distinct points, or all on one line) gives the mean of its vertices.
+ */
+export function ringCentroid(closedOrOpen: readonly (readonly number[])[]): [number, number] {
+  const ring = openRing(closedOrOpen);
+  if (ring.length === 0) throw new Error('ringCentroid: the ring has no vertices (accepted: one or more)');
+  const x0 = ring[0][0], y0 = ring[0][1];
+  let a = 0, cx = 0, cy = 0;
+  for (let k = 1; k + 1 < ring.length; k++) {
+    const xa = ring[k][0] - x0, ya = ring[k][1] - y0;
+    const xb = ring[k + 1][0] - x0, yb = ring[k + 1][1] - y0;
+    const w = xa * yb - xb * ya;
+    a += w;
+    cx += (xa + xb) * w;
+    cy += (ya + yb) * w;
+  }
+  let span = 0;
+  for (const p of ring) span = Math.max(span, Math.abs(p[0] - x0), Math.abs(p[1] - y0));
+  if (!(Math.abs(a) > 1e-12 * span * span)) {
+    let sx = 0, sy = 0;
+    for (const p of ring) (sx += p[0] - x0), (sy += p[1] - y0);
+    return [x0 + sx / ring.length, y0 + sy / ring.length];
+  }
+  return [x0 + cx / (3 * a), y0 + cy / (3 * a)];
 }

@@ -1,6 +1,6 @@
 /**
  * The screen. Map first; beside it (landscape) or under it (portrait) the panel, in the order a
- * screening is reasoned through on site: the release, the flow, what is at risk, what each
+ * screening is reasoned through on site: the release, the flow, the ground, what is at risk, what each
  * receptor will see. Results follow every input without a run step.
  */
 import { useEffect, useState } from 'preact/hooks';
@@ -12,6 +12,7 @@ import { settings, updateSettings } from './settings';
 import { MapView } from './map/MapView';
 import { ReleasePanel } from './panels/ReleasePanel';
 import { FlowPanel } from './panels/FlowPanel';
+import { AquiferPanel } from './panels/AquiferPanel';
 import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
 import { SettingsDialog } from './panels/SettingsDialog';
@@ -67,6 +68,7 @@ export function App({ initialCase, slots }: AppProps) {
         <div class="dg-panel" aria-label="Inputs and results">
           <ReleasePanel />
           <FlowPanel />
+          <AquiferPanel />
           <ReceptorsPanel />
           <ResultsPanel />
         </div>

@@ -11,6 +11,7 @@ import L from 'leaflet';
 import { effect } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
+import { ringCentroid } from '../../geo/rings';
 import { currentCase, currentResults, updateCase, registerMapElement } from '../state';
 import { mapTool, selectedId, tileState } from '../view';
 import { settings } from '../settings';
@@ -373,11 +374,11 @@ export class SiteMap {
       this.tracing = null;
       this.traceLine.setLatLngs([]);
       if (!pts) return;
-      const ring = simplifyRing(pts.map((ll) => map.latLngToContainerPoint(ll)), 3).map((p) => toPosition(map.containerPointToLatLng(p)));
+      const ring = simplifyTrace(pts.map((ll) => map.latLngToContainerPoint(ll))).map((p) => toPosition(map.containerPointToLatLng(p)));
       if (ring.length < 3) return;
       const c = currentCase.peek();
       const lf = makeLocalFrame(c.site.frame, c.site.datum);
-      const centre = lf.fromEN(centroid(ring.map((p) => lf.toEN(p))));
+      const centre = lf.fromEN(ringCentroid(ring.map((p) => lf.toEN(p))));
       updateCase((d) => {
         d.site.source.footprint = ring;
         d.site.source.position = centre;
@@ -464,50 +465,16 @@ function clampLL(ll: L.LatLng, local: boolean): Position {
   return [Math.max(-180, Math.min(180, ll.lng)), Math.max(-89.9, Math.min(89.9, ll.lat))];
 }
 
-function centroid(ring: [number, number][]): [number, number] {
-  // area-weighted centroid of a simple polygon (shoelace); falls back to the vertex mean
-  let a = 0, cx = 0, cy = 0;
-  for (let i = 0; i < ring.length; i++) {
-    const [x0, y0] = ring[i];
-    const [x1, y1] = ring[(i + 1) % ring.length];
-    const k = x0 * y1 - x1 * y0;
-    a += k;
-    cx += (x0 + x1) * k;
-    cy += (y0 + y1) * k;
-  }
-  if (Math.abs(a) < 1e-12) {
-    const n = ring.length;
-    return [ring.reduce((s, p) => s + p[0], 0) / n, ring.reduce((s, p) => s + p[1], 0) / n];
-  }
-  return [cx / (3 * a), cy / (3 * a)];
-}
+/** Tolerance of the traced outline's simplification, screen px (a finger's wobble). */
+const TRACE_TOLERANCE_PX = 3;
 
-/** Ramer–Douglas–Peucker on screen points (tolerance in px), keeping the ring's first point. */
-function simplifyRing(pts: L.Point[], tol: number): L.Point[] {
-  if (pts.length < 4) return pts;
-  const keep = new Uint8Array(pts.length);
-  keep[0] = keep[pts.length - 1] = 1;
-  const stack: [number, number][] = [[0, pts.length - 1]];
-  while (stack.length) {
-    const [a, b] = stack.pop()!;
-    let best = -1, dmax = tol;
-    for (let i = a + 1; i < b; i++) {
-      const d = segDist(pts[i], pts[a], pts[b]);
-      if (d > dmax) (dmax = d), (best = i);
-    }
-    if (best >= 0) {
-      keep[best] = 1;
-      stack.push([a, best], [best, b]);
-    }
-  }
-  const out = pts.filter((_, i) => keep[i]);
-  if (out.length > 3 && out[0].distanceTo(out[out.length - 1]) < tol * 2) out.pop();
+/**
+ * The traced outline with the finger's wobble removed (Leaflet's own Douglas–Peucker on screen
+ * points, which keeps the first and last points) and, when the finger came back to where it
+ * started, without the closing point.
+ */
+function simplifyTrace(pts: L.Point[]): L.Point[] {
+  const out = pts.length < 4 ? pts : L.LineUtil.simplify(pts, TRACE_TOLERANCE_PX);
+  if (out.length > 3 && out[0].distanceTo(out[out.length - 1]) < TRACE_TOLERANCE_PX * 2) out.pop();
   return out;
-}
-
-function segDist(p: L.Point, a: L.Point, b: L.Point): number {
-  const dx = b.x - a.x, dy = b.y - a.y;
-  const L2 = dx * dx + dy * dy;
-  const t = L2 === 0 ? 0 : Math.max(0, Math.min(1, ((p.x - a.x) * dx + (p.y - a.y) * dy) / L2));
-  return Math.hypot(p.x - a.x - t * dx, p.y - a.y - t * dy);
 }

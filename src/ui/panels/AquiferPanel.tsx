@@ -1,0 +1,206 @@
+/**
+ * What the ground is like: conductivity (with a material picker), porosities, organic carbon and
+ * bulk density (which set the retardation), dispersivity and molecular diffusion.
+ */
+import { Section } from './Section';
+import { currentCase, updateCase, currentResults } from '../state';
+import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
+import { MATERIAL_PRESETS, materialPreset, FIELD_RANGES, citeValue } from '../../case/presets';
+import { fmtLength } from '../format';
+import { derivedForScreen } from '../evaluation';
+
+function rangeHelp(field: string, unit: string, lead = 'Usual range'): string {
+  const r = FIELD_RANGES.find((x) => x.field === field);
+  return r ? `${lead} ${citeValue(r, unit === '–' ? '' : unit).replace(/ \(/, ' (').trim()}.` : '';
+}
+
+export function AquiferPanel() {
+  const c = currentCase.value;
+  const a = c.aquifer;
+  const r = currentResults.value;
+  const dv = derivedForScreen();
+  const disp = a.dispersivity;
+  const k = a.hydraulicConductivity;
+  const summary =
+    `K ${fmtNum(k.value)} ${unitLabel(k.unit)}, nₑ ${fmtNum(a.effectivePorosity)}` +
+    (dv ? `; R ${fmtNum(dv.R, 3)}, αL ${fmtLength(dv.ax)}` : '');
+  return (
+    <Section id="aquifer" title="What is the ground like?" summary={summary}>
+      <div class="dg-group" data-group="aquifer">
+        <label class="dg-field">
+          <span>Material (fills in a typical conductivity)</span>
+          <select
+            class="dg-select"
+            value=""
+            onChange={(e) => {
+              const m = materialPreset((e.target as HTMLSelectElement).value);
+              (e.target as HTMLSelectElement).value = '';
+              if (!m) return;
+              // geometric mean of the published range: the middle of a log-spread quantity
+              const k = Math.sqrt(m.conductivity.min * m.conductivity.max);
+              updateCase((d) => void (d.aquifer.hydraulicConductivity = { value: Number(k.toPrecision(2)), unit: 'K:m/d' }));
+            }}
+          >
+            <option value="">Pick a material…</option>
+            {MATERIAL_PRESETS.map((m) => (
+              <option value={m.id} key={m.id}>
+                {m.name}: {fmtNum(m.conductivity.min)} – {fmtNum(m.conductivity.max)} m/d
+              </option>
+            ))}
+          </select>
+        </label>
+        <QuantityField
+          label="Hydraulic conductivity K"
+          field="aquifer.hydraulicConductivity"
+          dimension="conductivity"
+          value={a.hydraulicConductivity}
+          onChange={(q) => updateCase((d) => void (d.aquifer.hydraulicConductivity = q))}
+          help="Fine sand 1 – 5, medium sand 5 – 20, coarse sand 20 – 100, gravel 100 – 1000 m/d (Bouwer 1978, as tabulated in Canter et al. 1988)."
+        />
+        <NumberField
+          label="Effective porosity nₑ"
+          field="aquifer.effectivePorosity"
+          value={a.effectivePorosity}
+          suffix="–"
+          onChange={(v) => updateCase((d) => void (d.aquifer.effectivePorosity = v))}
+          help="Fraction of the volume water flows through; less than the total porosity."
+        />
+        <NumberField
+          label="Total porosity n"
+          field="aquifer.totalPorosity"
+          value={a.totalPorosity}
+          suffix="–"
+          onChange={(v) => updateCase((d) => void (d.aquifer.totalPorosity = v))}
+          help={rangeHelp('aquifer.totalPorosity', '–', 'Unconsolidated deposits')}
+        />
+        <NumberField
+          label="Fraction of organic carbon foc"
+          field="aquifer.fractionOrganicCarbon"
+          value={a.fractionOrganicCarbon}
+          suffix="–"
+          onChange={(v) => updateCase((d) => void (d.aquifer.fractionOrganicCarbon = v))}
+          help="Clean sand ≈ 0.0001 – 0.001 (common practice). Kd = Koc·foc."
+        />
+        <Segmented
+          label="Bulk density"
+          value={a.bulkDensity ? 'given' : 'estimate'}
+          options={[
+            { id: 'estimate', label: 'From porosity' },
+            { id: 'given', label: 'Given' },
+          ]}
+          onChange={(m) =>
+            updateCase((d) => {
+              d.aquifer.bulkDensity = m === 'estimate' ? null : { value: Number((2.65 * (1 - d.aquifer.totalPorosity)).toPrecision(3)), unit: 'g/cm3' };
+            })
+          }
+        />
+        {a.bulkDensity ? (
+          <QuantityField
+            label="Dry bulk density ρb"
+            field="aquifer.bulkDensity"
+            dimension="density"
+            value={a.bulkDensity}
+            onChange={(q) => updateCase((d) => void (d.aquifer.bulkDensity = q))}
+          />
+        ) : (
+          <p class="dg-help">ρb = 2.65 (1 − n) g/cm³ = {fmtNum(2.65 * (1 - a.totalPorosity), 3)} g/cm³ (quartz grains; common practice).</p>
+        )}
+        <h3>Dispersivity</h3>
+        <Segmented
+          label="Dispersivity"
+          value={disp.mode}
+          options={[
+            { id: 'estimate', label: 'Estimate from distance' },
+            { id: 'given', label: 'My values' },
+          ]}
+          onChange={(m) =>
+            updateCase((d) => {
+              if (m === d.aquifer.dispersivity.mode) return;
+              if (m === 'given') {
+                const last = currentResults.peek()?.derived;
+                const ax = last ? Number(last.ax.toPrecision(3)) : 10;
+                const ay = last ? Number(last.ay.toPrecision(3)) : 1;
+                const az = last ? Number(last.az.toPrecision(3)) : 0.1;
+                d.aquifer.dispersivity = {
+                  mode: 'given',
+                  longitudinal: { value: ax, unit: 'm' },
+                  transverse: { value: ay, unit: 'm' },
+                  vertical: { value: az, unit: 'm' },
+                };
+              } else d.aquifer.dispersivity = { mode: 'estimate', relation: 'xu-eckstein-1995', transverseRatio: 0.1, verticalRatio: 0.01 };
+            })
+          }
+        />
+        {disp.mode === 'estimate' ? (
+          <>
+            <label class="dg-field">
+              <span>Scale relation for αL</span>
+              <select
+                class="dg-select"
+                value={disp.relation}
+                onChange={(e) =>
+                  updateCase((d) => {
+                    if (d.aquifer.dispersivity.mode === 'estimate')
+                      d.aquifer.dispersivity.relation = (e.target as HTMLSelectElement).value as 'xu-eckstein-1995' | 'tenth-of-distance';
+                  })
+                }
+              >
+                <option value="xu-eckstein-1995">αL = 0.83 (log₁₀ L)^2.414 (Xu &amp; Eckstein 1995)</option>
+                <option value="tenth-of-distance">αL = L / 10 (common practice)</option>
+              </select>
+            </label>
+            <NumberField
+              label="αT / αL"
+              field="aquifer.dispersivity.transverseRatio"
+              value={disp.transverseRatio}
+              onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.transverseRatio = v))}
+              help="0.1 from Gelhar's high-reliability data; ASTM E1739 uses 1/3 (recalled, to verify)."
+            />
+            <NumberField
+              label="αV / αL"
+              field="aquifer.dispersivity.verticalRatio"
+              value={disp.verticalRatio}
+              onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.verticalRatio = v))}
+              help="Vertical is typically ~10× smaller than horizontal transverse (Gelhar et al. 1992); ASTM E1739 uses 1/20 (recalled)."
+            />
+            {r && dv && (
+              <p class="dg-derived" data-testid="dispersivity-derived">
+                L = distance to the farthest receptor; αL = <strong>{fmtLength(dv.ax)}</strong>, αT = {fmtLength(dv.ay)}, αV ={' '}
+                {fmtLength(dv.az)}
+                {r.derived.dispersivityRelation ? ` (${r.derived.dispersivityRelation})` : ''}. Field dispersivities scatter over 2–3
+                orders of magnitude at one scale (Gelhar, Welty &amp; Rehfeldt 1992): use site values when you have them.
+              </p>
+            )}
+          </>
+        ) : (
+          <>
+            <QuantityField label="Longitudinal αL" field="aquifer.dispersivity.longitudinal" dimension="length" value={disp.longitudinal}
+              onChange={(q) => updateCase((d) => d.aquifer.dispersivity.mode === 'given' && void (d.aquifer.dispersivity.longitudinal = q))} />
+            <QuantityField label="Transverse horizontal αT" field="aquifer.dispersivity.transverse" dimension="length" value={disp.transverse}
+              onChange={(q) => updateCase((d) => d.aquifer.dispersivity.mode === 'given' && void (d.aquifer.dispersivity.transverse = q))} />
+            <QuantityField label="Transverse vertical αV" field="aquifer.dispersivity.vertical" dimension="length" value={disp.vertical}
+              onChange={(q) => updateCase((d) => d.aquifer.dispersivity.mode === 'given' && void (d.aquifer.dispersivity.vertical = q))} />
+          </>
+        )}
+        <Segmented
+          label="Molecular diffusion"
+          value={a.diffusion.include ? 'on' : 'off'}
+          options={[
+            { id: 'off', label: 'Leave out' },
+            { id: 'on', label: 'Include' },
+          ]}
+          onChange={(v) => updateCase((d) => void (d.aquifer.diffusion.include = v === 'on'))}
+        />
+        {a.diffusion.include && (
+          <>
+            <QuantityField label="Free-water diffusion D₀" field="aquifer.diffusion.freeWater" dimension="diffusion" value={a.diffusion.freeWater}
+              onChange={(q) => updateCase((d) => void (d.aquifer.diffusion.freeWater = q))}
+              help="Small organic molecules in water: about 1e-9 m²/s (common practice). Matters only at very slow flow." />
+            <NumberField label="Tortuosity factor τ" field="aquifer.diffusion.tortuosity" value={a.diffusion.tortuosity}
+              onChange={(v) => updateCase((d) => void (d.aquifer.diffusion.tortuosity = v))} help="De = D₀·τ; τ between 0 and 1." />
+          </>
+        )}
+      </div>
+    </Section>
+  );
+}
