@@ -49,3 +49,4 @@ export type { ExactOptions } from './solutions/patchSource';
 export { erf, erfc, erfcx } from './special/erf';
 export * from './units';
 export { philox4x32, CounterStream, counterUniform, unitFromWords, checkSeed } from './random';
+export * from './uncertainty';
