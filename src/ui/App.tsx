@@ -38,7 +38,7 @@ export function App({ initialCase, slots }: AppProps) {
   return (
     <div class="dg-app" data-started={started}>
       <header class="dg-header">
-        <span class="dg-brand" aria-label="Downgradient">
+        <span class="dg-brand" role="img" aria-label="Downgradient">
           <svg viewBox="0 0 32 32" width="28" height="28" aria-hidden="true">
             <path d="M3 9h26M3 16h20M3 23h13" stroke="currentColor" stroke-width="3" stroke-linecap="round" />
             <path d="M22 20l6 3-6 3z" fill="currentColor" />

@@ -176,7 +176,6 @@ function LibraryView() {
                 type="button"
                 class="dg-lib-name"
                 onClick={() => void openStoredCase(it.id).then((ok) => ok && (sheet.value = null))}
-                aria-label={`Open ${it.name}`}
               >
                 <span class="dg-lib-title">{it.name}</span>
                 <span class="dg-lib-meta">

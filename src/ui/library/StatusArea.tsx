@@ -101,7 +101,7 @@ function Notices() {
               {n.action.label}
             </button>
           )}
-          <button type="button" class="dg-lib-btn" aria-label="Dismiss" onClick={() => dismiss(n.id)}>
+          <button type="button" class="dg-lib-btn" onClick={() => dismiss(n.id)}>
             OK
           </button>
         </div>

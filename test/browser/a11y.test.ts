@@ -1,0 +1,70 @@
+// Accessibility in real Chromium: axe-core (Deque's rules engine, from the npm registry) run on the
+// main screen, a demo case, the case sheet and the printable report, at 1024×768, 768×1024 and
+// 390×844. No finding of impact "serious" or "critical" is accepted (issue 13 item 20); minor and
+// moderate findings are written to test-artifacts/axe-*.json to be read.
+import { describe, expect, it } from 'vitest';
+import { writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import type { Page } from 'playwright-core';
+import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { openDemo, openFiles, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+
+const require = createRequire(import.meta.url);
+const axeSource: string = require('axe-core').source;
+const getBrowser = useBrowser();
+const PHONE = { width: 390, height: 844 };
+
+interface Finding {
+  id: string;
+  impact: string | null;
+  help: string;
+  nodes: { target: string[]; failureSummary?: string }[];
+}
+
+/** axe-core's findings on the page as it is now (Runtime.evaluate, so the app's CSP does not apply). */
+async function axe(page: Page): Promise<Finding[]> {
+  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(axeSource);
+  return page.evaluate(async () => {
+    const r = await (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Finding[] }> } }).axe.run(document, {
+      resultTypes: ['violations'],
+    });
+    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.map((n) => ({ target: n.target, failureSummary: n.failureSummary })) }));
+  });
+}
+
+const serious = (fs: Finding[]) => fs.filter((f) => f.impact === 'serious' || f.impact === 'critical');
+
+describe('accessibility (axe-core)', () => {
+  for (const [label, viewport] of [
+    ['landscape', LANDSCAPE],
+    ['portrait', PORTRAIT],
+    ['phone', PHONE],
+  ] as const) {
+    it(`no serious or critical finding at ${viewport.width}×${viewport.height}: main screen, demo case, case sheet, report`, async () => {
+      const w = await watchedPage(getBrowser(), viewport);
+      const { page, context } = w;
+      await page.goto(w.base);
+      await waitSaved(page);
+      const all: Record<string, Finding[]> = {};
+      all.main = await axe(page);
+      await openDemo(page);
+      await page.locator('[data-testid=results][data-stale=false]').waitFor({ timeout: 30_000 });
+      all.demo = await axe(page);
+      await page.getByRole('button', { name: 'Cases and files' }).click();
+      all.sheet = await axe(page);
+      await page.getByRole('tab', { name: 'Compare' }).click();
+      all.compare = await axe(page);
+      await page.getByRole('button', { name: 'Close' }).click();
+      await openFiles(page);
+      all.files = await axe(page);
+      await page.getByTestId('open-report').click();
+      await page.locator('[data-testid=report][data-ready=yes]').waitFor({ timeout: 30_000 });
+      all.report = await axe(page);
+      writeFileSync(artifactPath(`axe-${label}.json`), JSON.stringify(all, null, 2));
+      const bad = Object.fromEntries(Object.entries(all).map(([k, fs]) => [k, serious(fs).map((f) => `${f.id}: ${f.help} — ${f.nodes.map((n) => n.target.join(' ')).join(' | ')}`)]));
+      expect(bad).toEqual({ main: [], demo: [], sheet: [], compare: [], files: [], report: [] });
+      expect(w.pageErrors).toEqual([]);
+      await context.close();
+    });
+  }
+});
