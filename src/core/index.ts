@@ -50,3 +50,6 @@ export { erf, erfc, erfcx } from './special/erf';
 export * from './units';
 export { philox4x32, CounterStream, counterUniform, unitFromWords, checkSeed } from './random';
 export * from './uncertainty';
+export * from './trends/index';
+export { studentTCentral, studentTQuantile } from './stats/distributions';
+export { fitLine, type LineFit } from './stats/regression';
