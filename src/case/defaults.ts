@@ -4,7 +4,7 @@
  * US EPA 1996 Soil Screening Guidance for benzene's Koc, US EPA MCL for benzene's limit). The user
  * is expected to replace them with site values; the limit note says the local limit governs.
  */
-import { CASE_FORMAT, CASE_VERSION, type Case, type Dispersivity, type Position } from './schema';
+import { CASE_FORMAT, CASE_VERSION, DEFAULT_UNCERTAINTY, type Case, type Dispersivity, type Position } from './schema';
 
 /** Dispersivity estimated from the farthest receptor: Xu & Eckstein 1995 for αL, αT = αL/10
  * (Gelhar et al. 1992 high-reliability data) and αV = αL/100 (αV ≈ αT/10, Gelhar et al. 1992). */
@@ -87,5 +87,6 @@ export function newCase(opts: NewCaseOptions = {}): Case {
       viewTime: { value: 10, unit: 'yr' },
       depth: { value: 0, unit: 'm' },
     },
+    uncertainty: structuredClone(DEFAULT_UNCERTAINTY),
   };
 }

@@ -3,9 +3,10 @@
  * it against that version's schema, migrates it forward one version at a time and returns a
  * valid current case. Anything else is a `CaseFormatError` listing every problem in plain words.
  *
- * Versions: 1 — the compact hand-written form (see v1.ts); 2 — current (schema.ts).
+ * Versions: 1 — the compact hand-written form (see v1.ts); 2 — quantities with units, receptors;
+ * 3 — current (schema.ts): adds the uncertain inputs (`uncertainty`, default: none).
  */
-import { CASE_FORMAT, CASE_VERSION, caseSchema, type Case, type Dispersivity, type Receptor } from './schema';
+import { CASE_FORMAT, CASE_VERSION, DEFAULT_UNCERTAINTY, caseSchema, caseSchemaV2, type Case, type CaseV2, type Dispersivity, type Receptor } from './schema';
 import { caseSchemaV1, type CaseV1 } from './v1';
 import { issueMessages } from './issues';
 import { contaminantPreset, CONTAMINANT_PRESETS } from './presets';
@@ -20,7 +21,7 @@ export class CaseFormatError extends Error {
   }
 }
 
-export const KNOWN_VERSIONS = [1, 2] as const;
+export const KNOWN_VERSIONS = [1, 2, 3] as const;
 
 /** Stable short hash (FNV-1a, 32 bit) so a migrated v1 case gets the same id every time. */
 function fnv1a(text: string): string {
@@ -36,7 +37,7 @@ const m = (value: number) => ({ value, unit: 'm' });
 const d = (value: number) => ({ value, unit: 'd' });
 
 /** v1 (plain numbers in internal units) → v2 ({ value, unit } quantities, receptors). */
-export function migrateV1toV2(v1: CaseV1): Case {
+export function migrateV1toV2(v1: CaseV1): CaseV2 {
   const errors: string[] = [];
   const c = v1.contaminant;
   let preset = undefined as ReturnType<typeof contaminantPreset>;
@@ -47,7 +48,7 @@ export function migrateV1toV2(v1: CaseV1): Case {
         `contaminant.preset: ${JSON.stringify(c.preset)} is not a known preset; accepted values: ${CONTAMINANT_PRESETS.map((p) => JSON.stringify(p.id)).join(', ')}`,
       );
   }
-  let sorption: Case['contaminant']['sorption'] | null = null;
+  let sorption: CaseV2['contaminant']['sorption'] | null = null;
   if (c.koc !== undefined && c.kd !== undefined) errors.push('contaminant: give either koc or kd (L/kg), not both');
   else if (c.koc !== undefined) sorption = { mode: 'koc', koc: { value: c.koc, unit: 'L/kg' } };
   else if (c.kd !== undefined) sorption = { mode: 'kd', kd: { value: c.kd, unit: 'L/kg' } };
@@ -71,11 +72,11 @@ export function migrateV1toV2(v1: CaseV1): Case {
       verticalRatio: e.verticalRatio ?? def.verticalRatio,
     };
   }
-  const diffusion: Case['aquifer']['diffusion'] = a.diffusion
+  const diffusion: CaseV2['aquifer']['diffusion'] = a.diffusion
     ? { include: true, freeWater: { value: a.diffusion.freeWater, unit: 'm2/d' }, tortuosity: a.diffusion.tortuosity }
     : { ...DEFAULT_DIFFUSION, freeWater: { ...DEFAULT_DIFFUSION.freeWater } };
 
-  const flow: Case['site']['flow'] =
+  const flow: CaseV2['site']['flow'] =
     'heads' in v1.flow
       ? {
           method: 'heads',
@@ -154,6 +155,11 @@ export function migrateV1toV2(v1: CaseV1): Case {
   };
 }
 
+/** v2 → v3: no uncertain inputs (every input fixed, as v2 screened it). */
+export function migrateV2toV3(v2: CaseV2): Case {
+  return { ...v2, version: 3, uncertainty: structuredClone(DEFAULT_UNCERTAINTY) };
+}
+
 function isPlainObject(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
@@ -189,6 +195,11 @@ export function migrateCase(raw: unknown): Case {
     const r = caseSchemaV1.safeParse(raw, { reportInput: true });
     if (!r.success) throw new CaseFormatError(issueMessages(r.error));
     current = migrateV1toV2(r.data);
+  }
+  if (version <= 2) {
+    const r = caseSchemaV2.safeParse(current, { reportInput: true });
+    if (!r.success) throw new CaseFormatError(issueMessages(r.error));
+    current = migrateV2toV3(r.data);
   }
   const r = caseSchema.safeParse(current, { reportInput: true });
   if (!r.success) throw new CaseFormatError(issueMessages(r.error));

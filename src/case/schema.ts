@@ -13,7 +13,7 @@ import { z } from 'zod';
 import { UNITS, type Dimension } from '../core/units';
 
 export const CASE_FORMAT = 'downgradient-case';
-export const CASE_VERSION = 2;
+export const CASE_VERSION = 3;
 
 /** A quantity with a unit of the given dimension; the value must be finite. */
 export function quantity(dimension: Dimension) {
@@ -95,7 +95,7 @@ export type Dispersivity = z.infer<typeof dispersivity>;
 
 export const caseSchemaV2 = z.object({
   format: z.literal(CASE_FORMAT),
-  version: z.literal(CASE_VERSION),
+  version: z.literal(2),
   id,
   name: z.string().min(1).max(200),
   created: z.string().max(40),
@@ -163,5 +163,65 @@ export const caseSchemaV2 = z.object({
   }),
 });
 
-export type Case = z.infer<typeof caseSchemaV2>;
-export const caseSchema = caseSchemaV2;
+export type CaseV2 = z.infer<typeof caseSchemaV2>;
+
+// ---------------------------------------------------------------------------------------------
+// Version 3: everything this version adds is optional with a default, so a v2 file migrates by
+// taking the defaults (migrate.ts).
+
+/** The inputs that can carry a distribution instead of a fixed value (src/case/uncertainty.ts maps them). */
+export const UNCERTAIN_INPUTS = [
+  'hydraulicConductivity',
+  'gradient',
+  'flowDirection',
+  'effectivePorosity',
+  'fractionOrganicCarbon',
+  'koc',
+  'kd',
+  'halfLife',
+  'sourceHalfLife',
+  'dispersivityFactor',
+  'sourceConcentration',
+  'sourceWidth',
+  'sourceThickness',
+  'releaseDuration',
+] as const;
+export type UncertainInput = (typeof UNCERTAIN_INPUTS)[number];
+
+const truncate = z.object({ low: finite.nullable().optional(), high: finite.nullable().optional() }).nullable().optional();
+/** Numbers are finite here; their order and physical sense are checked when a run is prepared. */
+export const distribution = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('uniform'), low: finite, high: finite }),
+  z.object({ kind: z.literal('log-uniform'), low: finite, high: finite }),
+  z.object({ kind: z.literal('triangular'), low: finite, mode: finite, high: finite }),
+  z.object({ kind: z.literal('normal'), mean: finite, sd: finite }),
+  z.object({ kind: z.literal('lognormal'), median: finite, gsd: finite }),
+  /** low and high read as the `percentile`-th and (100 − percentile)-th percentiles */
+  z.object({ kind: z.literal('lognormal-range'), low: finite, high: finite, percentile: finite }),
+]);
+/** A distribution in the unit of `unit` (a unit of the input's dimension; none for dimensionless inputs). */
+export const uncertainValue = z.intersection(distribution, z.object({ unit: z.string().max(20).optional(), truncate, note: z.string().max(500).optional() }));
+export type UncertainValue = z.infer<typeof uncertainValue>;
+
+export const uncertaintySettings = z.object({
+  /** realisations per run; checked (1 … 50 000) when a run starts */
+  runs: finite.default(2000),
+  /** a whole number ≥ 0; the same seed and runs give the same results everywhere */
+  seed: finite.default(1),
+  inputs: z
+    .object(Object.fromEntries(UNCERTAIN_INPUTS.map((k) => [k, uncertainValue.optional()])) as Record<UncertainInput, z.ZodOptional<typeof uncertainValue>>)
+    .strict()
+    .default({}),
+  /** heads with ≥ 4 readings: sample gradient and direction from the plane fit's least-squares covariance */
+  headFit: z.boolean().default(false),
+});
+export type UncertaintySettings = z.infer<typeof uncertaintySettings>;
+export const DEFAULT_UNCERTAINTY: UncertaintySettings = { runs: 2000, seed: 1, inputs: {}, headFit: false };
+
+export const caseSchemaV3 = caseSchemaV2.extend({
+  version: z.literal(CASE_VERSION),
+  uncertainty: uncertaintySettings.default(DEFAULT_UNCERTAINTY),
+});
+
+export type Case = z.infer<typeof caseSchemaV3>;
+export const caseSchema = caseSchemaV3;

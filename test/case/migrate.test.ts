@@ -189,10 +189,10 @@ describe('versions and formats that cannot be read', () => {
     ['null', null, /one JSON object/],
     ['format missing', { version: 2 }, /format is missing/],
     ['foreign format', { format: 'something-else', version: 1 }, /"something-else" is not accepted.*not a Downgradient case file/],
-    ['version missing', { format: 'downgradient-case' }, /version is missing \(known versions: 1, 2\)/],
-    ['version as text', { format: 'downgradient-case', version: '2' }, /version: "2" is not accepted; known versions: 1, 2/],
+    ['version missing', { format: 'downgradient-case' }, /version is missing \(known versions: 1, 2, 3\)/],
+    ['version as text', { format: 'downgradient-case', version: '2' }, /version: "2" is not accepted; known versions: 1, 2, 3/],
     ['fractional version', { format: 'downgradient-case', version: 1.5 }, /version: 1.5 is not accepted/],
-    ['future version', { format: 'downgradient-case', version: 3 }, /version 3 is newer than this copy of Downgradient reads \(known versions: 1, 2\)/],
+    ['future version', { format: 'downgradient-case', version: 4 }, /version 4 is newer than this copy of Downgradient reads \(known versions: 1, 2, 3\)/],
     ['version 0', { format: 'downgradient-case', version: 0 }, /version: 0 is not a known case version/],
     ['v1 typo in a field name', { ...minimalV1(), horizn: 3 }, /horizn: unknown field/],
     ['v1 both koc and kd', { ...minimalV1(), contaminant: { koc: 1, kd: 1, limit: 1 } }, /give either koc or kd/],
@@ -205,5 +205,49 @@ describe('versions and formats that cannot be read', () => {
   test.each(table)('%s', (_label, raw, message) => {
     const errors = errorsOf(raw);
     expect(errors.join('\n')).toMatch(message);
+  });
+});
+
+describe('v2 → v3 migration (uncertain inputs)', () => {
+  test('a v1 and a v2 file open as v3 with every input fixed (no distributions), nothing else changed', async () => {
+    const { readFileSync } = await import('node:fs');
+    const v2 = JSON.parse(readFileSync('test/case/fixtures/v2-case.json', 'utf8'));
+    const c = migrateCase(structuredClone(v2));
+    expect(c.version).toBe(3);
+    expect(c.uncertainty).toEqual({ runs: 2000, seed: 1, inputs: {}, headFit: false });
+    const { uncertainty: _u, version: _v, ...rest } = c;
+    const { version: _v2, ...restV2 } = v2;
+    expect(JSON.parse(JSON.stringify(rest))).toEqual(JSON.parse(JSON.stringify({ ...restV2, parentId: restV2.parentId ?? null })));
+    const fromV1 = migrateCase(structuredClone(fullV1));
+    expect(fromV1.version).toBe(3);
+    expect(fromV1.uncertainty.inputs).toEqual({});
+  });
+
+  test('a v3 file keeps its distributions, units, truncation, seed and runs', () => {
+    const v3 = {
+      ...migrateCase(structuredClone(fullV1)),
+      uncertainty: {
+        runs: 5000,
+        seed: 77,
+        headFit: false,
+        inputs: {
+          hydraulicConductivity: { kind: 'lognormal', median: 12, gsd: 3, unit: 'K:m/d' },
+          effectivePorosity: { kind: 'normal', mean: 0.25, sd: 0.05, truncate: { low: 0.05, high: 0.4 } },
+        },
+      },
+    };
+    const c = migrateCase(JSON.parse(JSON.stringify(v3)));
+    expect(c.uncertainty.runs).toBe(5000);
+    expect(c.uncertainty.seed).toBe(77);
+    expect(c.uncertainty.inputs.hydraulicConductivity).toEqual({ kind: 'lognormal', median: 12, gsd: 3, unit: 'K:m/d' });
+    expect(c.uncertainty.inputs.effectivePorosity).toEqual({ kind: 'normal', mean: 0.25, sd: 0.05, truncate: { low: 0.05, high: 0.4 } });
+  });
+
+  test('a distribution of an unknown kind or with a missing parameter is refused with its path', () => {
+    const base = migrateCase(structuredClone(fullV1));
+    const bad = (inputs: unknown) => () => migrateCase(JSON.parse(JSON.stringify({ ...base, uncertainty: { runs: 10, seed: 1, inputs } })));
+    expect(bad({ halfLife: { kind: 'gamma', shape: 2 } })).toThrow(/uncertainty\.inputs\.halfLife/);
+    expect(bad({ halfLife: { kind: 'normal', mean: 2 } })).toThrow(/uncertainty\.inputs\.halfLife/);
+    expect(bad({ porosity: { kind: 'normal', mean: 2, sd: 1 } })).toThrow(/porosity/);
   });
 });
