@@ -10,6 +10,7 @@ export {
   domenicoGrid,
   patchSourceExactGrid,
 } from './contract';
+export { captureZoneSingleWell, wellFieldVelocity } from './flow/contract';
 export { seepageVelocity, retardationFactor } from './hydro';
 export { threePointGradient } from './headPlane';
 
@@ -53,3 +54,31 @@ export * from './uncertainty';
 export * from './trends/index';
 export { studentTCentral, studentTQuantile } from './stats/distributions';
 export { fitLine, type LineFit } from './stats/regression';
+export {
+  prepareFlow,
+  velocity as flowVelocity,
+  velocityGradient,
+  potential as dischargePotential,
+  drawdown,
+  flowWarnings,
+  insideAquifer,
+  DEFAULT_WELL_RADIUS,
+  type FlowInput,
+  type FlowWell,
+  type FlowBoundary,
+  type BoundaryKind,
+  type FlowField,
+} from './flow/field';
+export {
+  traceStreamline,
+  stagnationPoints,
+  dividingStreamlines,
+  captureZone,
+  sourceCapture,
+  positionAt,
+  type Streamline,
+  type CaptureZone,
+  type Isochrone,
+  type SourceCapture,
+  type StagnationPoint,
+} from './flow/trace';
