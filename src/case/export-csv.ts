@@ -11,6 +11,7 @@
  */
 import type { Case } from './schema';
 import { otherSolution, type ExportResults } from './export-results';
+import type { ReceptorFigure } from '../core';
 
 export type Cell = string | number | null;
 
@@ -55,7 +56,23 @@ export const RECEPTOR_TABLE_HEADER = [
   'limit (mg/L)',
   'horizon (d)',
   'solution',
+  'other solution',
+  'other solution: result',
+  'other solution: first reaches limit (d)',
+  'other solution: at horizon (mg/L)',
+  'other solution: peak (mg/L)',
+  'other solution: time of peak (d)',
+  'solutions differ in',
 ] as const;
+
+/** The figures named in the 'solutions differ in' column (core ReceptorFigure). */
+const FIGURE_COLUMN: Record<ReceptorFigure, string> = {
+  status: 'result',
+  arrival: 'first reaches limit',
+  atHorizon: 'at horizon',
+  peak: 'peak',
+  peakTime: 'time of peak',
+};
 
 const STATUS_WORDS: Record<string, string> = {
   'reaches-limit': 'reaches the limit',
@@ -64,25 +81,35 @@ const STATUS_WORDS: Record<string, string> = {
 };
 
 export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
-  const rows: Cell[][] = r.receptors.map((x) => [
-    x.name,
-    x.kind,
-    x.distance,
-    x.x,
-    x.y,
-    x.zTop,
-    x.zBottom,
-    STATUS_WORDS[x.status] ?? x.status,
-    x.arrival,
-    x.arrival === null ? null : x.arrival / YEAR_D,
-    x.atHorizon,
-    x.peak.c,
-    x.peak.t,
-    x.steady,
-    r.limit,
-    r.horizon,
-    r.solution,
-  ]);
+  const rows: Cell[][] = r.receptors.map((x) => {
+    const a = x.alternate ?? null;
+    return [
+      x.name,
+      x.kind,
+      x.distance,
+      x.x,
+      x.y,
+      x.zTop,
+      x.zBottom,
+      STATUS_WORDS[x.status] ?? x.status,
+      x.arrival,
+      x.arrival === null ? null : x.arrival / YEAR_D,
+      x.atHorizon,
+      x.peak.c,
+      x.peak.t,
+      x.steady,
+      r.limit,
+      r.horizon,
+      r.solution,
+      a?.solution ?? null,
+      a ? (STATUS_WORDS[a.status] ?? a.status) : null,
+      a?.arrival ?? null,
+      a?.atHorizon ?? null,
+      a?.peak.c ?? null,
+      a?.peak.t ?? null,
+      a ? a.differing.map((f) => FIGURE_COLUMN[f]).join('; ') : null,
+    ];
+  });
   return withCaution([...RECEPTOR_TABLE_HEADER], rows, r.caution);
 }
 

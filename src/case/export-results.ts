@@ -4,6 +4,7 @@
  * Kept structural so these pure exports depend on no UI code.
  */
 import type { FeatureCollection, MultiPolygon } from 'geojson';
+import type { ReceptorResult } from '../core';
 
 export interface ExportReceptorResult {
   id: string;
@@ -20,6 +21,8 @@ export interface ExportReceptorResult {
   peak: { c: number; t: number };
   steady: number;
   status: string;
+  /** the other solution's figures and how they compare (core compareSolutions); absent or null where it does not apply */
+  alternate?: ReceptorResult['alternate'];
   /** breakthrough curve at `curveTimes`, mg/L */
   curve?: ArrayLike<number>;
   curveAlternate?: ArrayLike<number> | null;

@@ -353,7 +353,7 @@ export function prepareCase(c: Case): PreparedCase {
   warnings.push(
     ...modelWarnings(
       model,
-      receptors.map((r) => ({ x: r.x, y: r.y, zTop: r.zTop, zBottom: r.zBottom })),
+      receptors.map((r) => ({ label: r.name || r.id, x: r.x, y: r.y, zTop: r.zTop, zBottom: r.zBottom })),
       limit,
       horizon,
     ).map((w) => ({ ...w, field: caseFieldOf(w.field) })),

@@ -29,7 +29,7 @@ export function screenCase(c: Case): ScreeningResult {
   const { model, limit, horizon, depth, viewTime } = prepared;
   const warnings: Warning[] = [...prepared.warnings];
   const results = prepared.receptors.map((receptor, i) => {
-    const result = evaluateReceptor(model, receptor, limit, horizon);
+    const result = evaluateReceptor(model, { ...receptor, label: receptor.name || receptor.id }, limit, horizon);
     for (const w of result.warnings) warnings.push({ ...w, field: w.field ?? `site.receptors[${i}]` });
     return { receptor, result };
   });

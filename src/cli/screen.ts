@@ -12,7 +12,7 @@ import { readFileSync, statSync } from 'node:fs';
 import { parseCaseFile, DEFAULT_MAX_BYTES } from '../case/io';
 import { screenCase, type ScreeningResult } from '../case/screen';
 import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
-import { ValidationError } from '../core';
+import { ValidationError, SOLUTIONS_DIFFER_ABOVE } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
 import { SOLUTION_LABEL } from '../case/export-results';
@@ -21,7 +21,6 @@ export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase
 type Format = 'table' | 'json' | 'csv';
 const YR = 365.25;
 /** relative difference above which the other solution's figures are printed beside the main ones */
-const SHOW_OTHER_ABOVE = 0.05;
 
 const HELP = `Downgradient screening from the command line.
 
@@ -103,13 +102,6 @@ const STATUS_WORDS: Record<string, string> = {
 
 type Row = ScreeningResult['results'][number];
 
-function othersDiffer(r: Row['result']): boolean {
-  const alt = r.alternate;
-  if (!alt) return false;
-  if ((r.arrival === null) !== (alt.arrival === null)) return true;
-  if (r.arrival !== null && alt.arrival !== null && Math.abs(r.arrival - alt.arrival) > SHOW_OTHER_ABOVE * Math.max(r.arrival, alt.arrival)) return true;
-  return alt.relDiff > SHOW_OTHER_ABOVE;
-}
 
 // ---------------------------------------------------------------------------------------------
 // table
@@ -197,14 +189,14 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
       STATUS_WORDS[x.status] ?? x.status,
     ]);
     L.push(...pad([head, ...rows]));
-    const others = s.results.filter(({ result }) => othersDiffer(result));
+    const others = s.results.filter(({ result }) => result.alternate?.showBoth);
     if (others.length) {
       L.push('');
-      L.push(`Where the other solution differs by more than ${SHOW_OTHER_ABOVE * 100} % or crosses the limit differently:`);
+      L.push(`Where the other solution gives another result, or any figure differs by more than ${SOLUTIONS_DIFFER_ABOVE * 100} %:`);
       for (const { receptor: r, result: x } of others) {
         const a = x.alternate!;
         L.push(
-          `  ${r.name || r.id}: ${SOLUTION_LABEL[a.solution]} gives arrival ${arrivalText(a.arrival, a.arrival === null ? 'below-limit' : '')}, ` +
+          `  ${r.name || r.id}: ${SOLUTION_LABEL[a.solution]}: ${STATUS_WORDS[a.status] ?? a.status}, arrival ${arrivalText(a.arrival, a.status)}, ` +
             `${conc(a.atHorizon, p.limit)} mg/L at the horizon, peak ${conc(a.peak.c, p.limit)} mg/L at ${years(a.peak.t)} yr (${sig(100 * a.relDiff, 2)} % apart)`,
         );
       }
@@ -255,7 +247,7 @@ function formatJson(c: Case, s: ScreeningResult, source: string): string {
       steady: x.steady,
       status: x.status,
       alternate: x.alternate,
-      othersDiffer: othersDiffer(x),
+      othersDiffer: x.alternate?.showBoth ?? false,
     })),
     warnings: s.warnings,
     caution: s.caution,
@@ -270,14 +262,16 @@ function formatCsv(s: ScreeningResult): string {
   const head: Cell[] = [
     'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
-    'other_solution', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
+    'other_solution', 'other_status', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
+    'solutions_differ_in',
   ];
   const rows: Cell[][] = s.results.map(({ receptor: r, result: x }) => {
     const a = x.alternate;
     return [
       r.id, r.name, r.kind, r.x, r.y, r.distance, r.zTop, r.zBottom, x.solution, x.arrival, x.atHorizon, x.peak.c, x.peak.t,
       x.steady, x.status, s.prepared.limit, s.prepared.horizon,
-      a?.solution ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
+      a?.solution ?? null, a?.status ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
+      a ? a.differing.join(' ') : null,
     ];
   });
   const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];

@@ -18,6 +18,8 @@ import { domenicoAdmits, validateModel } from './validateModel';
 import { ValidationError, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
 
 export interface Receptor {
+  /** what warnings call it (the receptor's name); they say "this point" without one */
+  readonly label?: string;
   readonly x: number;
   readonly y: number;
   /** screen top and bottom, depth below the water table (equal for a point) */
@@ -323,34 +325,92 @@ export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-h
 
 export interface SolutionFigures {
   solution: SolutionKind;
+  /** reaches the limit within the horizon; below it throughout; or only after the horizon */
+  status: ReceptorStatus;
   arrival: number | null;
   atHorizon: number;
   peak: { c: number; t: number };
   steady: number;
 }
 
+/** A figure the receptor table shows for each solution. */
+export type ReceptorFigure = 'status' | 'arrival' | 'atHorizon' | 'peak' | 'peakTime';
+
+/**
+ * The one rule for showing both solutions: the other solution's figures go beside the chosen
+ * one's whenever the status or whether the limit is reached within the horizon differs, or any
+ * figure (arrival time, concentration at the horizon, peak concentration, time of the peak)
+ * differs by more than this fraction of the larger of the two.
+ */
+export const SOLUTIONS_DIFFER_ABOVE = 0.05;
+
+export interface SolutionComparison {
+  /** the largest relative difference over the figures both solutions give (|a − b| / max(a, b)) */
+  relDiff: number;
+  /** the figures that differ under the rule (SOLUTIONS_DIFFER_ABOVE), in table order */
+  differing: ReceptorFigure[];
+  /** show both solutions' figures: `differing` is not empty */
+  showBoth: boolean;
+}
+
 export interface ReceptorResult extends SolutionFigures {
-  status: ReceptorStatus;
   /** the other solution's figures, where it applies (Domenico needs v > 0 and a source decline within its limit) */
-  alternate: (SolutionFigures & { relDiff: number }) | null;
+  alternate: (SolutionFigures & SolutionComparison) | null;
   warnings: Warning[];
 }
 
 function figures(m: ScreeningModel, kind: SolutionKind, r: Receptor, limit: number, horizon: number): SolutionFigures {
-  return {
-    solution: kind,
-    arrival: firstTimeAtLimit(m, r, limit, horizon, kind),
-    atHorizon: cAt(m, kind, r, horizon),
-    peak: peakConcentration(m, r, horizon, kind),
-    steady: cAt(m, kind, r, Infinity),
-  };
+  const arrival = firstTimeAtLimit(m, r, limit, horizon, kind);
+  const steady = cAt(m, kind, r, Infinity);
+  let status: ReceptorStatus;
+  if (arrival !== null) status = 'reaches-limit';
+  else {
+    const later = kinetics(m).continuousConstant ? steady : peakConcentration(m, r, 20 * horizon, kind).c;
+    status = later >= limit ? 'not-reached-in-horizon' : 'below-limit';
+  }
+  return { solution: kind, status, arrival, atHorizon: cAt(m, kind, r, horizon), peak: peakConcentration(m, r, horizon, kind), steady };
 }
 
-/** Relative difference |a − b| / max(a, b), 0 when both are negligible against the limit. */
+/** Relative difference |a − b| / max(a, b), 0 when both are negligible against the floor. */
 export function relativeDifference(a: number, b: number, floor: number): number {
   const big = Math.max(Math.abs(a), Math.abs(b));
   if (big <= floor) return 0;
   return Math.abs(a - b) / big;
+}
+
+/**
+ * Two solutions' figures for one receptor under the one rule (SOLUTIONS_DIFFER_ABOVE).
+ * Concentrations below a thousandth of the limit count as equal (both negligible), and so do
+ * their peak times; arrival times are compared where both reach the limit within the horizon.
+ */
+export function compareSolutions(a: SolutionFigures, b: SolutionFigures, limit: number): SolutionComparison {
+  const floor = 1e-3 * limit;
+  const peakMatters = Math.max(a.peak.c, b.peak.c) > floor;
+  const rel: [ReceptorFigure, number][] = [
+    ['arrival', a.arrival !== null && b.arrival !== null ? relativeDifference(a.arrival, b.arrival, 0) : 0],
+    ['atHorizon', relativeDifference(a.atHorizon, b.atHorizon, floor)],
+    ['peak', relativeDifference(a.peak.c, b.peak.c, floor)],
+    ['peakTime', peakMatters ? relativeDifference(a.peak.t, b.peak.t, 0) : 0],
+  ];
+  const differing: ReceptorFigure[] = [];
+  if (a.status !== b.status) differing.push('status');
+  for (const [f, d] of rel) if (d > SOLUTIONS_DIFFER_ABOVE || (f === 'arrival' && (a.arrival === null) !== (b.arrival === null))) differing.push(f);
+  return { relDiff: Math.max(...rel.map(([, d]) => d)), differing, showBoth: differing.length > 0 };
+}
+
+const FIGURE_WORDS: Record<Exclude<ReceptorFigure, 'status'>, string> = {
+  arrival: 'time to reach the limit',
+  atHorizon: 'concentration at the horizon',
+  peak: 'peak concentration',
+  peakTime: 'time of the peak',
+};
+
+const SOLUTION_NAME: Record<SolutionKind, string> = { domenico: 'the Domenico approximation', exact: 'the exact solution' };
+
+function statusWords(f: SolutionFigures): string {
+  if (f.status === 'reaches-limit') return 'reaches the limit within the horizon';
+  if (f.status === 'not-reached-in-horizon') return 'reaches the limit only after the horizon';
+  return 'stays below the limit';
 }
 
 /** Everything the receptor table shows, with the other solution beside it. */
@@ -364,41 +424,32 @@ export function evaluateReceptor(m: ScreeningModel, r: Receptor, limit: number, 
   let alternate: ReceptorResult['alternate'] = null;
   if (otherKind === 'exact' || domenicoAdmits(m)) {
     const alt = figures(m, otherKind, r, limit, horizon);
-    const floor = 1e-3 * limit;
-    const relDiff = Math.max(
-      relativeDifference(main.atHorizon, alt.atHorizon, floor),
-      relativeDifference(main.peak.c, alt.peak.c, floor),
-    );
-    alternate = { ...alt, relDiff };
+    alternate = { ...alt, ...compareSolutions(main, alt, limit) };
   }
-  let status: ReceptorStatus;
-  if (main.arrival !== null) status = 'reaches-limit';
-  else {
-    let later: number;
-    if (kinetics(m).continuousConstant) later = main.steady;
-    else later = peakConcentration(m, r, 20 * horizon, m.solution).c;
-    status = later >= limit ? 'not-reached-in-horizon' : 'below-limit';
-  }
+  const who = r.label ?? 'This point';
   if (r.x < 0)
     warnings.push({
       code: 'upgradient',
-      message: 'This point is upgradient of the source plane; the solutions represent no transport against the flow, so it shows zero.',
+      message: `${who} is upgradient of the source plane; the solutions represent no transport against the flow, so it shows zero.`,
     });
-  const dom = m.solution === 'domenico' ? main : alternate?.solution === 'domenico' ? alternate : null;
-  const exact = m.solution === 'exact' ? main : alternate?.solution === 'exact' ? alternate : null;
-  if (dom && exact && alternate && alternate.relDiff > 0.05) {
+  if (alternate?.showBoth) {
     const why: string[] = [];
     if (r.x > 0 && m.ax / r.x > 0.1) why.push('the longitudinal dispersivity is large against the distance');
     if (r.x > 0 && horizon < (r.x * m.R) / Math.max(m.v, 1e-300)) why.push('the horizon is earlier than the advective arrival');
     if (Math.abs(r.y) > m.width / 2) why.push('the point is off the source width');
+    const what =
+      alternate.status !== main.status || (alternate.arrival === null) !== (main.arrival === null)
+        ? `${SOLUTION_NAME[main.solution]} ${statusWords(main)}, ${SOLUTION_NAME[alternate.solution]} ${statusWords(alternate)}`
+        : `the solutions differ by ${(100 * alternate.relDiff).toFixed(1)} % (${alternate.differing
+            .filter((f): f is Exclude<ReceptorFigure, 'status'> => f !== 'status')
+            .map((f) => FIGURE_WORDS[f])
+            .join(', ')})`;
     warnings.push({
-      code: 'domenico-departs',
-      message: `Domenico and the exact solution differ here by ${(100 * alternate.relDiff).toFixed(1)} %${
-        why.length ? ` (${why.join('; ')})` : ''
-      }; both are shown.`,
+      code: 'solutions-differ',
+      message: `${who}: ${what}${why.length ? ` (${why.join('; ')})` : ''}; both are shown.`,
     });
   }
-  return { ...main, status, alternate, warnings };
+  return { ...main, alternate, warnings };
 }
 
 /** Model-level doubts for a set of receptors. */
@@ -413,12 +464,13 @@ export function modelWarnings(m: ScreeningModel, receptors: Receptor[], limit: n
       field: 'limit',
     });
   receptors.forEach((r, i) => {
+    const who = r.label ?? `Receptor ${i + 1}`;
     if (r.x < 0)
-      w.push({ code: 'upgradient', message: `Receptor ${i + 1} lies upgradient of the source; it shows zero.`, field: `receptors[${i}]` });
+      w.push({ code: 'upgradient', message: `${who} lies upgradient of the source; it shows zero.`, field: `receptors[${i}]` });
     else if (r.x > 0 && m.solution === 'domenico' && m.ax / r.x > 0.1)
       w.push({
         code: 'domenico-large-dispersivity',
-        message: `At receptor ${i + 1} the longitudinal dispersivity exceeds a tenth of the distance, where the Domenico approximation departs most from the exact solution.`,
+        message: `At ${who} the longitudinal dispersivity exceeds a tenth of the distance, where the Domenico approximation departs most from the exact solution.`,
         field: `receptors[${i}]`,
       });
   });

@@ -6,6 +6,7 @@
  */
 import type { PackedBands } from '../geo/contours';
 import type { ExportReceptorResult } from '../case/export-results';
+import type { ReceptorResult } from '../core';
 
 export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-horizon';
 
@@ -18,14 +19,9 @@ export interface WarningItem {
 /** A receptor's figures: the export layer's row (src/case/export-results.ts) with the other solution. */
 export interface ReceptorRow extends ExportReceptorResult {
   status: ReceptorStatus;
-  /** the other solution, when it applies; the screen shows it where it differs by more than a few percent */
-  alternate: {
-    solution: 'domenico' | 'exact';
-    arrival: number | null;
-    atHorizon: number;
-    peak: { c: number; t: number };
-    relDiff: number;
-  } | null;
+  /** the other solution, when it applies, compared with the chosen one under the one rule
+   * (core SOLUTIONS_DIFFER_ABOVE); everything that shows results shows it where `showBoth` */
+  alternate: ReceptorResult['alternate'];
   warnings: WarningItem[];
   /** breakthrough curve (screen average) at `curveTimes` for the chosen and the other solution */
   curve: number[];

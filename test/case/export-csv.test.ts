@@ -98,4 +98,21 @@ describe('screening tables', () => {
     expect(Number(rows[k][1])).toBeCloseTo(r.horizon / 365.25, 12); // Julian year, IAU
     expect(Number(rows[k][2])).toBe(r.receptors[0].curve![r.curveTimes!.length - 1]);
   });
+
+  it("receptor table: the other solution's result and figures beside the chosen one's, and which figures differ", () => {
+    const n = exportResultsFor(demoCase('nitrate-field-supply.json'));
+    const rows = readRfc4180(receptorTableCsv(n));
+    const col = (name: string) => RECEPTOR_TABLE_HEADER.indexOf(name as (typeof RECEPTOR_TABLE_HEADER)[number]);
+    const spring = rows.find((row) => row[0] === 'Spring below the lane')!;
+    const alt = n.receptors.find((x) => x.name === 'Spring below the lane')!.alternate!;
+    expect(spring[col('result')]).toBe('stays below the limit');
+    expect(spring[col('other solution')]).toBe('exact');
+    expect(spring[col('other solution: result')]).toBe('reaches the limit');
+    expect(Number(spring[col('other solution: first reaches limit (d)')])).toBe(alt.arrival);
+    expect(Number(spring[col('other solution: peak (mg/L)')])).toBe(alt.peak.c);
+    expect(spring[col('solutions differ in')]).toBe('result; first reaches limit');
+    const well = rows.find((row) => row[0] === 'Village supply well')!;
+    expect(well[col('solutions differ in')]).toBe('');
+  });
 });
+

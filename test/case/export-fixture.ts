@@ -42,6 +42,7 @@ export function exportResultsFor(c: Case, n = 64): ExportResults {
       peak: result.peak,
       steady: result.steady,
       status: result.status,
+      alternate: result.alternate,
       curve: breakthroughCurve(model, receptor, curveTimes),
       curveAlternate: null,
     })),

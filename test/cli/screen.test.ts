@@ -58,8 +58,19 @@ describe('formats', () => {
     const differing = s.results.filter((r) => (r.result.alternate?.relDiff ?? 0) > 0.05);
     expect(differing.length).toBeGreaterThan(0); // this demo case has such receptors
     const { out } = run(demo('fuel-release-farm-well'));
-    expect(out).toContain('Where the other solution differs by more than 5 %');
-    for (const r of differing) expect(out).toContain(`${r.receptor.name}: exact rectangular-source solution gives arrival`);
+    expect(out).toContain('Where the other solution gives another result, or any figure differs by more than 5 %');
+    for (const r of differing) expect(out).toContain(`${r.receptor.name}: exact rectangular-source solution: `);
+  });
+
+  test('table and csv: a receptor whose result differs between the solutions shows both (nitrate demo: the spring)', () => {
+    const { out } = run(demo('nitrate-field-supply'));
+    expect(out).toMatch(/Spring below the lane: exact rectangular-source solution: REACHES LIMIT, arrival 4\.\d+ yr/);
+    expect(out.replace(/\s+/g, ' ')).toMatch(/- Spring below the lane: the Domenico approximation stays below the limit, the exact solution reaches the limit/);
+    const csv = run(demo('nitrate-field-supply'), '--format=csv').out.split('\r\n');
+    const head = csv[0].split(',');
+    const spring = csv.find((l) => l.includes('Spring below the lane'))!.split(',');
+    expect(spring[head.indexOf('other_status')]).toBe('reaches-limit');
+    expect(spring[head.indexOf('solutions_differ_in')]).toBe('status arrival');
   });
 
   test('json: the engine figures in internal units, with units, warnings, caution and assumptions', () => {

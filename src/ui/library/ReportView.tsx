@@ -12,6 +12,7 @@ import { prepareCase, type PreparedCase } from '../../case/prepare';
 import { ASSUMPTIONS, SCREENING_CAUTION } from '../../case/caution';
 import { BreakthroughChart } from '../charts/Charts';
 import { fmtConc, fmtLength, fmtTime } from '../format';
+import { SOLUTIONS_DIFFER_ABOVE } from '../../core/results';
 import { saveState } from '../../app/session';
 import { resultsFor } from './outputs';
 import { inputRows } from './reportInputs';
@@ -155,12 +156,16 @@ export function Report() {
               </tbody>
             </table>
           )}
-          {results.receptors.some((r) => r.alternate) && (
-            <p class="dg-report-note">
-              Where the other solution differs by more than a few percent:{' '}
+          {results.receptors.some((r) => r.alternate?.showBoth) && (
+            <p class="dg-report-note" data-testid="report-other-solution">
+              Where the {results.solution === 'domenico' ? 'exact solution' : 'Domenico approximation'} gives another result, or any figure
+              differs by more than {SOLUTIONS_DIFFER_ABOVE * 100} %:{' '}
               {results.receptors
-                .filter((r) => r.alternate)
-                .map((r) => `${r.name}: ${r.alternate!.solution} gives peak ${fmtConc(r.alternate!.peak.c)}, limit ${fmtTime(r.alternate!.arrival)} (${(r.alternate!.relDiff * 100).toFixed(0)} % apart)`)
+                .filter((r) => r.alternate?.showBoth)
+                .map((r) => {
+                  const a = r.alternate!;
+                  return `${r.name}: ${STATUS[a.status] ?? a.status}, reaches the limit ${a.arrival === null ? 'not within the horizon' : `after ${fmtTime(a.arrival)}`}, ${fmtConc(a.atHorizon)} at the horizon, peak ${fmtConc(a.peak.c)} (${fmtTime(a.peak.t)})`;
+                })
                 .join('; ')}
               .
             </p>

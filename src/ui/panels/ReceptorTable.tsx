@@ -1,11 +1,12 @@
 /**
  * The receptor table: each receptor's status against the limit, where it lies relative to the
  * plume's centreline, when it reaches the limit, the concentration at the horizon and the peak;
- * the other solution's figures beneath the chosen one's where they differ.
+ * the other solution's figures beneath the chosen one's wherever the two differ (core compareSolutions).
  */
 import { selectedId } from '../view';
 import { fmtConc, fmtLength, fmtTime } from '../format';
 import type { Evaluation, ReceptorRow } from '../results';
+import { SOLUTIONS_DIFFER_ABOVE } from '../../core/results';
 
 const STATUS_TEXT: Record<ReceptorRow['status'], string> = {
   'reaches-limit': 'Reaches the limit within the horizon',
@@ -13,12 +14,24 @@ const STATUS_TEXT: Record<ReceptorRow['status'], string> = {
   'not-reached-in-horizon': 'Not reached within the horizon (reaches it later)',
 };
 
-/** Shown beside the chosen solution's figure when the other one differs by more than this. */
-const DIFFERS = 0.05;
+const SOLUTION_SHORT: Record<'domenico' | 'exact', string> = { domenico: 'Domenico', exact: 'exact' };
 
-function Alt({ show, text }: { show: boolean; text: string }) {
-  return show ? <span class="dg-alt">{text}</span> : null;
+/**
+ * The other solution's figure under the chosen one's, for a receptor whose solutions differ under
+ * the one rule (core SOLUTIONS_DIFFER_ABOVE): every figure of such a receptor, those that differ
+ * in bold.
+ */
+function Alt({ alt, figure, text }: { alt: ReceptorRow['alternate']; figure: 'arrival' | 'atHorizon' | 'peak'; text: string }) {
+  if (!alt?.showBoth) return null;
+  const strong = alt.differing.includes(figure) || (figure === 'peak' && alt.differing.includes('peakTime'));
+  return (
+    <span class={`dg-alt${strong ? ' dg-alt-differs' : ''}`}>
+      {SOLUTION_SHORT[alt.solution]}: {text}
+    </span>
+  );
 }
+
+const arrivalText = (a: number | null) => (a === null ? 'not within horizon' : fmtTime(a));
 
 export function ReceptorTable({ r }: { r: Evaluation }) {
   if (r.receptors.length === 0) return <p class="dg-help">Add receptors on the map to see what each one will see.</p>;
@@ -27,8 +40,8 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
     <div class="dg-table-wrap">
       <table class="dg-table" data-testid="receptor-table">
         <caption>
-          Each receptor against the limit {fmtConc(r.limit)} over {fmtTime(r.horizon)}. Where the {otherName} solution differs by more
-          than {DIFFERS * 100} %, its figure is shown under the chosen one.
+          Each receptor against the limit {fmtConc(r.limit)} over {fmtTime(r.horizon)}. Where the {otherName} solution gives another
+          result, or any figure differs by more than {SOLUTIONS_DIFFER_ABOVE * 100} %, its figures are shown under the chosen one's.
         </caption>
         <thead>
           <tr>
@@ -41,13 +54,14 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
         </thead>
         <tbody>
           {r.receptors.map((x) => {
-            const alt = x.alternate && x.alternate.relDiff > DIFFERS ? x.alternate : null;
-            const an = alt ? (alt.solution === 'exact' ? 'exact' : 'Domenico') : '';
+            const alt = x.alternate?.showBoth ? x.alternate : null;
+            const upgradient = x.x < 0;
             return (
               <tr
                 key={x.id}
                 data-receptor={x.id}
                 data-status={x.status}
+                data-both={alt ? 'true' : undefined}
                 class={selectedId.value === x.id ? 'dg-selected' : ''}
                 onClick={() => (selectedId.value = x.id)}
               >
@@ -55,23 +69,32 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
                   <button type="button" class="dg-linkish" onClick={() => (selectedId.value = x.id)}>
                     {x.name}
                   </button>
-                  <span class={`dg-status dg-status-${x.status}`}>{STATUS_TEXT[x.status]}</span>
+                  <span class={`dg-status dg-status-${x.status}`}>{upgradient ? 'Upgradient of the source: not reached' : STATUS_TEXT[x.status]}</span>
+                  {alt && (
+                    <span class={`dg-alt dg-status dg-status-${alt.status}${alt.status !== x.status ? ' dg-alt-differs' : ''}`} data-col="alt-status">
+                      {SOLUTION_SHORT[alt.solution]}: {STATUS_TEXT[alt.status]}
+                    </span>
+                  )}
                 </th>
                 <td>
-                  {fmtLength(x.x)} down
+                  {upgradient ? (
+                    <>{fmtLength(-x.x)} upgradient</>
+                  ) : (
+                    <>{fmtLength(x.x)} down</>
+                  )}
                   <span class="dg-alt">{fmtLength(Math.abs(x.y))} off</span>
                 </td>
                 <td data-col="arrival">
-                  {x.arrival === null ? 'not within horizon' : fmtTime(x.arrival)}
-                  <Alt show={!!alt} text={`${an}: ${alt?.arrival === null ? 'not within horizon' : fmtTime(alt?.arrival ?? null)}`} />
+                  {upgradient ? 'never (upgradient)' : arrivalText(x.arrival)}
+                  <Alt alt={alt} figure="arrival" text={arrivalText(alt?.arrival ?? null)} />
                 </td>
                 <td data-col="horizon">
-                  {fmtConc(x.atHorizon)}
-                  <Alt show={!!alt} text={`${an}: ${fmtConc(alt?.atHorizon ?? 0)}`} />
+                  {upgradient ? '—' : fmtConc(x.atHorizon)}
+                  <Alt alt={alt} figure="atHorizon" text={fmtConc(alt?.atHorizon ?? 0)} />
                 </td>
                 <td data-col="peak">
-                  {fmtConc(x.peak.c)} ({fmtTime(x.peak.t)})
-                  <Alt show={!!alt} text={`${an}: ${fmtConc(alt?.peak.c ?? 0)}`} />
+                  {upgradient ? '—' : `${fmtConc(x.peak.c)} (${fmtTime(x.peak.t)})`}
+                  <Alt alt={alt} figure="peak" text={`${fmtConc(alt?.peak.c ?? 0)} (${fmtTime(alt?.peak.t ?? null)})`} />
                 </td>
               </tr>
             );
