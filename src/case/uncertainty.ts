@@ -1,0 +1,497 @@
+/**
+ * A case's uncertain inputs → a Monte Carlo run: each realisation is the case with the sampled
+ * inputs substituted, mapped to an engine model, and screened at every receptor (first arrival at
+ * the limit within the horizon, concentration at the horizon, peak within it; the case's solution).
+ *
+ * Sampling: a Latin hypercube over the uncertain inputs (src/core/uncertainty), each input
+ * sampled in the unit its distribution states and converted to internal units at this edge, as a
+ * fixed value is. Realisation i depends only on (seed, runs, i), so a run split across workers
+ * gives the same numbers as one worker (tested). Inputs are sampled independently: correlation
+ * between inputs is not represented, and every result says so.
+ *
+ * Physical limits: a distribution that puts probability outside an input's physical range is
+ * refused when the run is planned (message naming the input); a realisation the engine still
+ * refuses (e.g. a source declining faster than Domenico can represent) is counted and reported,
+ * never silently dropped or clipped.
+ *
+ * Mapping (prepareCase's derivations, with the core's relations, redone per realisation):
+ *   v = K·i/nₑ; Kd = Koc·foc (or Kd); R = 1 + ρb·Kd/n; λ = ln 2/t½; γ = ln 2/(source t½);
+ *   dispersivities × the dispersivity factor; an estimated αL is re-scaled from the farthest
+ *   downgradient receptor when the flow direction moves the receptors (the estimate scaled from
+ *   the travel distance, used only when no receptor lies downgradient, is kept from the base case);
+ *   the flow direction rotates the receptors about the source (a traced footprint keeps the width
+ *   it has across the base direction).
+ */
+import type { Case, UncertainInput, UncertainValue } from './schema';
+import { UNCERTAIN_INPUTS } from './schema';
+import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
+import { unitDef, type Dimension } from '../core/units';
+import type { ScreeningModel } from '../core/model';
+import {
+  ValidationError,
+  decayRateFromHalfLife,
+  firstTimeAtLimit,
+  kdFromKoc,
+  longitudinalDispersivity,
+  peakConcentration,
+  retardationFactor,
+  screenAverage,
+  seepageVelocity,
+  validateModel,
+} from '../core';
+import { LatinHypercube, checkRuns, exceedance, makeSampler, percentiles, spearman, thirdsExceedance, type PhysicalRange, type Sampler } from '../core/uncertainty';
+import { checkSeed } from '../core/random';
+import { toFlow } from '../geo/flowFrame';
+import { normalizeDeg } from '../geo/angles';
+
+export interface InputDefinition {
+  /** in words, as a case officer reads it */
+  readonly label: string;
+  /** the case field it replaces */
+  readonly field: string;
+  /** null: dimensionless (or degrees for the flow direction) */
+  readonly dimension: Dimension | null;
+  /** what would narrow it: the measurement, in words a case officer can act on */
+  readonly measure: string;
+}
+
+export const INPUT_DEFINITIONS: Record<UncertainInput, InputDefinition> = {
+  hydraulicConductivity: {
+    label: 'hydraulic conductivity (K)',
+    field: 'aquifer.hydraulicConductivity',
+    dimension: 'conductivity',
+    measure: 'slug or pumping tests in wells between the release and the receptors',
+  },
+  gradient: { label: 'hydraulic gradient', field: 'site.flow.gradient', dimension: null, measure: 'water levels measured on one day in at least three surveyed wells' },
+  flowDirection: {
+    label: 'flow direction',
+    field: 'site.flow.azimuthDeg',
+    dimension: null,
+    measure: 'water levels measured on one day in at least three surveyed wells around the release',
+  },
+  effectivePorosity: { label: 'effective porosity', field: 'aquifer.effectivePorosity', dimension: null, measure: 'grain-size or core analysis of the aquifer material' },
+  fractionOrganicCarbon: {
+    label: 'fraction of organic carbon (foc)',
+    field: 'aquifer.fractionOrganicCarbon',
+    dimension: null,
+    measure: 'laboratory organic-carbon analysis of aquifer samples from below the water table',
+  },
+  koc: { label: 'Koc', field: 'contaminant.sorption.koc', dimension: 'partition', measure: 'a site-specific sorption (batch) test' },
+  kd: { label: 'Kd', field: 'contaminant.sorption.kd', dimension: 'partition', measure: 'a site-specific sorption (batch) test' },
+  halfLife: {
+    label: 'half-life (degradation)',
+    field: 'contaminant.halfLife',
+    dimension: 'time',
+    measure: 'concentrations along the plume over several monitoring rounds, to fit a degradation rate',
+  },
+  sourceHalfLife: { label: 'source half-life', field: 'source.sourceHalfLife', dimension: 'time', measure: 'repeated sampling in the source area over time' },
+  dispersivityFactor: {
+    label: 'dispersivity (factor)',
+    field: 'aquifer.dispersivity',
+    dimension: null,
+    measure: 'a transect of wells across the plume (or a tracer test) to see how far it spreads',
+  },
+  sourceConcentration: { label: 'source concentration', field: 'source.concentration', dimension: 'concentration', measure: 'groundwater samples from the source area' },
+  sourceWidth: { label: 'source width', field: 'site.source.width', dimension: 'length', measure: 'soil borings or direct-push sampling around the release' },
+  sourceThickness: { label: 'source thickness', field: 'source.thickness', dimension: 'length', measure: 'depth-discrete sampling at the source' },
+  releaseDuration: { label: 'release duration', field: 'source.duration', dimension: 'time', measure: 'site records of when the release started and stopped' },
+};
+
+const POSITIVE: PhysicalRange = { min: 0, max: Infinity, minOpen: true, maxOpen: true };
+const NON_NEGATIVE: PhysicalRange = { min: 0, max: Infinity, minOpen: false, maxOpen: true };
+
+/** The physical range of each input in its distribution's unit (only 0 and pure numbers as bounds, so unit-free). */
+function physicalRange(input: UncertainInput, c: Case): PhysicalRange {
+  switch (input) {
+    case 'gradient':
+      return { min: 0, max: 1, minOpen: true, maxOpen: true };
+    case 'flowDirection':
+      return { min: -Infinity, max: Infinity, minOpen: true, maxOpen: true };
+    case 'effectivePorosity':
+      return { min: 0, max: c.aquifer.totalPorosity, minOpen: true, maxOpen: false };
+    case 'fractionOrganicCarbon':
+      return { min: 0, max: 1, minOpen: false, maxOpen: false };
+    case 'koc':
+    case 'kd':
+      return NON_NEGATIVE;
+    default:
+      return POSITIVE;
+  }
+}
+
+/** The unit a distribution is read in: its own, else the fixed field's unit. */
+function defaultUnit(input: UncertainInput, c: Case): string | undefined {
+  const s = c.contaminant.sorption;
+  switch (input) {
+    case 'hydraulicConductivity':
+      return c.aquifer.hydraulicConductivity.unit;
+    case 'koc':
+      return s.mode === 'koc' ? s.koc.unit : 'L/kg';
+    case 'kd':
+      return s.mode === 'kd' ? s.kd.unit : 'L/kg';
+    case 'halfLife':
+      return c.contaminant.halfLife?.unit ?? 'd';
+    case 'sourceHalfLife':
+      return c.source.sourceHalfLife?.unit ?? 'd';
+    case 'sourceConcentration':
+      return c.source.concentration.unit;
+    case 'sourceWidth':
+      return c.site.source.width.unit;
+    case 'sourceThickness':
+      return c.source.thickness.unit;
+    case 'releaseDuration':
+      return c.source.duration?.unit ?? 'd';
+    default:
+      return undefined;
+  }
+}
+
+export interface PlannedInput {
+  readonly input: UncertainInput;
+  readonly definition: InputDefinition;
+  readonly distribution: UncertainValue;
+  /** the unit the distribution is stated in (undefined: dimensionless) */
+  readonly unit: string | undefined;
+  readonly sampler: Sampler;
+  /** internal units per distribution unit */
+  readonly factor: number;
+}
+
+/** The fixed values a realisation starts from that PreparedCase does not carry (internal units). */
+interface BaseInputs {
+  readonly totalPorosity: number;
+  readonly effectivePorosity: number;
+  readonly foc: number;
+  /** L/kg; null when sorption is given as Kd */
+  readonly koc: number | null;
+}
+
+export interface UncertaintyPlan {
+  readonly prepared: PreparedCase;
+  readonly base: BaseInputs;
+  readonly runs: number;
+  readonly seed: number;
+  readonly inputs: readonly PlannedInput[];
+}
+
+export interface RunOptions {
+  runs?: number;
+  seed?: number;
+}
+
+/**
+ * Check a case's uncertain inputs and prepare a run. Throws ValidationError naming the input
+ * (`uncertainty.inputs.<name>…`) or the run settings (`uncertainty.runs`, `uncertainty.seed`).
+ */
+export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan {
+  const prepared = prepareCase(c);
+  const runs = checkRuns(opts.runs ?? c.uncertainty.runs, 'uncertainty.runs');
+  const seed = checkSeed(opts.seed ?? c.uncertainty.seed, 'uncertainty.seed');
+  const inputs: PlannedInput[] = [];
+  for (const input of UNCERTAIN_INPUTS) {
+    const distribution = c.uncertainty.inputs[input];
+    if (!distribution) continue;
+    const field = `uncertainty.inputs.${input}`;
+    const definition = INPUT_DEFINITIONS[input];
+    if ((input === 'gradient' || input === 'flowDirection') && c.site.flow.method !== 'direction')
+      throw new ValidationError(field, distribution.kind, 'a flow given as direction and gradient', `${definition.label}: the flow comes from head readings; use the head-fit uncertainty instead`);
+    if (input === 'koc' && c.contaminant.sorption.mode !== 'koc')
+      throw new ValidationError(field, distribution.kind, 'sorption given as Koc', 'Koc: the case gives sorption as Kd; make Kd uncertain instead');
+    if (input === 'kd' && c.contaminant.sorption.mode !== 'kd')
+      throw new ValidationError(field, distribution.kind, 'sorption given as Kd', 'Kd: the case gives sorption as Koc; make Koc (or foc) uncertain instead');
+    if (input === 'sourceWidth' && c.site.source.footprint)
+      throw new ValidationError(field, distribution.kind, 'a release given as a point with a width', 'source width: the width comes from the traced footprint; make it a point release with a width to vary it');
+    let unit: string | undefined;
+    let factor = 1;
+    if (definition.dimension) {
+      unit = distribution.unit ?? defaultUnit(input, c);
+      let def;
+      try {
+        def = unitDef(unit ?? '');
+      } catch {
+        def = undefined;
+      }
+      if (!def || def.dimension !== definition.dimension)
+        throw new ValidationError(`${field}.unit`, unit, `a ${definition.dimension} unit`, `${definition.label}: "${unit}" is not a ${definition.dimension} unit`);
+      factor = def.factor;
+    } else if (distribution.unit) {
+      throw new ValidationError(`${field}.unit`, distribution.unit, 'no unit', `${definition.label} has no unit`);
+    }
+    const sampler = makeSampler(field, definition.label, distribution, physicalRange(input, c));
+    inputs.push({ input, definition, distribution, unit, sampler, factor });
+  }
+  if (!inputs.length && !c.uncertainty.headFit)
+    throw new ValidationError('uncertainty.inputs', 'none', 'at least one uncertain input', 'no input has a distribution: give at least one uncertain input a distribution to run a Monte Carlo screening');
+  const s = c.contaminant.sorption;
+  const base: BaseInputs = {
+    totalPorosity: c.aquifer.totalPorosity,
+    effectivePorosity: c.aquifer.effectivePorosity,
+    foc: c.aquifer.fractionOrganicCarbon,
+    koc: s.mode === 'koc' ? s.koc.value * unitDef(s.koc.unit).factor : null,
+  };
+  return { prepared, base, runs, seed, inputs };
+}
+
+/** Internal-unit values of one realisation's inputs (by input name). */
+export type RealisationValues = Partial<Record<UncertainInput, number>>;
+
+/** The sampled values of realisation i (internal units; degrees for the flow direction). */
+export function realisationValues(plan: UncertaintyPlan, lhs: LatinHypercube, i: number): RealisationValues {
+  const out: RealisationValues = {};
+  plan.inputs.forEach((p, k) => {
+    out[p.input] = p.sampler.sample(lhs.uniform(i, k)) * p.factor;
+  });
+  return out;
+}
+
+interface RealisationGeometry {
+  readonly model: ScreeningModel;
+  readonly receptors: readonly { x: number; y: number; zTop: number; zBottom: number }[];
+}
+
+/** The engine model and receptor positions of one realisation; throws ValidationError when the engine refuses it. */
+export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): RealisationGeometry {
+  const { prepared, base: fixed } = plan;
+  const c = prepared.derived;
+  const base = prepared.model;
+  const n = fixed.totalPorosity;
+  const K = v.hydraulicConductivity ?? c.K;
+  const gradient = v.gradient ?? c.gradient;
+  const ne = v.effectivePorosity ?? fixed.effectivePorosity;
+  let kd = c.kd;
+  if (v.kd !== undefined) kd = v.kd;
+  else if (fixed.koc !== null && (v.koc !== undefined || v.fractionOrganicCarbon !== undefined)) kd = kdFromKoc(v.koc ?? fixed.koc, v.fractionOrganicCarbon ?? fixed.foc);
+  const R = kd === c.kd ? base.R : retardationFactor(c.bulkDensity, kd, n);
+  let receptors: RealisationGeometry['receptors'] = prepared.receptors;
+  let ax = base.ax;
+  let ay = base.ay;
+  let az = base.az;
+  if (v.flowDirection !== undefined) {
+    const plane = normalizeDeg(v.flowDirection + (c.planeAzimuthDeg - c.azimuthDeg));
+    receptors = prepared.receptors.map((r) => ({ ...toFlow(prepared.sourceEN, plane, r.en), zTop: r.zTop, zBottom: r.zBottom }));
+    const rel = c.dispersivityRelation;
+    if (rel.mode === 'estimate' && rel.relation) {
+      const reach = Math.max(0, ...receptors.map((r) => r.x));
+      if (reach > 0) {
+        ax = longitudinalDispersivity(reach, rel.relation as Parameters<typeof longitudinalDispersivity>[1]).value;
+        ay = ax * rel.transverseRatio!;
+        az = ax * rel.verticalRatio!;
+      }
+    }
+  }
+  const f = v.dispersivityFactor ?? 1;
+  const model: ScreeningModel = {
+    ...base,
+    v: seepageVelocity(K, gradient, ne),
+    R,
+    ax: ax * f,
+    ay: ay * f,
+    az: az * f,
+    decay: v.halfLife !== undefined ? decayRateFromHalfLife(v.halfLife) : base.decay,
+    sourceDecay: v.sourceHalfLife !== undefined ? decayRateFromHalfLife(v.sourceHalfLife) : base.sourceDecay,
+    c0: v.sourceConcentration ?? base.c0,
+    width: v.sourceWidth ?? base.width,
+    thickness: v.sourceThickness ?? base.thickness,
+    duration: v.releaseDuration ?? base.duration,
+  };
+  validateModel(model);
+  return { model, receptors };
+}
+
+/** Per-realisation results of realisations [from, to), receptor-major: index (i − from)·receptors + r. */
+export interface RealisationBlock {
+  readonly from: number;
+  readonly to: number;
+  readonly receptors: number;
+  /** first time at the limit, d (Infinity: not within the horizon; NaN: realisation refused) */
+  readonly arrival: Float64Array;
+  /** concentration at the horizon, mg/L (NaN: refused) */
+  readonly atHorizon: Float64Array;
+  /** peak within the horizon, mg/L (NaN: refused) */
+  readonly peak: Float64Array;
+  /** the engine's message for each refused realisation (at most the first five) */
+  readonly refusals: { realisation: number; message: string }[];
+  readonly refusedCount: number;
+}
+
+/** Screen realisations [from, to) of a planned run. */
+export function runRealisations(plan: UncertaintyPlan, from: number, to: number, lhs = new LatinHypercube(plan.seed, plan.runs, plan.inputs.length)): RealisationBlock {
+  const nr = plan.prepared.receptors.length;
+  const count = to - from;
+  const arrival = new Float64Array(count * nr);
+  const atHorizon = new Float64Array(count * nr);
+  const peak = new Float64Array(count * nr);
+  const refusals: RealisationBlock['refusals'] = [];
+  let refusedCount = 0;
+  const { limit, horizon } = plan.prepared;
+  for (let i = from; i < to; i++) {
+    const row = (i - from) * nr;
+    try {
+      const { model, receptors } = realisationModel(plan, realisationValues(plan, lhs, i));
+      receptors.forEach((r, j) => {
+        const ch = screenAverage(model, r, horizon);
+        const pk = peakConcentration(model, r, horizon);
+        const t = pk.c >= limit ? firstTimeAtLimit(model, r, limit, horizon) : null;
+        arrival[row + j] = t ?? Infinity;
+        atHorizon[row + j] = ch;
+        peak[row + j] = pk.c;
+      });
+    } catch (e) {
+      if (!(e instanceof ValidationError)) throw e;
+      refusedCount++;
+      if (refusals.length < 5) refusals.push({ realisation: i, message: e.message });
+      arrival.fill(Number.NaN, row, row + nr);
+      atHorizon.fill(Number.NaN, row, row + nr);
+      peak.fill(Number.NaN, row, row + nr);
+    }
+  }
+  return { from, to, receptors: nr, arrival, atHorizon, peak, refusals, refusedCount };
+}
+
+/** Blocks in any order and split → one block of the whole run (realisation order). */
+export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBlock[]): RealisationBlock {
+  const nr = plan.prepared.receptors.length;
+  const n = plan.runs;
+  const arrival = new Float64Array(n * nr).fill(Number.NaN);
+  const atHorizon = new Float64Array(n * nr).fill(Number.NaN);
+  const peak = new Float64Array(n * nr).fill(Number.NaN);
+  const refusals: RealisationBlock['refusals'] = [];
+  let refusedCount = 0;
+  let done = 0;
+  for (const b of [...blocks].sort((a, b) => a.from - b.from)) {
+    arrival.set(b.arrival, b.from * nr);
+    atHorizon.set(b.atHorizon, b.from * nr);
+    peak.set(b.peak, b.from * nr);
+    refusals.push(...b.refusals);
+    refusedCount += b.refusedCount;
+    done += b.to - b.from;
+  }
+  return { from: 0, to: done, receptors: nr, arrival, atHorizon, peak, refusals: refusals.slice(0, 5), refusedCount };
+}
+
+export interface Percentiles {
+  readonly p5: number | null;
+  readonly p50: number | null;
+  readonly p95: number | null;
+}
+
+export interface Driver {
+  readonly input: UncertainInput;
+  readonly label: string;
+  /** Spearman rank correlation of the input with the receptor's peak concentration within the horizon */
+  readonly rankCorrelation: number;
+  readonly pExceedLowThird: number;
+  readonly pExceedHighThird: number;
+  readonly measure: string;
+}
+
+export interface ReceptorUncertainty {
+  readonly id: string;
+  readonly name: string;
+  /** realisations screened (runs minus refused) */
+  readonly evaluated: number;
+  /** P(reaching the limit within the horizon), its Monte Carlo standard error and 95 % Wilson interval */
+  readonly pExceed: number;
+  readonly pExceedSE: number;
+  readonly pExceedInterval: [number, number];
+  /** days; null: not within the horizon */
+  readonly arrival: Percentiles;
+  /** mg/L */
+  readonly concentrationAtHorizon: Percentiles;
+  readonly peak: Percentiles;
+  /** uncertain inputs, the strongest driver (largest |rank correlation|) first */
+  readonly drivers: Driver[];
+}
+
+export interface UncertaintyResult {
+  readonly runs: number;
+  readonly seed: number;
+  /** realisations done so far (a partial result while a run is going) */
+  readonly done: number;
+  readonly refusedCount: number;
+  readonly refusals: RealisationBlock['refusals'];
+  readonly solution: ScreeningModel['solution'];
+  readonly inputs: readonly { input: UncertainInput; label: string; unit: string | undefined; distribution: UncertainValue }[];
+  readonly receptors: ReceptorUncertainty[];
+  readonly caution: string;
+}
+
+export const UNCERTAINTY_CAUTION =
+  'The probabilities are conditional on the chosen distributions and on the model’s assumptions; inputs are sampled independently (correlation between inputs is not represented). They are not a site-specific risk figure.';
+
+const Q = [0.05, 0.5, 0.95];
+function pct(values: Float64Array): Percentiles {
+  const [p5, p50, p95] = percentiles(values, Q);
+  return { p5, p50, p95 };
+}
+
+/**
+ * Statistics of the realisations done so far (`block` from joinBlocks or runRealisations starting
+ * at 0). A realisation not yet done or refused (NaN) is left out; "never arrives" (Infinity) is
+ * counted as such.
+ */
+export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs = new LatinHypercube(plan.seed, plan.runs, plan.inputs.length)): UncertaintyResult {
+  const nr = block.receptors;
+  const n = block.to - block.from;
+  const receptors = plan.prepared.receptors.map((rec: PreparedReceptor, j): ReceptorUncertainty => {
+    const idx: number[] = [];
+    for (let i = 0; i < n; i++) if (!Number.isNaN(block.peak[i * nr + j])) idx.push(i);
+    const m = idx.length;
+    const arrival = Float64Array.from(idx, (i) => block.arrival[i * nr + j]);
+    const atH = Float64Array.from(idx, (i) => block.atHorizon[i * nr + j]);
+    const pk = Float64Array.from(idx, (i) => block.peak[i * nr + j]);
+    const exceeds = Uint8Array.from(arrival, (t) => (Number.isFinite(t) ? 1 : 0));
+    const k = exceeds.reduce((s, e) => s + e, 0);
+    const ex = exceedance(k, m);
+    const drivers = plan.inputs
+      .map((p, col): Driver => {
+        const u = Float64Array.from(idx, (i) => lhs.uniform(block.from + i, col));
+        const thirds = thirdsExceedance(u, exceeds);
+        return {
+          input: p.input,
+          label: p.definition.label,
+          rankCorrelation: m > 2 ? spearman(u, pk) : 0,
+          pExceedLowThird: thirds.low.p,
+          pExceedHighThird: thirds.high.p,
+          measure: p.definition.measure,
+        };
+      })
+      .sort((a, b) => Math.abs(b.rankCorrelation) - Math.abs(a.rankCorrelation));
+    return {
+      id: rec.id,
+      name: rec.name,
+      evaluated: m,
+      pExceed: ex.p,
+      pExceedSE: ex.se,
+      pExceedInterval: [ex.low, ex.high],
+      arrival: pct(arrival),
+      concentrationAtHorizon: pct(atH),
+      peak: pct(pk),
+      drivers,
+    };
+  });
+  return {
+    runs: plan.runs,
+    seed: plan.seed,
+    done: n,
+    refusedCount: block.refusedCount,
+    refusals: block.refusals,
+    solution: plan.prepared.model.solution,
+    inputs: plan.inputs.map((p) => ({ input: p.input, label: p.definition.label, unit: p.unit, distribution: p.distribution })),
+    receptors,
+    caution: UNCERTAINTY_CAUTION,
+  };
+}
+
+/** A whole run in this thread: plan, screen every realisation, summarise. */
+export function runUncertainty(c: Case, opts: RunOptions = {}): UncertaintyResult {
+  const plan = planUncertainty(c, opts);
+  const lhs = new LatinHypercube(plan.seed, plan.runs, plan.inputs.length);
+  return summariseRun(plan, runRealisations(plan, 0, plan.runs, lhs), lhs);
+}
+
+/** "if K is in its low third, 3 %; in its high third, 61 %" */
+export function driverSentence(d: Driver): string {
+  const pc = (p: number) => `${(100 * p).toFixed(p < 0.1 && p > 0 ? 1 : 0)} %`;
+  return `if ${d.label} is in its low third, ${pc(d.pExceedLowThird)}; in its high third, ${pc(d.pExceedHighThird)}`;
+}
