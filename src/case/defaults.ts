@@ -5,6 +5,7 @@
  * is expected to replace them with site values; the limit note says the local limit governs.
  */
 import { CASE_FORMAT, CASE_VERSION, DEFAULT_UNCERTAINTY, type Case, type Dispersivity, type Position } from './schema';
+import { DEFAULT_MONITORING } from './monitoring';
 
 /** Dispersivity estimated from the farthest receptor: Xu & Eckstein 1995 for αL, αT = αL/10
  * (Gelhar et al. 1992 high-reliability data) and αV = αL/100 (αV ≈ αT/10, Gelhar et al. 1992). */
@@ -88,5 +89,6 @@ export function newCase(opts: NewCaseOptions = {}): Case {
       depth: { value: 0, unit: 'm' },
     },
     uncertainty: structuredClone(DEFAULT_UNCERTAINTY),
+    monitoring: structuredClone(DEFAULT_MONITORING),
   };
 }

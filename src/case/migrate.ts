@@ -4,11 +4,13 @@
  * valid current case. Anything else is a `CaseFormatError` listing every problem in plain words.
  *
  * Versions: 1 — the compact hand-written form (see v1.ts); 2 — quantities with units, receptors;
- * 3 — current (schema.ts): adds the uncertain inputs (`uncertainty`, default: none).
+ * 3 — current (schema.ts): adds the uncertain inputs (`uncertainty`, default: none) and the
+ * monitoring wells and sampling results (`monitoring`, default: none).
  */
 import { CASE_FORMAT, CASE_VERSION, DEFAULT_UNCERTAINTY, caseSchema, caseSchemaV2, type Case, type CaseV2, type Dispersivity, type Receptor } from './schema';
 import { caseSchemaV1, type CaseV1 } from './v1';
 import { issueMessages } from './issues';
+import { DEFAULT_MONITORING } from './monitoring';
 import { contaminantPreset, CONTAMINANT_PRESETS } from './presets';
 import { DEFAULT_DIFFUSION, DEFAULT_DISPERSIVITY } from './defaults';
 
@@ -155,9 +157,9 @@ export function migrateV1toV2(v1: CaseV1): CaseV2 {
   };
 }
 
-/** v2 → v3: no uncertain inputs (every input fixed, as v2 screened it). */
+/** v2 → v3: no uncertain inputs (every input fixed, as v2 screened it), no monitoring data. */
 export function migrateV2toV3(v2: CaseV2): Case {
-  return { ...v2, version: 3, uncertainty: structuredClone(DEFAULT_UNCERTAINTY) };
+  return { ...v2, version: 3, uncertainty: structuredClone(DEFAULT_UNCERTAINTY), monitoring: structuredClone(DEFAULT_MONITORING) };
 }
 
 function isPlainObject(v: unknown): v is Record<string, unknown> {

@@ -10,23 +10,13 @@
  * the GeoJSON order of RFC 7946); in a local case [east, north] in metres from the site datum.
  */
 import { z } from 'zod';
-import { UNITS, type Dimension } from '../core/units';
 
 export const CASE_FORMAT = 'downgradient-case';
 export const CASE_VERSION = 3;
 
-/** A quantity with a unit of the given dimension; the value must be finite. */
-export function quantity(dimension: Dimension) {
-  return z.object({
-    value: z.number().refine(Number.isFinite, { message: 'must be a finite number' }),
-    unit: z.string().refine((u) => UNITS[u]?.dimension === dimension, {
-      message: `must be a ${dimension} unit (${Object.values(UNITS)
-        .filter((d) => d.dimension === dimension)
-        .map((d) => d.id)
-        .join(', ')})`,
-    }),
-  });
-}
+export { quantity } from './quantity';
+import { quantity } from './quantity';
+import { DEFAULT_MONITORING, monitoringSchema } from './monitoring';
 export type Quantity = { value: number; unit: string };
 
 const finite = z.number().refine(Number.isFinite, { message: 'must be a finite number' });
@@ -221,6 +211,8 @@ export const DEFAULT_UNCERTAINTY: UncertaintySettings = { runs: 2000, seed: 1, i
 export const caseSchemaV3 = caseSchemaV2.extend({
   version: z.literal(CASE_VERSION),
   uncertainty: uncertaintySettings.default(DEFAULT_UNCERTAINTY),
+  /** monitoring wells and sampling results (monitoring.ts); default: none */
+  monitoring: monitoringSchema.default(DEFAULT_MONITORING),
 });
 
 export type Case = z.infer<typeof caseSchemaV3>;

@@ -86,7 +86,7 @@ describe('round trip', () => {
   test('key order is the schema order whatever the input order', () => {
     const c = good();
     const reversed = JSON.parse(JSON.stringify(c, (_k, v) => (v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).reverse()) : v)));
-    expect(Object.keys(reversed)[0]).toBe('uncertainty');
+    expect(Object.keys(reversed)[0]).toBe('monitoring');
     expect(serializeCase(reversed)).toBe(serializeCase(c));
     expect(serializeCase(c).startsWith('{\n  "format": "downgradient-case",\n  "version": 3,\n')).toBe(true);
   });

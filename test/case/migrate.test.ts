@@ -215,12 +215,14 @@ describe('v2 → v3 migration (uncertain inputs)', () => {
     const c = migrateCase(structuredClone(v2));
     expect(c.version).toBe(3);
     expect(c.uncertainty).toEqual({ runs: 2000, seed: 1, inputs: {}, headFit: false });
-    const { uncertainty: _u, version: _v, ...rest } = c;
+    expect(c.monitoring).toEqual({ releaseDate: null, analyte: null, wells: [], results: [] });
+    const { uncertainty: _u, monitoring: _m, version: _v, ...rest } = c;
     const { version: _v2, ...restV2 } = v2;
     expect(JSON.parse(JSON.stringify(rest))).toEqual(JSON.parse(JSON.stringify({ ...restV2, parentId: restV2.parentId ?? null })));
     const fromV1 = migrateCase(structuredClone(fullV1));
     expect(fromV1.version).toBe(3);
     expect(fromV1.uncertainty.inputs).toEqual({});
+    expect(fromV1.monitoring.results).toEqual([]);
   });
 
   test('a v3 file keeps its distributions, units, truncation, seed and runs', () => {
