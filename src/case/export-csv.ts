@@ -1,8 +1,9 @@
 /**
  * CSV files of a screening (RFC 4180): the receptor table and the breakthrough curves. Records end
  * in CRLF; a field holding a comma, a double quote, CR or LF is quoted and its quotes doubled;
- * every record has the same number of fields. Numbers are written in JavaScript's shortest
- * round-trip form (no rounding), in internal units named in each header (m, d, mg/L).
+ * every record has the same number of fields. Numbers are in the units named in each header, with
+ * the file rule of src/case/numbers.ts (10 significant digits; zero within round-off written 0),
+ * so arithmetic noise such as 149.99999999999994 never reaches a spreadsheet.
  *
  * A text cell that starts with = + - @ or a tab/CR is prefixed with an apostrophe, so that a
  * spreadsheet does not run it as a formula (OWASP "CSV injection" guidance). Numeric cells are
@@ -12,6 +13,12 @@
 import type { Case } from './schema';
 import { otherSolution, type ExportResults } from './export-results';
 import type { ReceptorFigure } from '../core';
+import { fileNumber } from './numbers';
+
+const len = (v: number) => fileNumber(v, 'length');
+const time = (v: number | null) => (v === null ? null : fileNumber(v, 'time'));
+const years = (v: number | null) => (v === null ? null : fileNumber(v, 'time', v / YEAR_D));
+const conc = (v: number) => fileNumber(v, 'concentration');
 
 export type Cell = string | number | null;
 
@@ -86,27 +93,27 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
     return [
       x.name,
       x.kind,
-      x.distance,
-      x.x,
-      x.y,
-      x.zTop,
-      x.zBottom,
+      len(x.distance),
+      len(x.x),
+      len(x.y),
+      len(x.zTop),
+      len(x.zBottom),
       STATUS_WORDS[x.status] ?? x.status,
-      x.arrival,
-      x.arrival === null ? null : x.arrival / YEAR_D,
-      x.atHorizon,
-      x.peak.c,
-      x.peak.t,
-      x.steady,
-      r.limit,
-      r.horizon,
+      time(x.arrival),
+      years(x.arrival),
+      conc(x.atHorizon),
+      conc(x.peak.c),
+      time(x.peak.t),
+      conc(x.steady),
+      conc(r.limit),
+      time(r.horizon),
       r.solution,
       a?.solution ?? null,
       a ? (STATUS_WORDS[a.status] ?? a.status) : null,
-      a?.arrival ?? null,
-      a?.atHorizon ?? null,
-      a?.peak.c ?? null,
-      a?.peak.t ?? null,
+      time(a?.arrival ?? null),
+      a ? conc(a.atHorizon) : null,
+      a ? conc(a.peak.c) : null,
+      a ? time(a.peak.t) : null,
       a ? a.differing.map((f) => FIGURE_COLUMN[f]).join('; ') : null,
     ];
   });
@@ -129,7 +136,7 @@ export function breakthroughCsv(r: Omit<ExportResults, 'plume'>): string {
       cols.push(x.curveAlternate);
     }
   }
-  const rows: Cell[][] = times.map((t, i) => [t, t / YEAR_D, ...cols.map((col) => col[i])]);
+  const rows: Cell[][] = times.map((t, i) => [time(t), years(t), ...cols.map((col) => conc(col[i]))]);
   return withCaution(header, rows, r.caution);
 }
 

@@ -9,6 +9,7 @@ import type { ComponentChildren } from 'preact';
 import { UNITS, unitsOf, convert, type Dimension } from '../core/units';
 import type { Quantity } from '../case/schema';
 import { fieldIssue, fieldWarnings } from './validity';
+import { formatSig } from '../case/numbers';
 
 let uid = 0;
 function useId(prefix: string): string {
@@ -16,14 +17,8 @@ function useId(prefix: string): string {
   return id;
 }
 
-/** Up to 4 significant digits, no trailing zeros, plain notation where it reads well. */
-export function fmtNum(v: number, digits = 4): string {
-  if (!Number.isFinite(v)) return String(v);
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e-3 && a < 1e6) return String(Number(v.toPrecision(digits)));
-  return v.toExponential(digits - 1).replace(/\.?0+e/, 'e');
-}
+/** Up to 4 significant digits, no trailing zeros, plain notation where it reads well (one rule: src/case/numbers.ts). */
+export const fmtNum = formatSig;
 
 function parseNumber(text: string): number | null {
   const t = text.trim().replace(/\s/g, '').replace(',', '.');

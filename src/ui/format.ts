@@ -5,7 +5,7 @@
  */
 import { fromInternal, UNITS } from '../core/units';
 import { currentCase } from './state';
-import { fmtNum } from './fields';
+import { formatDuration, screenNumber } from '../case/numbers';
 
 export function lengthUnit(): string {
   const u = currentCase.value.site.source.width.unit;
@@ -16,20 +16,17 @@ export function concUnit(): string {
   return currentCase.value.contaminant.limit.unit;
 }
 
-export function fmtLength(m: number, digits = 3): string {
+export function fmtLength(m: number, digits?: number): string {
   const u = lengthUnit();
-  return `${fmtNum(fromInternal(m, u), digits)} ${UNITS[u].label}`;
+  return `${screenNumber(m, 'length', fromInternal(m, u), digits)} ${UNITS[u].label}`;
 }
 
-export function fmtConc(mgL: number, digits = 3): string {
+export function fmtConc(mgL: number, digits?: number): string {
   const u = concUnit();
-  if (mgL === 0) return `0 ${UNITS[u].label}`;
-  return `${fmtNum(fromInternal(mgL, u), digits)} ${UNITS[u].label}`;
+  return `${screenNumber(mgL, 'concentration', fromInternal(mgL, u), digits)} ${UNITS[u].label}`;
 }
 
-export function fmtTime(d: number | null, digits = 3): string {
+export function fmtTime(d: number | null, digits?: number): string {
   if (d === null) return '—';
-  if (d === Infinity) return 'steady state';
-  if (d < 365.25) return `${fmtNum(d, digits)} d`;
-  return `${fmtNum(d / 365.25, digits)} yr`;
+  return formatDuration(d, digits);
 }

@@ -3,9 +3,10 @@
 // cases; the case's own undo/redo history; the compare view reads base → what-if.
 // Stored cases are read with the raw IndexedDB API (offline-helpers.ts), not through the app.
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
-import { demoCase, openDemo, storedCases, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+import { demoCase, openDemo, openFiles, storedCases, useBrowser, waitForResults, waitSaved, watchedPage } from './offline-helpers';
 
 const getBrowser = useBrowser();
 const demo = demoCase();
@@ -37,6 +38,32 @@ describe('case sheet', () => {
     await expect.poll(() => page.locator('[data-testid=case-list]').textContent()).toContain(demo.name);
     // the restored case was the open one: it is open again
     await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).toBe(demo.name);
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
+
+  it('numbers: a receptor on the centreline is 0 m off it, on screen and in the CSV; no round-off noise in files', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page);
+    await page.getByRole('button', { name: /What is at risk/ }).click();
+    await page.getByRole('button', { name: /Receptor on the centreline/ }).click();
+    await waitForResults(page);
+    const rows = page.locator('[data-testid=receptor-table] tbody tr');
+    await expect.poll(() => rows.count()).toBe(demo.site.receptors.length + 1);
+    const added = (await rows.last().innerText()).replace(/\s+/g, ' ');
+    expect(added).toMatch(/ 0 m off/);
+    const table = (await page.locator('[data-testid=receptor-table]').innerText()).replace(/\s+/g, ' ');
+    expect(table).not.toMatch(/\d\.\d{5,}|e-1\d/); // no long digit runs, no 1e-1x noise
+    await openFiles(page);
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-table').click()]);
+    const csv = readFileSync((await dl.path())!, 'utf8').split('\r\n');
+    const last = csv[csv.length - 3].split(',');
+    expect(last[4]).toBe('0'); // across-flow y (m)
+    for (const line of csv.slice(1, -2))
+      for (const cell of line.split(',')) if (/^-?[\d.]+(e[-+]?\d+)?$/.test(cell)) expect(cell.replace(/^-|\.|e.*$/g, '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(10);
     expect(w.pageErrors).toEqual([]);
     await context.close();
   });

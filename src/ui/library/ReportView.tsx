@@ -13,6 +13,7 @@ import { ASSUMPTIONS, SCREENING_CAUTION } from '../../case/caution';
 import { BreakthroughChart } from '../charts/Charts';
 import { fmtConc, fmtLength, fmtTime } from '../format';
 import { SOLUTIONS_DIFFER_ABOVE } from '../../core/results';
+import { screenNumber } from '../../case/numbers';
 import { saveState } from '../../app/session';
 import { resultsFor } from './outputs';
 import { inputRows } from './reportInputs';
@@ -230,9 +231,9 @@ export function Report() {
         </table>
         {results && (
           <p class="dg-report-note">
-            Derived: seepage velocity v = K·i/nₑ = {Number(results.derived.v.toPrecision(4))} m/d · retardation factor R = {Number(results.derived.R.toPrecision(4))} · Kd ={' '}
-            {Number(results.derived.kd.toPrecision(4))} L/kg · dispersivities αL {Number(results.derived.ax.toPrecision(3))} m, αT {Number(results.derived.ay.toPrecision(3))} m, αV{' '}
-            {Number(results.derived.az.toPrecision(3))} m · decay rate λ = {Number(results.derived.decay.toPrecision(4))} 1/d.
+            Derived: seepage velocity v = K·i/nₑ = {screenNumber(results.derived.v, 'velocity')} m/d · retardation factor R = {screenNumber(results.derived.R, 'ratio')} · Kd ={' '}
+            {screenNumber(results.derived.kd, 'ratio')} L/kg · dispersivities αL {fmtLength(results.derived.ax)}, αT {fmtLength(results.derived.ay)}, αV{' '}
+            {fmtLength(results.derived.az)} · decay rate λ = {screenNumber(results.derived.decay, 'ratio')} 1/d.
           </p>
         )}
         {c.notes && (

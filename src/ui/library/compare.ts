@@ -6,6 +6,7 @@
  * input; bookkeeping fields (id, dates, parent link, notes) are not inputs and are left out.
  * Receptors are matched by id (a variant keeps its parent's receptor ids), then by name.
  */
+import { formatDuration, screenNumber } from '../../case/numbers';
 import type { Case } from '../../case/schema';
 import { UNITS } from '../../core/units';
 
@@ -179,9 +180,7 @@ export interface ReceptorChange {
   effect: string;
 }
 
-function years(d: number): string {
-  return d < 365.25 ? `${Number(d.toPrecision(3))} d` : `${Number((d / 365.25).toPrecision(3))} yr`;
-}
+const years = (d: number) => formatDuration(d);
 
 export function describeChange(a: ReceptorOutcome | null, b: ReceptorOutcome | null): string {
   if (!a) return 'only in the second case';
@@ -195,7 +194,7 @@ export function describeChange(a: ReceptorOutcome | null, b: ReceptorOutcome | n
   }
   if (a.peak.c > 0 && b.peak.c > 0 && !sameNumber(a.peak.c, b.peak.c)) {
     const r = b.peak.c / a.peak.c;
-    parts.push(`peak ×${Number(r.toPrecision(3))}`);
+    parts.push(`peak ×${screenNumber(r, 'ratio')}`);
   } else if (a.peak.c === 0 && b.peak.c > 0) parts.push('peak rises from zero');
   else if (a.peak.c > 0 && b.peak.c === 0) parts.push('peak falls to zero');
   return parts.length ? parts.join('; ') : 'no change';
