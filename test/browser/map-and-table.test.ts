@@ -60,3 +60,103 @@ describe('receptor table', () => {
     await w.context.close();
   });
 });
+
+/** Where the map's box, the limit band and each mark's label lie on screen. */
+async function mapLayout(page: Page) {
+  return page.evaluate(() => {
+    const box = (e: Element) => {
+      const r = e.getBoundingClientRect();
+      return { left: r.left, top: r.top, right: r.right, bottom: r.bottom };
+    };
+    const map = box(document.querySelector('.dg-map')!);
+    const limitBand = document.querySelector('path.dg-band-0');
+    return {
+      map,
+      band: limitBand ? box(limitBand) : null,
+      marks: [...document.querySelectorAll('.dg-mark-receptor, .dg-mark-head')].map((m) => box(m)),
+      labels: [...document.querySelectorAll('.dg-mark-label')].map((l) => ({ text: (l as HTMLElement).innerText, ...box(l) })),
+    };
+  });
+}
+
+type Box = { left: number; top: number; right: number; bottom: number };
+const inside = (b: Box, m: Box, slack = 1) => b.left >= m.left - slack && b.right <= m.right + slack && b.top >= m.top - slack && b.bottom <= m.bottom + slack;
+
+describe('map framing', () => {
+  for (const [name, viewport] of [['landscape', LANDSCAPE], ['portrait', PORTRAIT], ['phone', PHONE]] as const) {
+    it(`opens framed on the release, the receptors and the limit contour, labels inside the map (${name})`, async () => {
+      const w = await start(viewport);
+      const { page } = w;
+      // first visit: the plume at the view time is in view, not squeezed into a corner or cut off
+      let l = await mapLayout(page);
+      expect(l.band).not.toBeNull();
+      expect(inside(l.band!, l.map)).toBe(true);
+      const bandShare = ((l.band!.right - l.band!.left) * (l.band!.bottom - l.band!.top)) / ((l.map.right - l.map.left) * (l.map.bottom - l.map.top));
+      expect(bandShare).toBeGreaterThan(0.01);
+      await page.screenshot({ path: artifactPath(`map-first-visit-${name}.png`) });
+      // a demo with long labels near the edges: every mark and label inside the map
+      await openDemo(page, NITRATE);
+      await settled(page);
+      await page.waitForTimeout(300);
+      l = await mapLayout(page);
+      expect(inside(l.band!, l.map)).toBe(true);
+      for (const m of l.marks) expect(inside(m, l.map)).toBe(true);
+      for (const lab of l.labels) expect(inside(lab, l.map), lab.text).toBe(true);
+      await page.screenshot({ path: artifactPath(`map-nitrate-${name}.png`) });
+      expect(w.pageErrors).toEqual([]);
+      await w.context.close();
+    });
+  }
+
+  it('re-frames for a receptor placed out of view from the panel, and after the user pans only grows the view to show a new one', async () => {
+    const w = await start(LANDSCAPE, 'fuel-release-farm-well.json');
+    const { page } = w;
+    const addAt = async (metres: string, n: number) => {
+      await page.focus('button[data-action=add-receptor-downgradient]');
+      await page.keyboard.press('Enter');
+      await page.waitForFunction((k) => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === k, n);
+      const field = page.locator('[data-testid=receptor-list] li').nth(n - 1).locator('[data-field$="].position"] input.dg-num').first();
+      await field.fill(metres);
+      await field.press('Tab');
+      await settled(page);
+      await page.waitForTimeout(300);
+    };
+    await page.click('[data-section=risk] .dg-sec-toggle');
+    await addAt('2000', 3);
+    let l = await mapLayout(page);
+    expect(l.marks).toHaveLength(3);
+    for (const m of l.marks) expect(inside(m, l.map)).toBe(true);
+    // the user pans away: an edit that moves the plume does not pull the view back
+    const mapBox = l.map;
+    await page.mouse.move(mapBox.left + 200, mapBox.top + 300);
+    await page.mouse.down();
+    await page.mouse.move(mapBox.left + 500, mapBox.top + 150, { steps: 8 });
+    await page.mouse.up();
+    await page.waitForTimeout(1000); // the pan's inertia
+    // where the release sits on screen tells whether the view moved
+    const centre = () => page.evaluate(() => {
+      const r = document.querySelector('.dg-mark-source')!.getBoundingClientRect();
+      return [Math.round(r.left), Math.round(r.top)];
+    });
+    const before = await centre();
+    await page.click('[data-section=flow] .dg-sec-toggle');
+    const gradient = page.locator('[data-field="site.flow.gradient"] input');
+    await gradient.fill('0.008');
+    await gradient.press('Tab');
+    await settled(page);
+    expect(await centre()).toEqual(before);
+    // a receptor placed far outside the view still comes into view, and the panned-to area stays
+    await addAt('4000', 4);
+    l = await mapLayout(page);
+    for (const m of l.marks) expect(inside(m, l.map)).toBe(true);
+    // the frame button shows the whole case again
+    await page.click('button[aria-label="Show the whole case"]');
+    await page.waitForTimeout(300);
+    l = await mapLayout(page);
+    expect(inside(l.band!, l.map)).toBe(true);
+    for (const lab of l.labels) expect(inside(lab, l.map), lab.text).toBe(true);
+    await page.screenshot({ path: artifactPath('map-reframed-landscape.png') });
+    expect(w.pageErrors).toEqual([]);
+    await w.context.close();
+  });
+});

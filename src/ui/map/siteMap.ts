@@ -13,7 +13,7 @@ import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import { ringCentroid } from '../../geo/rings';
 import { currentCase, currentResults, updateCase, registerMapElement } from '../state';
-import { mapTool, selectedId, tileState } from '../view';
+import { mapTool, selectedId, tileState, playTime } from '../view';
 import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
@@ -27,6 +27,12 @@ export const toPosition = (ll: L.LatLng): Position => [ll.lng, ll.lat];
 
 /** Flow arrow length on screen, px (it shows a direction, not a distance). */
 const ARROW_PX = 110;
+/** Room kept between the framed case and the map's edge, px (a mark's touch target and a label's height). */
+const FRAME_PAD_PX = 44;
+/** The smallest ground a frame shows, m (a new case: the release alone). */
+const FRAME_MIN_SPAN_M = 120;
+/** A mark's label starts this far from the mark's centre, px (app.css .dg-mark-label). */
+const LABEL_GAP_PX = 38;
 
 export class SiteMap {
   readonly map: L.Map;
@@ -97,10 +103,11 @@ export class SiteMap {
     for (const l of [this.footprint, this.sourcePlane, this.flowLine, this.traceLine, this.source]) l.addTo(this.map);
 
     this.wireGestures();
-    this.fitCase(c);
+    this.fitTo(this.frameTargets(c, null));
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
     this.disposers.push(effect(() => this.syncCase(currentCase.value, selectedId.value, currentResults.value)));
     this.disposers.push(effect(() => this.syncPlume(currentPlume.value)));
+    this.disposers.push(effect(() => (playTime.value === null ? this.framePlume() : undefined)));
     this.disposers.push(
       effect(() => {
         // the source plane the solutions use: across the flow at the release, the width they use
@@ -122,6 +129,15 @@ export class SiteMap {
       }),
     );
     this.map.on('zoom move resize', () => this.syncFlowArrow(currentCase.peek(), currentResults.peek()?.derived.azimuthDeg ?? null));
+    // the user's own pan or zoom ends the map's framing (until the frame button)
+    this.map.on('movestart zoomstart', () => {
+      if (this.framing === 0) this.autoFrame = false;
+    });
+    this.map.on('moveend zoomend resize', () => this.placeLabels());
+    this.map.on('resize', () => {
+      if (this.autoFrame) this.fitTo(this.frameTargets(currentCase.peek(), this.framablePlume()));
+    });
+    new FrameControl({ position: 'topleft' }, () => this.frameCase()).addTo(this.map);
   }
 
   destroy(): void {
@@ -130,18 +146,117 @@ export class SiteMap {
     this.map.remove();
   }
 
-  fitCase(c: Case): void {
+  // ---- framing ---------------------------------------------------------------------------
+  /**
+   * The map frames the case by itself (on opening: the release, the receptors, the water-level
+   * wells and the limit contour at the view time; again when the plume or a point set from the
+   * panel leaves the view) until the user pans or zooms. After that it leaves the view alone, but
+   * a point placed outside it still comes into view (the view grows just enough). The frame
+   * button hands the framing back to the map.
+   */
+  private autoFrame = true;
+  /** whether the first plume of the opened case has been framed */
+  private plumeFramed = false;
+  /** > 0 while the map itself moves the view (so its move events are not taken for the user's) */
+  private framing = 0;
+
+  /** Everything the frame holds: the case's points, and the limit contour of the plume on screen. */
+  private frameTargets(c: Case, plume: PlumeLayer | null): L.LatLngBounds {
     const pts = [c.site.source.position, ...c.site.receptors.map((r) => r.position)];
     if (c.site.flow.method === 'heads') pts.push(...c.site.flow.readings.map((r) => r.position));
     if (c.site.source.footprint) pts.push(...c.site.source.footprint);
+    const b = L.latLngBounds(pts.map(toLatLng));
+    const limitBand = plume ? bandBounds(plume, 0) : null;
+    if (limitBand) b.extend(limitBand);
+    // a little ground around a lone point, so a new case does not open at the closest zoom
     const lf = makeLocalFrame(c.site.frame, c.site.datum);
-    const ens = pts.map((p) => lf.toEN(p));
-    const es = ens.map((p) => p[0]);
-    const ns = ens.map((p) => p[1]);
-    const pad = Math.max(60, 0.2 * Math.max(Math.max(...es) - Math.min(...es), Math.max(...ns) - Math.min(...ns)));
-    const sw = toLatLng(lf.fromEN([Math.min(...es) - pad, Math.min(...ns) - pad]));
-    const ne = toLatLng(lf.fromEN([Math.max(...es) + pad, Math.max(...ns) + pad]));
-    this.map.fitBounds(L.latLngBounds(sw, ne), { animate: false });
+    const sw = lf.toEN(toPosition(b.getSouthWest()));
+    const ne = lf.toEN(toPosition(b.getNorthEast()));
+    const pad = Math.max(0, (FRAME_MIN_SPAN_M - Math.max(ne[0] - sw[0], ne[1] - sw[1])) / 2);
+    if (pad > 0) {
+      b.extend(toLatLng(lf.fromEN([sw[0] - pad, sw[1] - pad])));
+      b.extend(toLatLng(lf.fromEN([ne[0] + pad, ne[1] + pad])));
+    }
+    return b;
+  }
+
+  /** The plume on screen when it shows the case as it is now, at its view time (not while playing). */
+  private framablePlume(): PlumeLayer | null {
+    const p = currentPlume.peek();
+    return p && p.caseStamp === currentCase.peek().modified && playTime.peek() === null ? p : null;
+  }
+
+  private fitTo(b: L.LatLngBounds): void {
+    if (!this.map.getSize().x) return;
+    this.framing++;
+    try {
+      this.map.fitBounds(b, { paddingTopLeft: [FRAME_PAD_PX + 16, FRAME_PAD_PX], paddingBottomRight: [FRAME_PAD_PX, FRAME_PAD_PX], animate: false, maxZoom: this.frame === 'local' ? 4 : 19 });
+    } finally {
+      this.framing--;
+    }
+    this.placeLabels();
+  }
+
+  /** Frame the whole case (the frame button, opening a case) and let the map frame it from now on. */
+  frameCase(): void {
+    this.autoFrame = true;
+    this.fitTo(this.frameTargets(currentCase.peek(), this.framablePlume()));
+  }
+
+  /** The view, inset by the padding the frame keeps (a point there is comfortably in view). */
+  private innerView(): L.LatLngBounds {
+    const size = this.map.getSize();
+    const inset = Math.min(FRAME_PAD_PX / 2, size.x / 4, size.y / 4);
+    return L.latLngBounds(
+      this.map.containerPointToLatLng(L.point(inset, size.y - inset)),
+      this.map.containerPointToLatLng(L.point(size.x - inset, inset)),
+    );
+  }
+
+  /** A point set from outside the map (the panel, an undo) lies outside the view: bring it in. */
+  private bringIntoView(ll: L.LatLng | L.LatLngBounds): void {
+    if (!this.map.getSize().x || this.innerView().contains(ll)) return;
+    if (this.autoFrame) this.fitTo(this.frameTargets(currentCase.peek(), this.framablePlume()));
+    else this.fitTo(this.map.getBounds().extend(ll));
+  }
+
+  /** A new plume for the case on screen: frame it on opening, and follow it while the map frames. */
+  private framePlume(): void {
+    const p = this.framablePlume();
+    if (!p || !this.autoFrame) return;
+    const band = bandBounds(p, 0);
+    if (!this.plumeFramed || (band && !this.innerView().contains(band))) this.fitTo(this.frameTargets(currentCase.peek(), p));
+    this.plumeFramed = true;
+  }
+
+  // ---- labels ----------------------------------------------------------------------------
+  private labelsQueued = false;
+  /**
+   * Keep every mark's label inside the map: to the right of the mark where it fits, else to the
+   * left, else on the roomier side cut short (the full name is in the mark's accessible name and
+   * in the receptor list).
+   */
+  placeLabels(): void {
+    if (this.labelsQueued) return;
+    this.labelsQueued = true;
+    requestAnimationFrame(() => {
+      this.labelsQueued = false;
+      const width = this.map.getSize().x;
+      if (!width) return;
+      for (const m of [...this.receptors.values(), ...this.heads.values()]) {
+        const el = m.getElement();
+        const label = el?.querySelector<HTMLElement>('.dg-mark-label');
+        if (!el || !label) continue;
+        label.style.maxWidth = '';
+        const x = this.map.latLngToContainerPoint(m.getLatLng()).x;
+        const need = label.offsetWidth + LABEL_GAP_PX;
+        const right = width - x, left = x;
+        const onLeft = need > right && (need <= left || left > right);
+        el.classList.toggle('dg-label-left', onLeft);
+        const room = (onLeft ? left : right) - LABEL_GAP_PX - 4;
+        if (need > room + LABEL_GAP_PX) label.style.maxWidth = `${Math.max(40, room)}px`;
+      }
+    });
   }
 
   // ---- basemap ---------------------------------------------------------------------------
@@ -192,6 +307,7 @@ export class SiteMap {
   // ---- case → layers ---------------------------------------------------------------------
   private syncCase(c: Case, sel: string | null, results: Evaluation | null): void {
     const src = c.site.source;
+    const moved: L.LatLng[] = [];
     if (!this.source.getLatLng().equals(toLatLng(src.position))) this.source.setLatLng(toLatLng(src.position));
     setPathLatLngs(this.footprint, src.footprint ? src.footprint.map(toLatLng) : []);
 
@@ -203,6 +319,7 @@ export class SiteMap {
       const key = `${r.kind}|${r.name}|${status}|${sel === r.id}`;
       if (!m) {
         m = L.marker(toLatLng(r.position), { draggable: true, keyboard: true, title: r.name });
+        if (this.synced) moved.push(m.getLatLng());
         const id = r.id;
         m.on('drag', () => this.moveReceptor(id, m!.getLatLng()));
         m.on('dragend', () => this.moveReceptor(id, m!.getLatLng()));
@@ -213,8 +330,12 @@ export class SiteMap {
       if ((m as unknown as { _dgKey?: string })._dgKey !== key) {
         m.setIcon(receptorIcon(r.kind, r.name, status, sel === r.id));
         (m as unknown as { _dgKey?: string })._dgKey = key;
+        this.placeLabels();
       }
-      if (!m.getLatLng().equals(toLatLng(r.position))) m.setLatLng(toLatLng(r.position));
+      if (!m.getLatLng().equals(toLatLng(r.position))) {
+        m.setLatLng(toLatLng(r.position));
+        moved.push(m.getLatLng());
+      }
     }
     for (const [id, m] of this.receptors) if (!seen.has(id)) (m.remove(), this.receptors.delete(id));
 
@@ -227,6 +348,7 @@ export class SiteMap {
       const key = `${label}|${sel === h.id}`;
       if (!m) {
         m = L.marker(toLatLng(h.position), { draggable: true, keyboard: true, title: h.name });
+        if (this.synced) moved.push(m.getLatLng());
         const id = h.id;
         m.on('dragend', () => this.moveHead(id, m!.getLatLng()));
         m.on('click', () => (selectedId.value = id));
@@ -236,11 +358,23 @@ export class SiteMap {
       if ((m as unknown as { _dgKey?: string })._dgKey !== key) {
         m.setIcon(headIcon(label, sel === h.id));
         (m as unknown as { _dgKey?: string })._dgKey = key;
+        this.placeLabels();
       }
-      if (!m.getLatLng().equals(toLatLng(h.position))) m.setLatLng(toLatLng(h.position));
+      if (!m.getLatLng().equals(toLatLng(h.position))) {
+        m.setLatLng(toLatLng(h.position));
+        moved.push(m.getLatLng());
+      }
     }
     for (const [id, m] of this.heads) if (!seenH.has(id)) (m.remove(), this.heads.delete(id));
+    this.synced = true;
+    // a point added or moved from outside the map (the panel, an undo) that is out of view
+    if (moved.length) {
+      const b = L.latLngBounds(moved);
+      if (!this.innerView().contains(b)) this.bringIntoView(b);
+    }
   }
+  /** whether the case's points have been put on the map once (later additions are new) */
+  private synced = false;
 
   /** The arrow from the release along the flow; its handle turns it when the flow is a direction. */
   private syncFlowArrow(c: Case, fittedAzimuth: number | null): void {
@@ -301,6 +435,7 @@ export class SiteMap {
     }
     // each band in turn to the back: the highest lowest, the limit band on top of them
     if (reorder) for (const band of this.bands) if (band && this.map.hasLayer(band)) band.bringToBack();
+    this.framePlume();
     const done = this.onPlumeDrawn;
     if (done && p) requestAnimationFrame(() => done(p));
   }
@@ -443,6 +578,42 @@ function setPathLatLngs(line: L.Polyline | L.Polygon, latlngs: L.LatLng[] | L.La
   pathKeys.set(line, key);
   line.setLatLngs(latlngs);
 }
+
+/** The extent of band k of the plume (null: the band is empty). */
+function bandBounds(p: PlumeLayer, k: number): L.LatLngBounds | null {
+  const { bandPolygons, polygonRings, ringVertices, coords } = p.bands;
+  if (k + 1 >= bandPolygons.length || bandPolygons[k] === bandPolygons[k + 1]) return null;
+  const v0 = ringVertices[polygonRings[bandPolygons[k]]];
+  const v1 = ringVertices[polygonRings[bandPolygons[k + 1]]];
+  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
+  for (let v = v0; v < v1; v++) {
+    const x = coords[2 * v], y = coords[2 * v + 1];
+    if (x < x0) x0 = x;
+    if (x > x1) x1 = x;
+    if (y < y0) y0 = y;
+    if (y > y1) y1 = y;
+  }
+  return v1 > v0 ? L.latLngBounds(L.latLng(y0, x0), L.latLng(y1, x1)) : null;
+}
+
+/** The frame button: shows the whole case again and lets the map frame it from then on. */
+const FrameControl = L.Control.extend({
+  initialize(this: L.Control & { onFrame: () => void }, options: L.ControlOptions, onFrame: () => void) {
+    L.Util.setOptions(this, options);
+    this.onFrame = onFrame;
+  },
+  onAdd(this: L.Control & { onFrame: () => void }) {
+    const bar = L.DomUtil.create('div', 'leaflet-bar dg-frame-control');
+    const b = L.DomUtil.create('button', 'dg-frame-btn', bar) as HTMLButtonElement;
+    b.type = 'button';
+    b.setAttribute('aria-label', 'Show the whole case');
+    b.title = 'Show the whole case';
+    b.innerHTML = '<svg viewBox="0 0 24 24" width="24" height="24" aria-hidden="true"><path d="M3 9V3h6M15 3h6v6M21 15v6h-6M9 21H3v-6" fill="none" stroke="currentColor" stroke-width="2.5" stroke-linecap="round"/></svg>';
+    L.DomEvent.disableClickPropagation(bar);
+    L.DomEvent.on(b, 'click', () => this.onFrame());
+    return bar;
+  },
+}) as unknown as new (options: L.ControlOptions, onFrame: () => void) => L.Control;
 
 /** Band k of the plume as Leaflet polygons (rings without the closing vertex, which Leaflet drops). */
 function bandLatLngs(p: PlumeLayer, k: number): L.LatLng[][][] {
