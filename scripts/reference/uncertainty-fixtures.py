@@ -65,4 +65,14 @@ for k, n in [(0, 50), (3, 50), (25, 50), (50, 50), (612, 1000), (1, 20000)]:
 # Kolmogorov–Smirnov critical value at the 1 % level for large n: sqrt(-ln(0.005)/2) (asymptotic)
 out["ksAsymptotic01"] = float(stats.kstwobign.ppf(0.99))
 
+# least-squares plane h = a x + b y + c through head readings: covariance of (a, b) = s² (XᵀX)⁻¹ with
+# the full (uncentred) design matrix [x, y, 1], by numpy.linalg (another route than the centred one)
+pts = np.array([[0.0, 0.0, 20.31], [150.0, 10.0, 20.02], [30.0, 120.0, 20.20], [160.0, 140.0, 19.93], [80.0, 60.0, 20.14]])
+X = np.column_stack([pts[:, 0], pts[:, 1], np.ones(len(pts))])
+coef, res, *_ = np.linalg.lstsq(X, pts[:, 2], rcond=None)
+r = pts[:, 2] - X @ coef
+s2 = float(r @ r) / (len(pts) - 3)
+cov = s2 * np.linalg.inv(X.T @ X)
+out["plane"] = {"points": pts.tolist(), "a": float(coef[0]), "b": float(coef[1]), "caa": float(cov[0, 0]), "cab": float(cov[0, 1]), "cbb": float(cov[1, 1])}
+
 print(json.dumps(out, indent=1))

@@ -21,6 +21,9 @@
  *   the travel distance, used only when no receptor lies downgradient, is kept from the base case);
  *   the flow direction rotates the receptors about the source (a traced footprint keeps the width
  *   it has across the base direction).
+ * Flow from four or more head readings (the head-fit option): the plane's slope (a, b) is sampled
+ * from the least-squares covariance of the fit (core/uncertainty/planeFit.ts) through two more
+ * Latin hypercube columns, giving each realisation's gradient and direction.
  */
 import type { Case, UncertainInput, UncertainValue } from './schema';
 import { UNCERTAIN_INPUTS } from './schema';
@@ -39,7 +42,22 @@ import {
   seepageVelocity,
   validateModel,
 } from '../core';
-import { LatinHypercube, checkRuns, exceedance, makeSampler, percentiles, spearman, thirdsExceedance, type PhysicalRange, type Sampler } from '../core/uncertainty';
+import {
+  LatinHypercube,
+  checkRuns,
+  exceedance,
+  makeSampler,
+  normalQuantile,
+  percentiles,
+  planeSlopeCovariance,
+  ranks,
+  samplePlaneSlope,
+  spearman,
+  thirdsExceedance,
+  type PhysicalRange,
+  type PlaneSlopeCovariance,
+  type Sampler,
+} from '../core/uncertainty';
 import { checkSeed } from '../core/random';
 import { toFlow } from '../geo/flowFrame';
 import { normalizeDeg } from '../geo/angles';
@@ -172,7 +190,21 @@ export interface UncertaintyPlan {
   readonly runs: number;
   readonly seed: number;
   readonly inputs: readonly PlannedInput[];
+  /** heads with the head-fit option: the fitted slope's covariance (two more sampled columns) */
+  readonly headPlane: PlaneSlopeCovariance | null;
+  /** sampled columns of the Latin hypercube: one per input, two for the head plane */
+  readonly columns: number;
 }
+
+/** The Latin hypercube of a plan (each worker builds its own; the same numbers everywhere). */
+export function designOf(plan: UncertaintyPlan): LatinHypercube {
+  return new LatinHypercube(plan.seed, plan.runs, plan.columns);
+}
+
+export const HEAD_FIT_DRIVERS = {
+  gradient: { label: 'hydraulic gradient (from the head readings)', measure: 'more water levels, in wells spread around the release and measured on one day' },
+  flowDirection: { label: 'flow direction (from the head readings)', measure: 'more water levels, in wells spread around the release and measured on one day' },
+} as const;
 
 export interface RunOptions {
   runs?: number;
@@ -220,7 +252,19 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
     const sampler = makeSampler(field, definition.label, distribution, physicalRange(input, c));
     inputs.push({ input, definition, distribution, unit, sampler, factor });
   }
-  if (!inputs.length && !c.uncertainty.headFit)
+  let headPlane: PlaneSlopeCovariance | null = null;
+  if (c.uncertainty.headFit) {
+    const flow = c.site.flow;
+    if (flow.method !== 'heads' || flow.readings.length < 4)
+      throw new ValidationError('uncertainty.headFit', true, 'a flow fitted to 4 or more head readings', 'the flow direction and gradient uncertainty from the plane fit needs the flow from at least 4 head readings (3 fix the plane exactly)');
+    headPlane = planeSlopeCovariance(
+      flow.readings.map((r) => {
+        const [x, y] = prepared.frame.toEN(r.position);
+        return { x, y, head: r.head.value * unitDef(r.head.unit).factor };
+      }),
+    );
+  }
+  if (!inputs.length && !headPlane)
     throw new ValidationError('uncertainty.inputs', 'none', 'at least one uncertain input', 'no input has a distribution: give at least one uncertain input a distribution to run a Monte Carlo screening');
   const s = c.contaminant.sorption;
   const base: BaseInputs = {
@@ -229,7 +273,7 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
     foc: c.aquifer.fractionOrganicCarbon,
     koc: s.mode === 'koc' ? s.koc.value * unitDef(s.koc.unit).factor : null,
   };
-  return { prepared, base, runs, seed, inputs };
+  return { prepared, base, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0) };
 }
 
 /** Internal-unit values of one realisation's inputs (by input name). */
@@ -241,6 +285,14 @@ export function realisationValues(plan: UncertaintyPlan, lhs: LatinHypercube, i:
   plan.inputs.forEach((p, k) => {
     out[p.input] = p.sampler.sample(lhs.uniform(i, k)) * p.factor;
   });
+  if (plan.headPlane) {
+    const k = plan.inputs.length;
+    const { a, b } = samplePlaneSlope(plan.headPlane, normalQuantile(lhs.uniform(i, k)), normalQuantile(lhs.uniform(i, k + 1)));
+    const d = plan.prepared.derived;
+    out.gradient = Math.hypot(a, b);
+    // down the slope, degrees clockwise from north in the datum plane, then true (less the meridian convergence)
+    out.flowDirection = normalizeDeg((Math.atan2(-a, -b) * 180) / Math.PI - (d.planeAzimuthDeg - d.azimuthDeg));
+  }
   return out;
 }
 
@@ -257,6 +309,7 @@ export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): R
   const n = fixed.totalPorosity;
   const K = v.hydraulicConductivity ?? c.K;
   const gradient = v.gradient ?? c.gradient;
+  if (!(gradient > 0 && gradient < 1)) throw new ValidationError('site.flow.gradient', gradient, 'in (0, 1)');
   const ne = v.effectivePorosity ?? fixed.effectivePorosity;
   let kd = c.kd;
   if (v.kd !== undefined) kd = v.kd;
@@ -315,7 +368,7 @@ export interface RealisationBlock {
 }
 
 /** Screen realisations [from, to) of a planned run. */
-export function runRealisations(plan: UncertaintyPlan, from: number, to: number, lhs = new LatinHypercube(plan.seed, plan.runs, plan.inputs.length)): RealisationBlock {
+export function runRealisations(plan: UncertaintyPlan, from: number, to: number, lhs = designOf(plan)): RealisationBlock {
   const nr = plan.prepared.receptors.length;
   const count = to - from;
   const arrival = new Float64Array(count * nr);
@@ -412,6 +465,8 @@ export interface UncertaintyResult {
   readonly refusals: RealisationBlock['refusals'];
   readonly solution: ScreeningModel['solution'];
   readonly inputs: readonly { input: UncertainInput; label: string; unit: string | undefined; distribution: UncertainValue }[];
+  /** the head-fit option: the fitted slope's covariance (null: not used) */
+  readonly headPlane: PlaneSlopeCovariance | null;
   readonly receptors: ReceptorUncertainty[];
   readonly caution: string;
 }
@@ -430,7 +485,7 @@ function pct(values: Float64Array): Percentiles {
  * at 0). A realisation not yet done or refused (NaN) is left out; "never arrives" (Infinity) is
  * counted as such.
  */
-export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs = new LatinHypercube(plan.seed, plan.runs, plan.inputs.length)): UncertaintyResult {
+export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs = designOf(plan)): UncertaintyResult {
   const nr = block.receptors;
   const n = block.to - block.from;
   const receptors = plan.prepared.receptors.map((rec: PreparedReceptor, j): ReceptorUncertainty => {
@@ -456,6 +511,7 @@ export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs
           measure: p.definition.measure,
         };
       })
+      .concat(headPlaneDrivers(plan, lhs, block.from, idx, pk, exceeds))
       .sort((a, b) => Math.abs(b.rankCorrelation) - Math.abs(a.rankCorrelation));
     return {
       id: rec.id,
@@ -478,15 +534,35 @@ export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs
     refusals: block.refusals,
     solution: plan.prepared.model.solution,
     inputs: plan.inputs.map((p) => ({ input: p.input, label: p.definition.label, unit: p.unit, distribution: p.distribution })),
+    headPlane: plan.headPlane,
     receptors,
     caution: UNCERTAINTY_CAUTION,
   };
 }
 
+/** Drivers for the head-fit gradient and direction: rank correlation and thirds by their sampled values. */
+function headPlaneDrivers(plan: UncertaintyPlan, lhs: LatinHypercube, from: number, idx: number[], pk: Float64Array, exceeds: Uint8Array): Driver[] {
+  if (!plan.headPlane || idx.length < 3) return [];
+  const values = idx.map((i) => realisationValues(plan, lhs, from + i));
+  return (['gradient', 'flowDirection'] as const).map((input) => {
+    const x = Float64Array.from(values, (v) => v[input]!);
+    const r = ranks(x);
+    const thirds = thirdsExceedance(Float64Array.from(r, (q) => (q - 0.5) / r.length), exceeds);
+    return {
+      input,
+      label: HEAD_FIT_DRIVERS[input].label,
+      rankCorrelation: spearman(x, pk),
+      pExceedLowThird: thirds.low.p,
+      pExceedHighThird: thirds.high.p,
+      measure: HEAD_FIT_DRIVERS[input].measure,
+    };
+  });
+}
+
 /** A whole run in this thread: plan, screen every realisation, summarise. */
 export function runUncertainty(c: Case, opts: RunOptions = {}): UncertaintyResult {
   const plan = planUncertainty(c, opts);
-  const lhs = new LatinHypercube(plan.seed, plan.runs, plan.inputs.length);
+  const lhs = designOf(plan);
   return summariseRun(plan, runRealisations(plan, 0, plan.runs, lhs), lhs);
 }
 

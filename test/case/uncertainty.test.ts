@@ -19,7 +19,9 @@ import stdlibErfc from '@stdlib/math-base-special-erfc';
 import { migrateCase } from '../../src/case/migrate';
 import type { Case } from '../../src/case/schema';
 import {
+  designOf,
   joinBlocks,
+  realisationValues,
   planUncertainty,
   realisationModel,
   runRealisations,
@@ -28,7 +30,6 @@ import {
   type UncertaintyPlan,
 } from '../../src/case/uncertainty';
 import { peakConcentration } from '../../src/core';
-import { LatinHypercube } from '../../src/core/uncertainty';
 
 const load = (f: string): Case => migrateCase(JSON.parse(readFileSync(`cases/${f}`, 'utf8')));
 /** a demo case, with the limit replaced where given (the nitrate demo's wells stay below 10 mg/L with Domenico at any K) */
@@ -163,7 +164,7 @@ describe('a run is the same however it is split', () => {
       [0, 60],
       [120, 180],
       [60, 120],
-    ].map(([a, b]) => runRealisations(planUncertainty(u), a, b, new LatinHypercube(11, 240, plan.inputs.length)));
+    ].map(([a, b]) => runRealisations(planUncertainty(u), a, b, designOf(plan)));
     const four = summariseRun(plan, joinBlocks(plan, blocks));
     expect(four).toEqual(one);
     expect(one.receptors[0].drivers.map((d) => d.input)).toContain('hydraulicConductivity');
@@ -186,5 +187,42 @@ describe('bad settings are refused with a message naming the input', () => {
     ['gradient with flow from heads', { inputs: { gradient: { kind: 'uniform', low: 0.001, high: 0.01 } } }, /hydraulic gradient: the flow comes from head readings/],
   ])('%s', (_n, u, msg) => {
     expect(run(u as Partial<Case['uncertainty']>)).toThrow(msg);
+  });
+});
+
+describe('flow from four or more heads: gradient and direction from the plane fit', () => {
+  it('samples the direction with the spread the fit covariance gives (first-order propagation, within 10 %)', () => {
+    const c = load('nitrate-field-supply.json');
+    const plan = planUncertainty({ ...c, uncertainty: { runs: 2000, seed: 5, headFit: true, inputs: {} } });
+    const hp = plan.headPlane!;
+    expect(hp.dof).toBeGreaterThanOrEqual(1);
+    const lhs = designOf(plan);
+    const dirs: number[] = [];
+    const grads: number[] = [];
+    for (let i = 0; i < plan.runs; i++) {
+      const v = realisationValues(plan, lhs, i);
+      dirs.push(v.flowDirection!);
+      grads.push(v.gradient!);
+    }
+    const mean = (x: number[]) => x.reduce((s, y) => s + y, 0) / x.length;
+    const sd = (x: number[]) => Math.sqrt(mean(x.map((y) => (y - mean(x)) ** 2)));
+    // θ = atan2(−a, −b): ∂θ/∂a = −b/g², ∂θ/∂b = a/g² (radians), g² = a² + b² (first-order / delta method)
+    const g2 = hp.a * hp.a + hp.b * hp.b;
+    const da = -hp.b / g2;
+    const db = hp.a / g2;
+    const sdTheta = (Math.sqrt(da * da * hp.caa + 2 * da * db * hp.cab + db * db * hp.cbb) * 180) / Math.PI;
+    const unwrapped = dirs.map((d) => ((d - plan.prepared.derived.azimuthDeg + 540) % 360) - 180);
+    expect(Math.abs(mean(unwrapped))).toBeLessThan(4 * (sdTheta / Math.sqrt(plan.runs)) + 0.05 * sdTheta);
+    expect(sd(unwrapped) / sdTheta).toBeGreaterThan(0.9);
+    expect(sd(unwrapped) / sdTheta).toBeLessThan(1.1);
+    expect(mean(grads) / plan.prepared.derived.gradient).toBeCloseTo(1, 1);
+  });
+
+  it('ranks the head-fit gradient and direction among the drivers; refuses the option with a direction-given flow', () => {
+    const c = load('nitrate-field-supply.json');
+    const res = runUncertainty({ ...c, uncertainty: { runs: 300, seed: 5, headFit: true, inputs: { hydraulicConductivity: { kind: 'lognormal', median: 15, gsd: 2, unit: 'K:m/d' } } } });
+    expect(res.receptors[0].drivers.map((d) => d.input).sort()).toEqual(['flowDirection', 'gradient', 'hydraulicConductivity']);
+    const fuel = load('fuel-release-farm-well.json');
+    expect(() => planUncertainty({ ...fuel, uncertainty: { runs: 10, seed: 1, headFit: true, inputs: {} } })).toThrow(/needs the flow from at least 4 head readings/);
   });
 });

@@ -15,6 +15,8 @@ import {
   normalCdf,
   normalQuantile,
   percentiles,
+  planeSlopeCovariance,
+  samplePlaneSlope,
   spearman,
   stratumPermutation,
   thirdsExceedance,
@@ -190,5 +192,36 @@ describe('distributions that are refused, naming the input', () => {
   it('accepts a normal porosity truncated inside (0, 1]', () => {
     const s = makeSampler('p', 'porosity', { kind: 'normal', mean: 0.3, sd: 0.1, truncate: { low: 0, high: 1 } }, POROSITY);
     expect(s.sample(1e-12)).toBeGreaterThan(0);
+  });
+});
+
+describe('head-plane slope covariance', () => {
+  it('equals s²(XᵀX)⁻¹ of the uncentred design from numpy.linalg (fixture), to 1e-10 relative', () => {
+    const p = fixtures.plane;
+    const c = planeSlopeCovariance(p.points.map(([x, y, head]) => ({ x, y, head })));
+    expect(c.a).toBeCloseTo(p.a, 12);
+    expect(c.b).toBeCloseTo(p.b, 12);
+    for (const k of ['caa', 'cab', 'cbb'] as const) expect(Math.abs(c[k] - p[k])).toBeLessThanOrEqual(1e-10 * Math.abs(p[k]));
+    expect(c.dof).toBe(2);
+  });
+  it('samples (a, b) with that covariance (sample covariance of 20 000 within 5 %)', () => {
+    const p = fixtures.plane;
+    const c = planeSlopeCovariance(p.points.map(([x, y, head]) => ({ x, y, head })));
+    const lhs = new LatinHypercube(3, 20000, 2);
+    let saa = 0;
+    let sab = 0;
+    let sbb = 0;
+    for (let i = 0; i < 20000; i++) {
+      const { a, b } = samplePlaneSlope(c, normalQuantile(lhs.uniform(i, 0)), normalQuantile(lhs.uniform(i, 1)));
+      saa += (a - c.a) ** 2 / 20000;
+      sab += ((a - c.a) * (b - c.b)) / 20000;
+      sbb += (b - c.b) ** 2 / 20000;
+    }
+    expect(saa / c.caa).toBeCloseTo(1, 1);
+    expect(sbb / c.cbb).toBeCloseTo(1, 1);
+    expect(Math.abs(sab - c.cab)).toBeLessThan(0.05 * Math.sqrt(c.caa * c.cbb));
+  });
+  it('needs four readings', () => {
+    expect(() => planeSlopeCovariance([{ x: 0, y: 0, head: 1 }, { x: 1, y: 0, head: 1 }, { x: 0, y: 1, head: 2 }])).toThrow(/at least 4 head readings/);
   });
 });
