@@ -226,3 +226,13 @@ describe('flow from four or more heads: gradient and direction from the plane fi
     expect(() => planUncertainty({ ...fuel, uncertainty: { runs: 10, seed: 1, headFit: true, inputs: {} } })).toThrow(/needs the flow from at least 4 head readings/);
   });
 });
+
+describe('demo cases with distributions', () => {
+  it.each(['fuel-release-farm-well.json', 'nitrate-field-supply.json'])('%s plans and runs (100 realisations, none refused)', (f) => {
+    const c = load(f);
+    expect(Object.keys(c.uncertainty.inputs).length).toBeGreaterThanOrEqual(4);
+    const res = runUncertainty(c, { runs: 100 });
+    expect(res.refusedCount).toBe(0);
+    expect(res.receptors.every((r) => r.pExceed >= 0 && r.pExceed <= 1 && r.drivers.length >= 4)).toBe(true);
+  });
+});
