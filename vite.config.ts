@@ -70,6 +70,10 @@ export default defineConfig(({ command }) => ({
     // the service worker exists only in a build; keyed on the command, not on NODE_ENV (a build
     // run from the test runner has NODE_ENV=test, so import.meta.env.PROD is false there)
     __DG_SERVICE_WORKER__: JSON.stringify(command === 'build'),
+    // the latency samples and the `__downgradient` hook (src/ui/evaluation.ts): only in builds made
+    // for measurement, which pass `define: { __DG_INSTRUMENTED__: 'true' }` inline
+    // (bench/ui-latency.mjs, test/browser/global-setup.ts); never in `npm run build` / `npm start`
+    __DG_INSTRUMENTED__: 'false',
   },
   plugins: [
     preact(),

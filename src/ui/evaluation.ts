@@ -153,7 +153,15 @@ export interface LatencySample {
   timing: PlumeLayer['timing'];
 }
 
-/** Input-to-contours latencies, newest last (read by the latency benchmark). */
+/**
+ * True only in a build made for measurement: bench/ui-latency.mjs and the browser tests build with
+ * `define: { __DG_INSTRUMENTED__: 'true' }`; vite.config.ts defines it false, so `npm run build`
+ * leaves the samples and the `__downgradient` hook out of the bundle (unit tests leave it undefined).
+ */
+declare const __DG_INSTRUMENTED__: boolean | undefined;
+const INSTRUMENTED = typeof __DG_INSTRUMENTED__ !== 'undefined' && __DG_INSTRUMENTED__;
+
+/** Input-to-contours latencies, newest last (kept only in an instrumented build). */
 export const latencySamples: LatencySample[] = [];
 
 function describe(e: unknown): string {
@@ -214,22 +222,7 @@ export function startEvaluation(): () => void {
       currentPlume.value = p; // the map updates the band paths synchronously in its effect
       const layerAt = performance.now();
       afterPaint(() => {
-        const drawnAt = performance.now();
-        const origin = performance.timeOrigin;
-        latencySamples.push({
-          inputAt: j.inputAt,
-          postedAt: j.postedAt ?? j.inputAt,
-          workerStartAt: p.timing.startedAt - origin,
-          workerEndAt: p.timing.finishedAt - origin,
-          receivedAt,
-          layerAt,
-          drawnAt,
-          gridSize: p.gridSize,
-          solution: p.solution,
-          kernel: p.kernel,
-          timing: p.timing,
-        });
-        if (latencySamples.length > 200) latencySamples.splice(0, 100);
+        if (INSTRUMENTED) recordSample(j, p, receivedAt, layerAt, performance.now());
         // the results (which carry the plume for export and the report) re-render after the
         // contours are on screen; the receptor job starts after a pause in editing
         publishEval();
@@ -277,14 +270,33 @@ export function startEvaluation(): () => void {
       clearPause();
     }
   });
-  // read by the latency benchmark (bench/ui-latency.mjs): samples and the case they were taken on
-  (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek() };
+  // read by the latency benchmark (bench/ui-latency.mjs) and the browser tests: the samples and the
+  // case on screen; absent from production builds
+  if (INSTRUMENTED) (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek() };
   return () => {
     stop();
     clearPause();
     plumeWorker.terminate();
     resultWorker.terminate();
   };
+}
+
+function recordSample(j: PlumeJob, p: PlumeLayer, receivedAt: number, layerAt: number, drawnAt: number): void {
+  const origin = performance.timeOrigin;
+  latencySamples.push({
+    inputAt: j.inputAt,
+    postedAt: j.postedAt ?? j.inputAt,
+    workerStartAt: p.timing.startedAt - origin,
+    workerEndAt: p.timing.finishedAt - origin,
+    receivedAt,
+    layerAt,
+    drawnAt,
+    gridSize: p.gridSize,
+    solution: p.solution,
+    kernel: p.kernel,
+    timing: p.timing,
+  });
+  if (latencySamples.length > 200) latencySamples.splice(0, 100);
 }
 
 /** Run after the browser has painted the current frame. */
