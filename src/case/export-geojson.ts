@@ -1,7 +1,7 @@
 /**
  * GeoJSON (RFC 7946) of a screened case, so the result opens in any GIS: the release (a point,
  * and the traced footprint as a polygon), the receptors with their results, the flow arrow, and
- * the plume contours at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
+ * the monitoring wells with their latest result, and the plume contours at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
  * decimal degrees (RFC 7946 §4), rounded to 7 decimals (about 1 cm; §11.2 discusses precision).
  * Polygon exteriors are counter-clockwise (§3.1.6). Properties are in internal units named in
  * each key (m, d, mg/L). The screening caution rides along as a foreign member of the collection
@@ -15,6 +15,7 @@ import type { Case, Position } from './schema';
 import { prepareCase } from './prepare';
 import { ringArea } from '../geo/rings';
 import { SOLUTION_LABEL, type ExportResults } from './export-results';
+import { monitoringWellFeatures } from './export-observations';
 
 export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string };
 
@@ -103,6 +104,8 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
       ),
     );
   }
+
+  features.push(...monitoringWellFeatures(c, pos));
 
   // Flow arrow from the centre of the source plane, as long as the plume or the farthest receptor.
   const reach = Math.max(

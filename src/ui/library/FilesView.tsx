@@ -6,7 +6,7 @@ import { useState } from 'preact/hooks';
 import { currentCase, currentResults } from '../state';
 import { importCaseText } from '../../app/actions';
 import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
-import { caseFile, curvesCsvFile, geojsonFile, receptorCsvFile, type Built } from './outputs';
+import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, type Built } from './outputs';
 import { reportOpen } from './ReportView';
 import { DEFAULT_MAX_BYTES } from '../../case/io';
 import { SCREENING_CAUTION } from '../../case/caution';
@@ -81,7 +81,7 @@ export function FilesView() {
         </button>
         <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => out(() => geojsonFile(c, r))}>
           Map layers (GeoJSON)
-          <small>source, receptors, flow arrow, plume contours for a GIS</small>
+          <small>source, receptors, monitoring wells, flow arrow, plume contours for a GIS</small>
         </button>
         <button type="button" class="dg-lib-btn" data-testid="export-table" onClick={() => out(() => receptorCsvFile(c, r))}>
           Receptor table (CSV)
@@ -91,6 +91,12 @@ export function FilesView() {
           Breakthrough curves (CSV)
           <small>concentration over time at each receptor</small>
         </button>
+        {c.monitoring.results.length > 0 && (
+          <button type="button" class="dg-lib-btn" data-testid="export-observations" onClick={() => out(() => observationsCsvFile(c))}>
+            Monitoring results (CSV)
+            <small>every sampling result, "&lt;" kept for results below the limit</small>
+          </button>
+        )}
         <button
           type="button"
           class="dg-lib-btn"

@@ -18,6 +18,7 @@ import { saveState } from '../../app/session';
 import { resultsFor } from './outputs';
 import { inputRows } from './reportInputs';
 import { SitePlan } from './SitePlan';
+import { ReportObservations } from './ReportObservations';
 import { APP_VERSION } from './version';
 import '../print.css';
 
@@ -199,6 +200,8 @@ export function Report() {
           {results.receptors.length > 12 && <p class="dg-report-note">The first 12 receptors are charted; the table and the CSV export hold all of them.</p>}
         </section>
       )}
+
+      <ReportObservations c={c} prepared={prepared} />
 
       <section class="dg-report-section">
         <h2>Inputs and their sources</h2>

@@ -5,6 +5,7 @@ import type { Case } from '../../case/schema';
 import { serializeCase } from '../../case/io';
 import { caseToGeoJSON } from '../../case/export-geojson';
 import { breakthroughCsv, fileStem, receptorTableCsv } from '../../case/export-csv';
+import { observationsCsv } from '../../case/export-observations';
 import { plumeGeoJSON, type Evaluation } from '../results';
 import type { ExportResults } from '../../case/export-results';
 import type { OutFile } from './download';
@@ -47,4 +48,9 @@ export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
   if (!res) return { ok: false, error: `Breakthrough curves: ${NOT_READY}` };
   if (res.receptors.length === 0) return { ok: false, error: 'Breakthrough curves: the case has no receptors yet.' };
   return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res) } };
+}
+
+export function observationsCsvFile(c: Case): Built {
+  if (c.monitoring.results.length === 0) return { ok: false, error: 'Monitoring results: the case has no sampling results yet.' };
+  return { ok: true, file: { name: `${fileStem(c)}-monitoring.csv`, type: 'text/csv', text: observationsCsv(c) } };
 }

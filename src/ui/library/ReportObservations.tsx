@@ -1,0 +1,50 @@
+/**
+ * The printed report's section on the site's monitoring data: per well the trend and point rate,
+ * the attenuation rates and how far the model is from the measurements, in the same words as the
+ * command line (src/case/observations-text.ts).
+ */
+import type { Case } from '../../case/schema';
+import type { PreparedCase } from '../../case/prepare';
+import { analyseObservations } from '../../case/observations';
+import { OBSERVATION_TABLE_HEADER, observationLines, observationTableRows } from '../../case/observations-text';
+
+export function ReportObservations({ c, prepared }: { c: Case; prepared: PreparedCase | null }) {
+  if (c.monitoring.results.length === 0) return null;
+  const s = analyseObservations(c, prepared ?? undefined);
+  const rows = observationTableRows(c, s);
+  return (
+    <section class="dg-report-section" data-testid="report-observations">
+      <h2>Monitoring data</h2>
+      {rows.length === 0 ? (
+        <p>No results of {s.analyte} at the monitoring wells.</p>
+      ) : (
+        <table class="dg-report-table">
+          <thead>
+            <tr>
+              {OBSERVATION_TABLE_HEADER.map((h) => (
+                <th scope="col" key={h}>
+                  {h}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r) => (
+              <tr key={r[0]}>
+                <th scope="row">{r[0]}</th>
+                {r.slice(1).map((cell, i) => (
+                  <td key={i}>{cell}</td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+      {observationLines(s).map((line, i) => (
+        <p class="dg-report-note" key={i}>
+          {line}
+        </p>
+      ))}
+    </section>
+  );
+}
