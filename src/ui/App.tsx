@@ -17,6 +17,7 @@ import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
 import { SettingsDialog } from './panels/SettingsDialog';
 import { DEMO_CASES } from './demos';
+import { HistoryButtons } from './HistoryButtons';
 import { openSections } from './view';
 import { startEvaluation } from './evaluation';
 import './app.css';
@@ -47,6 +48,7 @@ export function App({ initialCase, slots }: AppProps) {
         </span>
         <CaseName />
         <DemoPicker />
+        <HistoryButtons />
         {CaseMenu && <CaseMenu />}
         <span class="dg-header-gap" />
         {Status && <Status />}

@@ -10,6 +10,7 @@ import { UNITS, unitsOf, convert, type Dimension } from '../core/units';
 import type { Quantity } from '../case/schema';
 import { fieldIssue, fieldWarnings } from './validity';
 import { formatSig } from '../case/numbers';
+import { historyEpoch } from './state';
 
 let uid = 0;
 function useId(prefix: string): string {
@@ -73,6 +74,9 @@ function useDraft(value: number | null, display: (v: number) => string) {
   useEffect(() => {
     if (!focused) setText(shown);
   }, [shown, focused]);
+  // an undo or redo rules over the text being typed: show the case's value
+  const epoch = historyEpoch.value;
+  useEffect(() => setText(shown), [epoch]);
   return { text, setText, focused, setFocused };
 }
 

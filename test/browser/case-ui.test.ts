@@ -67,4 +67,43 @@ describe('case sheet', () => {
     expect(w.pageErrors).toEqual([]);
     await context.close();
   });
+
+  it('Ctrl+Z and Ctrl+Shift+Z undo and redo whole case edits across fields; the buttons do the same', async () => {
+    const w = await watchedPage(getBrowser(), PORTRAIT);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    for (const title of [/What is at risk/, /Where is the release/]) {
+      const t = page.getByRole('button', { name: title });
+      if ((await t.getAttribute('aria-expanded')) === 'false') await t.click();
+    }
+    const limit = page.locator('[data-field="contaminant.limit"] input.dg-num');
+    const conc = page.locator('[data-field="source.concentration"] input.dg-num');
+    const limit0 = await limit.inputValue();
+    const conc0 = await conc.inputValue();
+    await limit.fill('5000');
+    await page.waitForTimeout(1000); // a separate step
+    await conc.fill('77');
+    await expect.poll(() => page.evaluate(() => (window as any).__downgradient.currentCase().source.concentration.value)).toBe(77);
+    // focus stays in the concentration field: the shortcut undoes the case edit, not the text
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => conc.inputValue()).toBe(conc0);
+    expect(await limit.inputValue()).toBe('5000');
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => limit.inputValue()).toBe(limit0);
+    await expect.poll(() => page.evaluate(() => (window as any).__downgradient.currentCase().contaminant.limit.value)).toBe(Number(limit0));
+    expect(await page.getByRole('button', { name: 'Undo', exact: true }).isDisabled()).toBe(true);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => limit.inputValue()).toBe('5000');
+    await page.getByRole('button', { name: 'Redo', exact: true }).click();
+    await expect.poll(() => conc.inputValue()).toBe('77');
+    await page.getByRole('button', { name: 'Undo', exact: true }).click();
+    await expect.poll(() => conc.inputValue()).toBe(conc0);
+    // the undone state is what is stored
+    await waitSaved(page);
+    await expect.poll(async () => (await storedCases(page)).map((c) => (c.data as any).source.concentration.value)).toContain(Number(conc0));
+    await page.screenshot({ path: artifactPath('case-undo-portrait.png') });
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
 });

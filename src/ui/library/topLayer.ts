@@ -26,3 +26,8 @@ export function useModalDialog(ref: { readonly current: HTMLDialogElement | null
     };
   }, []);
 }
+
+/** Is a modal dialog open (the page behind it inert)? */
+export function modalOpen(): boolean {
+  return stack.peek().length > 0;
+}
