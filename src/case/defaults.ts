@@ -4,7 +4,7 @@
  * US EPA 1996 Soil Screening Guidance for benzene's Koc, US EPA MCL for benzene's limit). The user
  * is expected to replace them with site values; the limit note says the local limit governs.
  */
-import { CASE_FORMAT, CASE_VERSION, DEFAULT_UNCERTAINTY, type Case, type Dispersivity, type Position } from './schema';
+import { CASE_FORMAT, CASE_VERSION, DEFAULT_UNCERTAINTY, type Case, type Dispersivity, type HeadReading, type Position, type Receptor } from './schema';
 import { DEFAULT_MONITORING } from './monitoring';
 
 /** Dispersivity estimated from the farthest receptor: Xu & Eckstein 1995 for αL, αT = αL/10
@@ -91,4 +91,27 @@ export function newCase(opts: NewCaseOptions = {}): Case {
     uncertainty: structuredClone(DEFAULT_UNCERTAINTY),
     monitoring: structuredClone(DEFAULT_MONITORING),
   };
+}
+
+/**
+ * A new receptor at a map position: a well screened from the water table to 5 m below it (a
+ * neutral start the user replaces with the well's own screen), not pumping. `index` is its place
+ * in the list (0-based), for its default name.
+ */
+export function newReceptor(position: Position, index: number, id = newId()): Receptor {
+  return {
+    id,
+    name: `Receptor ${index + 1}`,
+    kind: 'well',
+    position,
+    screenTop: { value: 0, unit: 'm' },
+    screenBottom: { value: 5, unit: 'm' },
+    pumping: false,
+    pumpingRate: null,
+  };
+}
+
+/** A new head reading at a map position (a placeholder head of 10 m the user replaces); `index` 0-based. */
+export function newHeadReading(position: Position, index: number, id = newId()): HeadReading {
+  return { id, name: `MW-${index + 1}`, position, head: { value: 10, unit: 'm' } };
 }

@@ -247,7 +247,7 @@ export function plumeLength(m: ScreeningModel, limit: number, z: number, t = Inf
   const f = (x: number) => cAt(m, kind, r(x), t) - limit;
   const scale = Math.max(m.width, m.thickness, 1);
   // extent worth searching: past the advective front at finite t, else until far below the limit
-  const front = t === Infinity ? Infinity : (m.v / m.R) * t + 10 * Math.sqrt(2 * ((m.ax * m.v + m.diffusion) / m.R) * t) + scale;
+  const front = t === Infinity ? Infinity : k.patch.v * t + 10 * Math.sqrt(2 * k.patch.Dx * t) + scale;
   // A pulse or a declining source can have left the source plane behind (the profile rises to a
   // peak downgradient and falls on both sides), so the search spans the whole reach of the front;
   // a continuous constant source only falls downgradient, and the span doubles until far below.

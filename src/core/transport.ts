@@ -2,8 +2,7 @@
  * From a ScreeningModel to concentrations: retardation, decay phase, declining source and
  * finite release duration applied around the two 3-D solutions.
  *
- * - Retardation divides v and every D; decay on dissolved and sorbed mass keeps λ, dissolved-only
- *   decay uses λ/R.
+ * - Retardation and the decay phase: retarded.ts (v/R, D/R, λ or λ/R).
  * - A source declining as C0·e^{−γt} (Duhamel's principle): the exact solution carries the factor
  *   e^{−γ(t − τ)} inside its time integral; Domenico's closed form becomes e^{−γt}·S(λ − γ), the
  *   constant-source form with the rate reduced by γ, which needs v² + 4(λ − γ)Dx > 0 (retarded),
@@ -18,6 +17,7 @@ import { domenicoGridInto, domenicoPoint, isSymmetric, type DomenicoParams } fro
 import { exactColumn, exactSeries, type ExactOptions, type PatchParams } from './solutions/patchSource';
 import { exactGridShared } from './solutions/patchGrid';
 import type { ScreeningModel, SolutionKind } from './model';
+import { retardedParameters } from './retarded';
 
 export interface Kinetics {
   readonly patch: PatchParams;
@@ -30,13 +30,8 @@ export interface Kinetics {
 }
 
 export function kinetics(m: ScreeningModel): Kinetics {
-  const R = m.R;
-  const v = m.v / R;
+  const { v, Dx, Dy, Dz, lam: lamBase } = retardedParameters(m);
   const De = m.diffusion;
-  const Dx = (m.ax * m.v + De) / R;
-  const Dy = (m.ay * m.v + De) / R;
-  const Dz = (m.az * m.v + De) / R;
-  const lamBase = m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay;
   const gamma = m.sourceDecay;
   // exact solution: the decline enters the integrand; Domenico: folded into the rate (closed form)
   const patch: PatchParams = { v, Dx, Dy, Dz, lam: lamBase, gamma, width: m.width, thickness: m.thickness };

@@ -3,6 +3,7 @@
  * the returned warnings are the engine-level doubts (field-range doubts are the case layer's).
  */
 import type { ScreeningModel } from './model';
+import { retardedParameters } from './retarded';
 import {
   ValidationError,
   requireNonNegative,
@@ -32,9 +33,7 @@ export function validateModel(m: ScreeningModel): Warning[] {
   if (m.solution !== 'domenico' && m.solution !== 'exact')
     throw new ValidationError('solution', m.solution, "'domenico' or 'exact'");
   const warnings: Warning[] = [];
-  const R = m.R;
-  const v = m.v / R;
-  const Dx = (m.ax * m.v + m.diffusion) / R;
+  const { Dx } = retardedParameters(m);
   if (m.solution === 'domenico' && !(m.v > 0))
     throw new ValidationError('v', m.v, 'a number > 0 for the Domenico solution (use the exact solution for no flow)');
   if (m.solution === 'domenico' && !domenicoAdmits(m)) {
@@ -57,11 +56,8 @@ export function validateModel(m: ScreeningModel): Warning[] {
 
 /** The fastest source decline Domenico's closed form admits: λ + v²/(4·Dx) with retarded v, Dx. */
 export function domenicoSourceDecayLimit(m: ScreeningModel): number {
-  const R = m.R;
-  const v = m.v / R;
-  const Dx = (m.ax * m.v + m.diffusion) / R;
-  const lamBase = m.decayPhase === 'dissolved-only' ? m.decay / R : m.decay;
-  return Dx > 0 ? lamBase + (v * v) / (4 * Dx) : Infinity;
+  const { v, Dx, lam } = retardedParameters(m);
+  return Dx > 0 ? lam + (v * v) / (4 * Dx) : Infinity;
 }
 
 /** Whether Domenico's closed form applies: v > 0 and the source decline within its limit. */

@@ -60,6 +60,19 @@ export interface ExactOptions {
   readonly maxPanels?: number;
 }
 
+/** The exact solution's default error control (the stated accuracy above), shared by the point,
+ * series and grid methods: relTol, absTol in C/C0, and the per-column panel budget. */
+export const EXACT_TOLERANCES = Object.freeze({ relTol: 1e-6, absTol: 1e-13, maxPanels: 500 });
+
+/** opts with every tolerance filled in from EXACT_TOLERANCES. */
+export function exactTolerances(opts: ExactOptions = {}): Required<ExactOptions> {
+  return {
+    relTol: opts.relTol ?? EXACT_TOLERANCES.relTol,
+    absTol: opts.absTol ?? EXACT_TOLERANCES.absTol,
+    maxPanels: opts.maxPanels ?? EXACT_TOLERANCES.maxPanels,
+  };
+}
+
 export interface ColumnResult {
   /** the largest error estimate over the column, in C/C0 */
   errorEstimate: number;
@@ -179,9 +192,7 @@ export function exactColumn(
   stride: number,
   opts: ExactOptions = {},
 ): ColumnResult {
-  const relTol = opts.relTol ?? 1e-6;
-  const absTol = opts.absTol ?? 1e-13;
-  const maxPanels = opts.maxPanels ?? 500;
+  const { relTol, absTol, maxPanels } = exactTolerances(opts);
   const ny = ys.length;
   const w0 = uMinusV(p.v, p.Dx, p.lam);
   const u = p.v + w0;
@@ -269,9 +280,7 @@ export function exactSeries(
   out: Float64Array,
   opts: ExactOptions = {},
 ): void {
-  const relTol = opts.relTol ?? 1e-6;
-  const absTol = opts.absTol ?? 1e-13;
-  const maxPanels = opts.maxPanels ?? 500;
+  const { relTol, absTol, maxPanels } = exactTolerances(opts);
   const w0 = uMinusV(p.v, p.Dx, p.lam);
   const u = p.v + w0;
   const order = Array.from({ length: times.length }, (_, k) => k).sort((a, b) => times[a] - times[b]);

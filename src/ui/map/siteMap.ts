@@ -18,7 +18,7 @@ import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
-import { newId } from '../../case/defaults';
+import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
 
@@ -460,27 +460,14 @@ export class SiteMap {
         mapTool.value = 'move';
       } else if (tool === 'add-receptor') {
         const id = newId();
-        updateCase((d) => {
-          const n = d.site.receptors.length + 1;
-          d.site.receptors.push({
-            id,
-            name: `Receptor ${n}`,
-            kind: 'well',
-            position: at,
-            screenTop: { value: 0, unit: 'm' },
-            screenBottom: { value: 5, unit: 'm' },
-            pumping: false,
-            pumpingRate: null,
-          });
-        });
+        updateCase((d) => void d.site.receptors.push(newReceptor(at, d.site.receptors.length, id)));
         selectedId.value = id;
         mapTool.value = 'move';
       } else if (tool === 'add-head') {
         const id = newId();
         updateCase((d) => {
           if (d.site.flow.method !== 'heads') d.site.flow = { method: 'heads', readings: [] };
-          const n = d.site.flow.readings.length + 1;
-          d.site.flow.readings.push({ id, name: `MW-${n}`, position: at, head: { value: 10, unit: 'm' } });
+          d.site.flow.readings.push(newHeadReading(at, d.site.flow.readings.length, id));
         });
         selectedId.value = id;
       }

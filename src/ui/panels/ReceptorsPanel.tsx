@@ -4,7 +4,7 @@ import { currentCase, updateCase } from '../state';
 import { QuantityField, NumberField, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId, lastDeleted } from '../view';
 import { preparedCase } from '../evaluation';
-import { newId } from '../../case/defaults';
+import { newId, newReceptor } from '../../case/defaults';
 import type { ReceptorKind } from '../../case/schema';
 import { activeSiteMap } from '../map/MapView';
 import { toLatLng } from '../map/siteMap';
@@ -182,18 +182,7 @@ function addDowngradient() {
   const far = Math.max(0, ...p.receptors.map((r) => r.x));
   const x = Math.round(far > 0 ? far * 1.5 : Math.max(50, 10 * p.model.width));
   const id = newId();
-  updateCase((d) => {
-    d.site.receptors.push({
-      id,
-      name: `Receptor ${d.site.receptors.length + 1}`,
-      kind: 'well',
-      position: p.toMap(x, 0),
-      screenTop: { value: 0, unit: 'm' },
-      screenBottom: { value: 5, unit: 'm' },
-      pumping: false,
-      pumpingRate: null,
-    });
-  });
+  updateCase((d) => void d.site.receptors.push(newReceptor(p.toMap(x, 0), d.site.receptors.length, id)));
   selectedId.value = id;
 }
 
