@@ -12,7 +12,7 @@
  */
 import type { Case } from './schema';
 import { otherSolution, type ExportResults } from './export-results';
-import type { ReceptorFigure } from '../core';
+import { statusText, type ReceptorFigure } from '../core';
 import { fileNumber } from './numbers';
 
 const len = (v: number) => fileNumber(v, 'length');
@@ -81,11 +81,6 @@ const FIGURE_COLUMN: Record<ReceptorFigure, string> = {
   peakTime: 'time of peak',
 };
 
-const STATUS_WORDS: Record<string, string> = {
-  'reaches-limit': 'reaches the limit',
-  'below-limit': 'stays below the limit',
-  'not-reached-in-horizon': 'not reached within the horizon',
-};
 
 export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
   const rows: Cell[][] = r.receptors.map((x) => {
@@ -98,7 +93,7 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
       len(x.y),
       len(x.zTop),
       len(x.zBottom),
-      STATUS_WORDS[x.status] ?? x.status,
+      statusText(x.status),
       time(x.arrival),
       years(x.arrival),
       conc(x.atHorizon),
@@ -109,7 +104,7 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
       time(r.horizon),
       r.solution,
       a?.solution ?? null,
-      a ? (STATUS_WORDS[a.status] ?? a.status) : null,
+      a ? statusText(a.status) : null,
       time(a?.arrival ?? null),
       a ? conc(a.atHorizon) : null,
       a ? conc(a.peak.c) : null,

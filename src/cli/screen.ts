@@ -12,7 +12,7 @@ import { readFileSync, statSync } from 'node:fs';
 import { parseCaseFile, DEFAULT_MAX_BYTES } from '../case/io';
 import { screenCase, type ScreeningResult } from '../case/screen';
 import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
-import { ValidationError, SOLUTIONS_DIFFER_ABOVE } from '../core';
+import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
 import { SOLUTION_LABEL } from '../case/export-results';
@@ -93,11 +93,8 @@ function arrivalText(arrival: number | null, status: string): string {
   return status === 'not-reached-in-horizon' ? 'after horizon' : 'never';
 }
 
-const STATUS_WORDS: Record<string, string> = {
-  'reaches-limit': 'REACHES LIMIT',
-  'below-limit': 'stays below limit',
-  'not-reached-in-horizon': 'reaches limit after horizon',
-};
+/** the status in the shared words (core STATUS_WORDS); reaching the limit in capitals, to stand out in plain text */
+const statusCell = (status: string): string => (status === 'reaches-limit' ? statusText(status).toUpperCase() : statusText(status));
 
 
 type Row = ScreeningResult['results'][number];
@@ -186,7 +183,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
       arrivalText(x.arrival, x.status),
       conc(x.atHorizon, p.limit),
       `${conc(x.peak.c, p.limit)} at ${years(x.peak.t)}`,
-      STATUS_WORDS[x.status] ?? x.status,
+      statusCell(x.status),
     ]);
     L.push(...pad([head, ...rows]));
     const others = s.results.filter(({ result }) => result.alternate?.showBoth);
@@ -196,7 +193,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
       for (const { receptor: r, result: x } of others) {
         const a = x.alternate!;
         L.push(
-          `  ${r.name || r.id}: ${SOLUTION_LABEL[a.solution]}: ${STATUS_WORDS[a.status] ?? a.status}, arrival ${arrivalText(a.arrival, a.status)}, ` +
+          `  ${r.name || r.id}: ${SOLUTION_LABEL[a.solution]}: ${statusCell(a.status)}, arrival ${arrivalText(a.arrival, a.status)}, ` +
             `${conc(a.atHorizon, p.limit)} mg/L at the horizon, peak ${conc(a.peak.c, p.limit)} mg/L at ${years(a.peak.t)} yr (${sig(100 * a.relDiff, 2)} % apart)`,
         );
       }

@@ -46,6 +46,8 @@ export {
   type SolutionComparison,
   type Receptor,
   type ReceptorResult,
+  STATUS_WORDS,
+  statusText,
   type ReceptorStatus,
   type SolutionFigures,
 } from './results';

@@ -407,10 +407,24 @@ const FIGURE_WORDS: Record<Exclude<ReceptorFigure, 'status'>, string> = {
 
 const SOLUTION_NAME: Record<SolutionKind, string> = { domenico: 'the Domenico approximation', exact: 'the exact solution' };
 
+/**
+ * The receptor status in words: the one wording the receptor table, the report, the CSV export,
+ * the command line and the engine's warnings all use (`statusText` gives it with a capital).
+ */
+export const STATUS_WORDS: Readonly<Record<ReceptorStatus, string>> = Object.freeze({
+  'reaches-limit': 'reaches the limit within the horizon',
+  'below-limit': 'stays below the limit',
+  'not-reached-in-horizon': 'reaches the limit only after the horizon',
+});
+
+/** STATUS_WORDS of a status (an unknown one as it is), with a capital first letter if asked (a table cell, the start of a sentence). */
+export function statusText(status: string, capital = false): string {
+  const w = (STATUS_WORDS as Record<string, string>)[status] ?? status;
+  return capital ? w.charAt(0).toUpperCase() + w.slice(1) : w;
+}
+
 function statusWords(f: SolutionFigures): string {
-  if (f.status === 'reaches-limit') return 'reaches the limit within the horizon';
-  if (f.status === 'not-reached-in-horizon') return 'reaches the limit only after the horizon';
-  return 'stays below the limit';
+  return STATUS_WORDS[f.status];
 }
 
 /** Everything the receptor table shows, with the other solution beside it. */

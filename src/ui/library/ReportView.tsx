@@ -12,7 +12,7 @@ import { prepareCase, type PreparedCase } from '../../case/prepare';
 import { ASSUMPTIONS, SCREENING_CAUTION } from '../../case/caution';
 import { BreakthroughChart } from '../charts/Charts';
 import { fmtConc, fmtLength, fmtTime } from '../format';
-import { SOLUTIONS_DIFFER_ABOVE } from '../../core/results';
+import { SOLUTIONS_DIFFER_ABOVE, statusText } from '../../core/results';
 import { screenNumber } from '../../case/numbers';
 import { saveState } from '../../app/session';
 import { resultsFor } from './outputs';
@@ -24,11 +24,6 @@ import '../print.css';
 
 export const reportOpen = signal(false);
 
-const STATUS: Record<string, string> = {
-  'reaches-limit': 'reaches the limit',
-  'below-limit': 'stays below the limit',
-  'not-reached-in-horizon': 'not reached within the horizon',
-};
 
 export function ReportHost() {
   useEffect(() => {
@@ -146,7 +141,7 @@ export function Report() {
                     <td>
                       {fmtLength(r.zTop)} – {fmtLength(r.zBottom)}
                     </td>
-                    <td>{STATUS[r.status] ?? r.status}</td>
+                    <td>{statusText(r.status)}</td>
                     <td>{fmtTime(r.arrival)}</td>
                     <td>{fmtConc(r.atHorizon)}</td>
                     <td>
@@ -166,7 +161,7 @@ export function Report() {
                 .filter((r) => r.alternate?.showBoth)
                 .map((r) => {
                   const a = r.alternate!;
-                  return `${r.name}: ${STATUS[a.status] ?? a.status}, reaches the limit ${a.arrival === null ? 'not within the horizon' : `after ${fmtTime(a.arrival)}`}, ${fmtConc(a.atHorizon)} at the horizon, peak ${fmtConc(a.peak.c)} (${fmtTime(a.peak.t)})`;
+                  return `${r.name}: ${statusText(a.status)}, reaches the limit ${a.arrival === null ? 'not within the horizon' : `after ${fmtTime(a.arrival)}`}, ${fmtConc(a.atHorizon)} at the horizon, peak ${fmtConc(a.peak.c)} (${fmtTime(a.peak.t)})`;
                 })
                 .join('; ')}
               .

@@ -6,13 +6,8 @@
 import { selectedId } from '../view';
 import { fmtConc, fmtLength, fmtTime } from '../format';
 import type { Evaluation, ReceptorRow } from '../results';
-import { SOLUTIONS_DIFFER_ABOVE } from '../../core/results';
+import { SOLUTIONS_DIFFER_ABOVE, statusText } from '../../core/results';
 
-const STATUS_TEXT: Record<ReceptorRow['status'], string> = {
-  'reaches-limit': 'Reaches the limit within the horizon',
-  'below-limit': 'Stays below the limit',
-  'not-reached-in-horizon': 'Not reached within the horizon (reaches it later)',
-};
 
 const SOLUTION_SHORT: Record<'domenico' | 'exact', string> = { domenico: 'Domenico', exact: 'exact' };
 
@@ -69,10 +64,10 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
                   <button type="button" class="dg-linkish" onClick={() => (selectedId.value = x.id)}>
                     {x.name}
                   </button>
-                  <span class={`dg-status dg-status-${x.status}`}>{upgradient ? 'Upgradient of the source: not reached' : STATUS_TEXT[x.status]}</span>
+                  <span class={`dg-status dg-status-${x.status}`}>{upgradient ? 'Upgradient of the source: not reached' : statusText(x.status, true)}</span>
                   {alt && (
                     <span class={`dg-alt dg-status dg-status-${alt.status}${alt.status !== x.status ? ' dg-alt-differs' : ''}`} data-col="alt-status">
-                      {SOLUTION_SHORT[alt.solution]}: {STATUS_TEXT[alt.status]}
+                      {SOLUTION_SHORT[alt.solution]}: {statusText(alt.status, true)}
                     </span>
                   )}
                 </th>
