@@ -571,3 +571,32 @@ export function driverSentence(d: Driver): string {
   const pc = (p: number) => `${(100 * p).toFixed(p < 0.1 && p > 0 ? 1 : 0)} %`;
   return `if ${d.label} is in its low third, ${pc(d.pExceedLowThird)}; in its high third, ${pc(d.pExceedHighThird)}`;
 }
+
+/** A distribution in words, with its unit: "lognormal, median 12 m/d, geometric SD 3". */
+export function describeDistribution(d: UncertainValue, unit: string | undefined, input?: UncertainInput): string {
+  const u = unit ? ` ${unitDef(unit).label}` : input === 'flowDirection' ? '° from north' : '';
+  let s: string;
+  switch (d.kind) {
+    case 'uniform':
+      s = `uniform from ${d.low} to ${d.high}${u}`;
+      break;
+    case 'log-uniform':
+      s = `log-uniform from ${d.low} to ${d.high}${u}`;
+      break;
+    case 'triangular':
+      s = `triangular from ${d.low} to ${d.high}${u}, most likely ${d.mode}`;
+      break;
+    case 'normal':
+      s = `normal, mean ${d.mean}${u}, standard deviation ${d.sd}`;
+      break;
+    case 'lognormal':
+      s = `lognormal, median ${d.median}${u}, geometric standard deviation ${d.gsd}`;
+      break;
+    case 'lognormal-range':
+      s = `lognormal with ${d.percentile}th–${100 - d.percentile}th percentiles ${d.low} to ${d.high}${u}`;
+      break;
+  }
+  const t = d.truncate;
+  if (t && (t.low != null || t.high != null)) s += `, truncated to [${t.low ?? '−∞'}, ${t.high ?? '∞'}]`;
+  return s;
+}

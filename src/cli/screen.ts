@@ -2,7 +2,10 @@
  * Command-line screening: evaluates a case file (any known version) and prints per-receptor
  * results, the derived parameters, warnings and the screening caution.
  *
- *   npm run screen -- <case.json> [--format table|json|csv]
+ *   npm run screen -- <case.json> [--format table|json|csv] [--runs N] [--seed S]
+ *
+ * With --runs or --seed, a Monte Carlo run over the case's uncertain inputs follows the
+ * deterministic screening (src/case/uncertainty.ts, the same code and numbers as the app's).
  *
  * Exit codes: 0 screened · 2 usage (bad arguments) · 3 file cannot be read · 4 not a valid case
  * file (JSON, format, version, schema) · 5 a value the engine cannot accept (named by its case
@@ -16,6 +19,7 @@ import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
 import { SOLUTION_LABEL } from '../case/export-results';
+import { describeDistribution, driverSentence, runUncertainty, type Percentiles, type UncertaintyResult } from '../case/uncertainty';
 
 export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase: 4, invalidValue: 5 } as const;
 type Format = 'table' | 'json' | 'csv';
@@ -25,8 +29,8 @@ const YR = 365.25;
 const HELP = `Downgradient screening from the command line.
 
 Usage:
-  npm run screen -- <case.json> [--format table|json|csv]
-  node dist-cli/screen.mjs <case.json> [--format table|json|csv]
+  npm run screen -- <case.json> [--format table|json|csv] [--runs N] [--seed S]
+  node dist-cli/screen.mjs <case.json> [--format table|json|csv] [--runs N] [--seed S]
 
 Reads a case file (current version 2, or the hand-written compact version 1 described in
 src/case/v1.ts), evaluates every receptor against the case's limit over its horizon and prints:
@@ -34,6 +38,13 @@ receptor position in the flow frame (x downgradient of the source plane, y acros
 first arrival at the limit, concentration at the horizon, peak and its time, status, and the other
 solution's figures where the two differ; the derived parameters (seepage velocity, retardation,
 dispersivities and the relation used); warnings; and the screening caution.
+
+Probabilistic screening (--runs N and/or --seed S; the other is taken from the case file):
+  a Latin hypercube Monte Carlo run of N realisations (1 to 50000) over the inputs the case gives
+  distributions (case version 3, "uncertainty"), seeded with the whole number S. Per receptor:
+  the probability of reaching the limit within the horizon with its standard error, the 5th, 50th
+  and 95th percentiles of the arrival time, the concentration at the horizon and the peak, and the
+  inputs that drive the answer. The same case, seed and runs give the same figures as the app.
 
 Formats:
   table  (default) readable text; times in years, lengths in m, concentrations in mg/L
@@ -50,10 +61,12 @@ interface Args {
   file: string | null;
   format: Format;
   help: boolean;
+  runs: number | null;
+  seed: number | null;
 }
 
 function parseArgs(argv: string[]): Args | string {
-  const a: Args = { file: null, format: 'table', help: false };
+  const a: Args = { file: null, format: 'table', help: false, runs: null, seed: null };
   for (let i = 0; i < argv.length; i++) {
     const s = argv[i];
     if (s === '--help' || s === '-h') a.help = true;
@@ -61,6 +74,12 @@ function parseArgs(argv: string[]): Args | string {
       const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
       if (v !== 'table' && v !== 'json' && v !== 'csv') return `--format must be table, json or csv (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
       a.format = v;
+    } else if (s === '--runs' || s.startsWith('--runs=') || s === '--seed' || s.startsWith('--seed=')) {
+      const name = s.startsWith('--runs') ? 'runs' : 'seed';
+      const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
+      const n = v === undefined || v.trim() === '' ? Number.NaN : Number(v);
+      if (!Number.isFinite(n)) return `--${name} must be a number (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
+      a[name] = n;
     } else if (s.startsWith('-')) return `unknown option ${s} (see --help)`;
     else if (a.file === null) a.file = s;
     else return `only one case file can be screened at a time (got ${JSON.stringify(a.file)} and ${JSON.stringify(s)})`;
@@ -121,7 +140,47 @@ function wrap(text: string, width = 96, indent = ''): string[] {
   return out;
 }
 
-function formatTable(c: Case, s: ScreeningResult, source: string): string {
+const pctConc = (x: Percentiles, limit: number) => [x.p5, x.p50, x.p95].map((v) => (v === null ? '–' : conc(v, limit))).join(' / ');
+const pctPercent = (p: number) => `${sig(100 * p, 2)} %`;
+
+function uncertaintyTable(u: UncertaintyResult, limit: number): string[] {
+  const L: string[] = [];
+  L.push(`Probabilistic screening: ${u.runs} realisations, seed ${u.seed} (Latin hypercube; ${SOLUTION_LABEL[u.solution]})`);
+  L.push('  Uncertain inputs (sampled independently):');
+  for (const i of u.inputs) L.push(...wrap(`- ${i.label}: ${describeDistribution(i.distribution, i.unit, i.input)}${i.distribution.note ? ` (${i.distribution.note})` : ''}`, 96, '    ').map((l, k) => (k ? '  ' + l : l)));
+  if (u.headPlane)
+    L.push(
+      ...wrap(
+        `- flow direction and gradient: from the least-squares covariance of the plane fitted to the head readings (residual SD ${sig(u.headPlane.s)} m, ${u.headPlane.dof} degree${u.headPlane.dof === 1 ? '' : 's'} of freedom; a normal approximation that understates the spread with few readings)`,
+        96,
+        '    ',
+      ).map((l, k) => (k ? '  ' + l : l)),
+    );
+  if (u.refusedCount) L.push(...wrap(`- ${u.refusedCount} realisation(s) refused by the engine and left out, e.g. ${u.refusals[0]?.message}`, 96, '    '));
+  L.push('');
+  const head = ['  receptor', 'P(reaches limit within horizon)', 'arrival 5th / 50th / 95th', 'C at horizon 5/50/95 (mg/L)', 'peak 5/50/95 (mg/L)'];
+  const rows = u.receptors.map((r) => [
+    '  ' + (r.name || r.id),
+    `${pctPercent(r.pExceed)} ± ${pctPercent(r.pExceedSE)} (95 %: ${pctPercent(r.pExceedInterval[0])}–${pctPercent(r.pExceedInterval[1])})`,
+    [r.arrival.p5, r.arrival.p50, r.arrival.p95].map((t) => (t === null ? 'not within horizon' : `${years(t)} yr`)).join(' / '),
+    pctConc(r.concentrationAtHorizon, limit),
+    pctConc(r.peak, limit),
+  ]);
+  L.push(...pad([head, ...rows]));
+  L.push('  (arrival "not within horizon": at that percentile the realisations do not reach the limit within the horizon)');
+  L.push('');
+  L.push('Which measurement would settle it (inputs ranked by rank correlation with the peak)');
+  for (const r of u.receptors) {
+    L.push(`  ${r.name || r.id}:`);
+    for (const d of r.drivers.slice(0, 3))
+      L.push(...wrap(`- ${d.label} (rank correlation ${d.rankCorrelation.toFixed(2)}): ${driverSentence(d)}. To narrow it: ${d.measure}.`, 96, '      ').map((l, k) => (k ? '  ' + l : '    ' + l.trimStart())));
+  }
+  L.push('');
+  L.push(...wrap(u.caution, 96, '  '));
+  return L;
+}
+
+function formatTable(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null): string {
   const p = s.prepared;
   const d = p.derived;
   const m = p.model;
@@ -199,6 +258,10 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
       }
     }
   }
+  if (u) {
+    L.push('');
+    L.push(...uncertaintyTable(u, p.limit));
+  }
   L.push('');
   L.push('Warnings');
   if (!s.warnings.length) L.push('  none');
@@ -215,7 +278,22 @@ function formatTable(c: Case, s: ScreeningResult, source: string): string {
 // ---------------------------------------------------------------------------------------------
 // json and csv
 
-function formatJson(c: Case, s: ScreeningResult, source: string): string {
+/** Per receptor, the shape the command line promises (days, mg/L, null for no arrival within the horizon). */
+function receptorUncertaintyJson(u: UncertaintyResult, j: number) {
+  const r = u.receptors[j];
+  return {
+    runs: u.runs,
+    seed: u.seed,
+    pExceed: r.pExceed,
+    pExceedSE: r.pExceedSE,
+    arrival: r.arrival,
+    concentrationAtHorizon: r.concentrationAtHorizon,
+    peak: r.peak,
+    drivers: r.drivers.map((d) => ({ input: d.input, rankCorrelation: d.rankCorrelation, pExceedLowThird: d.pExceedLowThird, pExceedHighThird: d.pExceedHighThird })),
+  };
+}
+
+function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null): string {
   const p = s.prepared;
   const out = {
     case: { id: c.id, name: c.name, file: source, contaminant: c.contaminant.name, limitNote: c.contaminant.limitNote },
@@ -245,7 +323,23 @@ function formatJson(c: Case, s: ScreeningResult, source: string): string {
       status: x.status,
       alternate: x.alternate,
       othersDiffer: x.alternate?.showBoth ?? false,
+      ...(u ? { uncertainty: receptorUncertaintyJson(u, s.results.indexOf(s.results.find((q) => q.receptor === r)!)) } : {}),
     })),
+    ...(u
+      ? {
+          uncertainty: {
+            runs: u.runs,
+            seed: u.seed,
+            method: 'Latin hypercube (McKay, Beckman & Conover 1979), Philox4x32-10 streams',
+            solution: u.solution,
+            inputs: u.inputs.map((i) => ({ input: i.input, label: i.label, unit: i.unit ?? null, distribution: i.distribution, described: describeDistribution(i.distribution, i.unit, i.input) })),
+            headPlane: u.headPlane,
+            refused: u.refusedCount,
+            refusals: u.refusals,
+            caution: u.caution,
+          },
+        }
+      : {}),
     warnings: s.warnings,
     caution: s.caution,
     assumptions: ASSUMPTIONS,
@@ -255,12 +349,19 @@ function formatJson(c: Case, s: ScreeningResult, source: string): string {
 
 /** One row per receptor (RFC 4180 via the app's CSV writer, numbers unrounded in internal units,
  * units in the column names), then the caution as a final record, as in the app's CSV exports. */
-function formatCsv(s: ScreeningResult): string {
+function formatCsv(s: ScreeningResult, u: UncertaintyResult | null): string {
   const head: Cell[] = [
     'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
     'other_solution', 'other_status', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
     'solutions_differ_in',
+    ...(u
+      ? [
+          'mc_runs', 'mc_seed', 'p_exceed', 'p_exceed_se', 'p_exceed_low95', 'p_exceed_high95',
+          'arrival_p5_d', 'arrival_p50_d', 'arrival_p95_d', 'c_horizon_p5_mg_per_L', 'c_horizon_p50_mg_per_L', 'c_horizon_p95_mg_per_L',
+          'peak_p5_mg_per_L', 'peak_p50_mg_per_L', 'peak_p95_mg_per_L', 'drivers',
+        ]
+      : []),
   ];
   const rows: Cell[][] = s.results.map(({ receptor: r, result: x }) => {
     const a = x.alternate;
@@ -269,10 +370,30 @@ function formatCsv(s: ScreeningResult): string {
       x.steady, x.status, s.prepared.limit, s.prepared.horizon,
       a?.solution ?? null, a?.status ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
       a ? a.differing.join(' ') : null,
+      ...(u ? uncertaintyCells(u, s.results.findIndex((q) => q.receptor === r)) : []),
     ];
   });
+  const inputs: Cell[][] = u
+    ? [
+        ...u.inputs.map((i): Cell[] => ['uncertain input', i.label, describeDistribution(i.distribution, i.unit, i.input), ...Array(head.length - 3).fill('')]),
+        ...(u.headPlane ? [['uncertain input', 'flow direction and gradient', 'from the head readings\' plane fit (least-squares covariance)', ...Array(head.length - 3).fill('')] as Cell[]] : []),
+        ['probabilistic caution', u.caution, ...Array(head.length - 2).fill('')],
+      ]
+    : [];
   const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];
-  return csvRecords([head, ...rows, caution]);
+  return csvRecords([head, ...rows, ...inputs, caution]);
+}
+
+function uncertaintyCells(u: UncertaintyResult, j: number): Cell[] {
+  const r = u.receptors[j];
+  const t = (v: number | null) => (v === null ? 'not within the horizon' : v);
+  return [
+    u.runs, u.seed, r.pExceed, r.pExceedSE, r.pExceedInterval[0], r.pExceedInterval[1],
+    t(r.arrival.p5), t(r.arrival.p50), t(r.arrival.p95),
+    r.concentrationAtHorizon.p5, r.concentrationAtHorizon.p50, r.concentrationAtHorizon.p95,
+    r.peak.p5, r.peak.p50, r.peak.p95,
+    r.drivers.map((d) => `${d.input} rho=${d.rankCorrelation.toFixed(3)} low=${d.pExceedLowThird.toFixed(3)} high=${d.pExceedHighThird.toFixed(3)}`).join('; '),
+  ];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -313,8 +434,10 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   const c = parsed.case;
   let result: ScreeningResult;
+  let uncertainty: UncertaintyResult | null = null;
   try {
     result = screenCase(c);
+    if (args.runs !== null || args.seed !== null) uncertainty = runUncertainty(c, { runs: args.runs ?? undefined, seed: args.seed ?? undefined });
   } catch (e) {
     if (e instanceof ValidationError) {
       err(`error: ${args.file}: ${e.message}\n  field: ${e.field}\n  accepted: ${e.range}\n`);
@@ -325,7 +448,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   const version = (JSON.parse(text.replace(/^\uFEFF/, '')) as { version?: number }).version;
   const source = `${args.file} (version ${version}${version !== c.version ? `, read as version ${c.version}` : ''})`;
-  out(args.format === 'json' ? formatJson(c, result, args.file) : args.format === 'csv' ? formatCsv(result) : formatTable(c, result, source));
+  out(args.format === 'json' ? formatJson(c, result, args.file, uncertainty) : args.format === 'csv' ? formatCsv(result, uncertainty) : formatTable(c, result, source, uncertainty));
   return EXIT.ok;
 }
 

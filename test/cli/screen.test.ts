@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { parseCaseFile } from '../../src/case/io';
 import { screenCase } from '../../src/case/screen';
 import { SCREENING_CAUTION } from '../../src/case/caution';
+import { runUncertainty, UNCERTAINTY_CAUTION } from '../../src/case/uncertainty';
 
 const CLI = 'dist-cli/screen.mjs';
 let dir: string;
@@ -196,5 +197,84 @@ describe('bad input: non-zero exit and a message naming the problem', () => {
     expect(r.err).toMatch(/aquifer\.effectivePorosity = 1\.25 is not accepted/);
     expect(r.err).toMatch(/accepted: in \(0, 1\)/);
     expect(r.out).toBe('');
+  });
+});
+
+// Probabilistic screening (--runs, --seed): the JSON shape issue 15 fixes, the figures identical to
+// src/case/uncertainty.ts run in-process on the same case, seed and runs (the app runs the same
+// code), "not within the horizon" as null, and refusals with exit code 5.
+const caseOf = (f: string) => {
+  const r = parseCaseFile(readFileSync(f, 'utf8'));
+  if (!r.ok) throw new Error(r.errors.join('; '));
+  return r.case;
+};
+
+describe('npm run screen -- case.json --runs N --seed S', () => {
+  test('json: each receptor carries exactly the promised uncertainty object, equal to the in-process run', () => {
+    const file = 'cases/nitrate-field-supply.json';
+    const { code, out, err } = run(file, '--runs', '400', '--seed', '17', '--format', 'json');
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    const json = JSON.parse(out);
+    const expected = runUncertainty(caseOf(file), { runs: 400, seed: 17 });
+    json.receptors.forEach((r: { uncertainty: Record<string, unknown> }, j: number) => {
+      const u = r.uncertainty;
+      expect(Object.keys(u)).toEqual(['runs', 'seed', 'pExceed', 'pExceedSE', 'arrival', 'concentrationAtHorizon', 'peak', 'drivers']);
+      const e = expected.receptors[j];
+      expect(u).toEqual({
+        runs: 400,
+        seed: 17,
+        pExceed: e.pExceed,
+        pExceedSE: e.pExceedSE,
+        arrival: e.arrival,
+        concentrationAtHorizon: e.concentrationAtHorizon,
+        peak: e.peak,
+        drivers: e.drivers.map((d) => ({ input: d.input, rankCorrelation: d.rankCorrelation, pExceedLowThird: d.pExceedLowThird, pExceedHighThird: d.pExceedHighThird })),
+      });
+      for (const p of ['arrival', 'concentrationAtHorizon', 'peak']) expect(Object.keys(u[p] as object)).toEqual(['p5', 'p50', 'p95']);
+    });
+    // the village well never reaches 10 mg/L in this demo: every arrival percentile is null, P = 0
+    const village = json.receptors[0].uncertainty;
+    expect(village.pExceed).toBe(0);
+    expect(village.arrival).toEqual({ p5: null, p50: null, p95: null });
+    expect(json.uncertainty.inputs.map((i: { input: string }) => i.input)).toEqual(['hydraulicConductivity', 'effectivePorosity', 'dispersivityFactor', 'sourceConcentration']);
+    expect(json.uncertainty.caution).toBe(UNCERTAINTY_CAUTION);
+  });
+
+  test('the seed and run count reproduce a run; the case file\'s seed is used when only --runs is given', () => {
+    const a = run('cases/fuel-release-farm-well.json', '--runs', '200', '--format', 'json');
+    const b = run('cases/fuel-release-farm-well.json', '--runs', '200', '--seed', '20261203', '--format', 'json');
+    expect(a.code).toBe(0);
+    expect(JSON.parse(a.out).receptors.map((r: { uncertainty: unknown }) => r.uncertainty)).toEqual(JSON.parse(b.out).receptors.map((r: { uncertainty: unknown }) => r.uncertainty));
+  });
+
+  test('table and csv carry the probabilities, the distributions, seed, runs and the caution', () => {
+    const t = run('cases/fuel-release-farm-well.json', '--runs', '200', '--seed', '3');
+    expect(t.code).toBe(0);
+    for (const s of ['Probabilistic screening: 200 realisations, seed 3', 'lognormal, median 12 m/d, geometric standard deviation 3', 'P(reaches limit within horizon)', 'Which measurement would settle it', 'in its low third', 'To narrow it: slug or pumping tests'])
+      expect(t.out).toContain(s);
+    expect(t.out.replace(/\s+/g, ' ')).toContain(UNCERTAINTY_CAUTION);
+    const c = run('cases/fuel-release-farm-well.json', '--runs', '200', '--seed', '3', '--format', 'csv');
+    expect(c.code).toBe(0);
+    const lines = c.out.split('\r\n');
+    expect(lines[0]).toContain('mc_runs,mc_seed,p_exceed,p_exceed_se,p_exceed_low95,p_exceed_high95,arrival_p5_d');
+    expect(c.out).toContain('uncertain input,hydraulic conductivity (K),"lognormal, median 12 m/d, geometric standard deviation 3"');
+    expect(c.out).toContain('probabilistic caution');
+  });
+
+  test.each([
+    [['--runs', '0'], 5, /uncertainty\.runs = 0 is not accepted: must be a whole number of realisations from 1 to 50000/],
+    [['--seed', '1.5'], 5, /uncertainty\.seed = 1\.5 is not accepted: must be a whole number/],
+    [['--runs', 'many'], 2, /--runs must be a number \(got "many"\)/],
+  ] as const)('%j is refused (exit %i)', (args, exit, msg) => {
+    const r = run('cases/fuel-release-farm-well.json', ...args);
+    expect(r.code).toBe(exit);
+    expect(r.err).toMatch(msg);
+  });
+
+  test('a case without distributions is refused with a message saying what to do', () => {
+    const r = run('cases/solvent-release-creek.json', '--runs', '100');
+    expect(r.code).toBe(5);
+    expect(r.err).toMatch(/no input has a distribution/);
   });
 });
