@@ -88,3 +88,19 @@ export {
   type SourceCapture,
   type StagnationPoint,
 } from './flow/trace';
+export {
+  prepareWalk,
+  emptyTally,
+  mergeTally,
+  walkParticles,
+  observerConcentrations,
+  wellConcentrations,
+  gridConcentration,
+  type WalkInput,
+  type WalkTally,
+  type PreparedWalk,
+  type WalkObserver,
+  type WalkGrid,
+  type WalkSource,
+  type ParticleEstimate,
+} from './particles/walk';

@@ -12,7 +12,8 @@
  * Purposes in use (add new ones here so no two uses share a stream):
  *   1  Latin hypercube: stratum permutation of one input        (a = input, b = runs)
  *   2  Latin hypercube: position within the stratum             (a = input, b = realisation)
- *   3–15 free (e.g. particle walks: a = particle, b = walk)
+ *   3  particle walk: seeds particle j's own stream (a = j mod 2^32, b = ⌊j / 2^32⌋; particles/walk.ts)
+ *   4–15 free
  *
  * Doubles: two per block, each from 53 bits, (k + ½)·2⁻⁵³ for k in [0, 2⁵³), so every value
  * lies strictly inside (0, 1) and 0 and 1 never occur.
