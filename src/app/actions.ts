@@ -8,6 +8,7 @@ import { parseCaseFile, serializeCase, DEFAULT_MAX_BYTES } from '../case/io';
 import { currentCase, replaceCase } from '../ui/state';
 import type { ConflictChoice } from '../store/autosave';
 import { StorageFullError } from '../store/cases';
+import { caseProblem } from '../case/check';
 import { storageInfo } from '../store/quota';
 import { libraryChanged, notify, session, storage } from './session';
 
@@ -130,7 +131,10 @@ export async function restoreDeleted(id: string): Promise<void> {
   }
 }
 
-export type ImportOutcome = { ok: true; name: string; note: string | null } | { ok: false; errors: string[] };
+export type ImportOutcome =
+  | { ok: true; name: string; note: string | null }
+  /** `repairable`: a well-formed case the screening checks refuse; the user may still keep it to repair */
+  | { ok: false; errors: string[]; repairable?: Case };
 
 /**
  * Import a case file. A file that is malformed, too large, of an unknown version or hostile is
@@ -140,29 +144,45 @@ export type ImportOutcome = { ok: true; name: string; note: string | null } | { 
 export async function importCaseText(text: string, fileName = 'the file'): Promise<ImportOutcome> {
   const parsed = parseCaseFile(text, { maxBytes: DEFAULT_MAX_BYTES });
   if (!parsed.ok) return { ok: false, errors: parsed.errors.map((e) => `${fileName}: ${e}`) };
+  // the same complete checks as screening, before anything is stored
+  const problem = caseProblem(parsed.case);
+  if (problem) return { ok: false, errors: [`${fileName}: ${problem.message}`], repairable: parsed.case };
+  return storeImported(parsed.case);
+}
+
+/**
+ * Keep a case the screening checks refuse, to correct it in the app: stored (under a new id if
+ * its id is taken), listed as needing repair, and opened.
+ */
+export async function importForRepair(c: Case): Promise<ImportOutcome> {
+  return storeImported(c, `It is kept on the device to be repaired and marked “needs repair” in Cases; results stay paused until the value is corrected.`);
+}
+
+const withRepair = (note: string, repairNote: string | null) => (repairNote ? `${note} ${repairNote}` : note);
+
+async function storeImported(c: Case, repairNote: string | null = null): Promise<ImportOutcome> {
   const { store, autosaver } = need();
   await autosaver.flush();
-  const c = parsed.case;
   try {
     const existing = await store.getRecord(c.id);
     if (existing && JSON.stringify(existing.data) === JSON.stringify(c)) {
       show(c, existing.revision);
-      return { ok: true, name: c.name, note: 'This exact case was already on the device; it is now open.' };
+      return { ok: true, name: c.name, note: withRepair('This exact case was already on the device; it is now open.', repairNote) };
     }
     if (existing) {
       const copy = await store.saveAsNew(c);
       show(copy.case, copy.record.revision);
       libraryChanged();
-      return { ok: true, name: c.name, note: 'A different version of this case is on the device; the file was stored beside it as a separate copy.' };
+      return { ok: true, name: c.name, note: withRepair('A different version of this case is on the device; the file was stored beside it as a separate copy.', repairNote) };
     }
     const r = await store.save(c, null);
     if (r.status !== 'saved') throw new Error('the case appeared in storage meanwhile; import again');
     show(c, r.record.revision);
     libraryChanged();
-    return { ok: true, name: c.name, note: null };
+    return { ok: true, name: c.name, note: repairNote };
   } catch (e) {
     if (e instanceof StorageFullError) return { ok: false, errors: [e.message] };
-    return { ok: false, errors: [`${fileName}: could not be stored: ${message(e)}`] };
+    return { ok: false, errors: [`${c.name}: could not be stored: ${message(e)}`] };
   }
 }
 

@@ -17,9 +17,11 @@ import { openCaseChannel } from '../store/channel';
 import { requestPersistence } from '../store/quota';
 import { currentCase, replaceCase } from '../ui/state';
 import { libraryChanged, notify, online, saveState, session, storageUnavailable } from './session';
-import { refreshStorageInfo } from './actions';
+import { openStoredCase, refreshStorageInfo } from './actions';
+import { readCaseData } from '../store/caseData';
+import { caseProblem, placementProblem } from '../case/check';
 import { registerServiceWorker } from './serviceWorker';
-import { CaseMenu } from '../ui/library/CaseMenu';
+import { CaseMenu, sheet } from '../ui/library/CaseMenu';
 import { StatusArea } from '../ui/library/StatusArea';
 
 declare const __DG_SERVICE_WORKER__: boolean | undefined;
@@ -54,14 +56,37 @@ function reportRecoveries(rs: Recovery[]): void {
   }
 }
 
+/** The complete checks of a stored record, as the case list shows them ("needs repair"). */
+export function storedCaseProblem(data: unknown): string | null {
+  const read = readCaseData(data);
+  if (!read.ok) return read.error;
+  const p = caseProblem(read.case);
+  return p ? p.message : null;
+}
+
+/**
+ * The case the app starts on: the last one open, unless it cannot be read or no map can be framed
+ * on it (a datum or position that cannot be placed); then the newest that can, or a new case. A
+ * case passed over is named with what is wrong, kept unchanged and marked in the case list.
+ */
 async function openInitial(store: CaseStore): Promise<{ c: Case; revision: number | null }> {
-  const ids = [await store.lastOpenId(), ...(await store.list()).map((s) => s.id)].filter((x): x is string => !!x);
+  const ids = [...new Set([await store.lastOpenId(), ...(await store.list()).map((s) => s.id)].filter((x): x is string => !!x))];
+  let passedOver = 0;
   for (const id of ids) {
     const loaded = await store.load(id);
-    if (loaded?.read.ok) return { c: loaded.read.case, revision: loaded.record.revision };
-    if (loaded && !loaded.read.ok) {
-      notify({ tone: 'warn', text: `“${loaded.record.name}” could not be opened (${loaded.read.error}); it is kept on the device unchanged.` });
-    }
+    if (!loaded) continue;
+    const why = loaded.read.ok ? placementProblem(loaded.read.case)?.message ?? null : loaded.read.error;
+    if (loaded.read.ok && why === null) return { c: loaded.read.case, revision: loaded.record.revision };
+    // the first case passed over is named (it was the one to open); the others are marked in the list
+    if (passedOver++ > 0) continue;
+    const openable = loaded.read.ok;
+    notify({
+      tone: 'warn',
+      text:
+        `“${loaded.record.name}” was not opened at start: ${why}. It is kept on the device unchanged and marked “needs repair” in Cases` +
+        (openable ? '; open it to correct the value, or export it as a file.' : '; export it as a file to repair it.'),
+      action: openable ? { label: 'Open to repair', run: async () => void (await openStoredCase(id)) } : { label: 'Show in Cases', run: () => void (sheet.value = 'library') },
+    });
   }
   return { c: newCase(), revision: null };
 }
@@ -74,6 +99,7 @@ export async function boot(): Promise<BootResult> {
   let store: CaseStore;
   try {
     store = await CaseStore.open({
+      check: storedCaseProblem,
       events: (e) => {
         if (e.type === 'blocked') notify({ tone: 'warn', text: 'Close other Downgradient tabs still running an older version so storage can upgrade.' });
       },

@@ -37,8 +37,11 @@ export function isQuotaError(e: unknown): boolean {
   return n === 'QuotaExceededError' || n === 'StorageFullError' || (inner !== undefined && isQuotaError(inner));
 }
 
-/** What the library lists: the record without its case data. */
-export type CaseSummary = Omit<CaseRecord, 'writer' | 'data'>;
+/** What the library lists: the record without its case data, and whether it needs repair. */
+export type CaseSummary = Omit<CaseRecord, 'writer' | 'data'> & {
+  /** why the stored case cannot be screened as it is (unreadable, or a value the checks refuse), in words; null: it can */
+  problem: string | null;
+};
 
 export type SaveResult =
   | { status: 'saved'; record: CaseRecord }
@@ -50,10 +53,18 @@ export interface StoreOptions {
   writer?: string;
   events?: (e: ConnectionEvent) => void;
   now?: () => number;
+  /** the complete checks of a stored case's data (the app passes the screening checks): a problem in words, or null */
+  check?: (data: unknown) => string | null;
 }
 
-function summary(r: CaseRecord): CaseSummary {
-  return { id: r.id, name: r.name, parentId: r.parentId, created: r.created, savedAt: r.savedAt, revision: r.revision };
+function summary(r: CaseRecord, check?: (data: unknown) => string | null): CaseSummary {
+  let problem: string | null;
+  try {
+    problem = check ? check(r.data) : null;
+  } catch (e) {
+    problem = e instanceof Error ? e.message : String(e);
+  }
+  return { id: r.id, name: r.name, parentId: r.parentId, created: r.created, savedAt: r.savedAt, revision: r.revision, problem };
 }
 
 /** Case-insensitive, accent-insensitive match on every word of the query. */
@@ -127,7 +138,7 @@ export class CaseStore {
   async list(): Promise<CaseSummary[]> {
     const db = await this.connection();
     const all = await db.getAllFromIndex('cases', 'by-saved');
-    return all.reverse().map(summary);
+    return all.reverse().map((r) => summary(r, this.opts.check));
   }
 
   async search(query: string): Promise<CaseSummary[]> {

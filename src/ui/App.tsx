@@ -20,6 +20,8 @@ import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
 import { openSections } from './view';
 import { startEvaluation } from './evaluation';
+import { Guard } from './Guard';
+import { placementProblem } from '../case/check';
 import './app.css';
 
 export interface AppProps {
@@ -66,19 +68,36 @@ export function App({ initialCase, slots }: AppProps) {
         </button>
       </header>
       <main class="dg-main">
-        <MapView frameKey={mapKey.value} />
+        <Guard what="The map" resetKey={currentCase.value.modified}>
+          <MapView frameKey={mapKey.value} problem={mapProblem.value} />
+        </Guard>
         <div class="dg-panel" aria-label="Inputs and results">
-          <ReleasePanel />
-          <FlowPanel />
-          <AquiferPanel />
-          <ReceptorsPanel />
-          <ResultsPanel />
+          {PANELS.map(([what, Panel]) => (
+            <Guard key={what} what={what} resetKey={currentCase.value.modified}>
+              <Panel />
+            </Guard>
+          ))}
         </div>
       </main>
       {showSettings && <SettingsDialog onClose={() => setShowSettings(false)} />}
     </div>
   );
 }
+
+/** The panel, in the order a screening is reasoned through; each drawn inside its own guard. */
+const PANELS: [string, () => preact.JSX.Element | null][] = [
+  ['The release inputs', ReleasePanel],
+  ['The flow inputs', FlowPanel],
+  ['The aquifer inputs', AquiferPanel],
+  ['The receptors', ReceptorsPanel],
+  ['The results', ResultsPanel],
+];
+
+/** Why no map can be framed on the case on screen (in words), or null. */
+const mapProblem = computed(() => {
+  const p = placementProblem(currentCase.value);
+  return p ? p.message : null;
+});
 
 /** The map is rebuilt only when another case opens or the case's frame changes. */
 const mapKey = computed(() => {

@@ -21,6 +21,7 @@ import { effect, signal } from '@preact/signals';
 import { wrap, type Remote } from 'comlink';
 import type { Case } from '../case/schema';
 import { prepareCase, type PreparedCase } from '../case/prepare';
+import { placementProblem } from '../case/check';
 import { ValidationError } from '../core';
 import type { ScreeningApi } from '../worker/screening';
 import type { Evaluation, PlumeLayer } from './results';
@@ -182,6 +183,8 @@ export function startEvaluation(): () => void {
   const plumeWorker = new ScreeningWorker();
   const resultWorker = new ScreeningWorker();
   let latestPlume: PlumeLayer | null = null;
+  /** the case the plume on the map was computed for */
+  let plumeCaseId = '';
   let latestEval: Evaluation | null = null;
   let waitingEval: Case | null = null;
 
@@ -217,8 +220,11 @@ export function startEvaluation(): () => void {
       return r;
     },
     (p, j) => {
+      // another case was opened meanwhile (one that cannot be prepared sends no newer job)
+      if (j.c.id !== currentCase.peek().id) return settle();
       const receivedAt = performance.now();
       latestPlume = p;
+      plumeCaseId = j.c.id;
       currentPlume.value = p; // the map updates the band paths synchronously in its effect
       const layerAt = performance.now();
       afterPaint(() => {
@@ -238,6 +244,7 @@ export function startEvaluation(): () => void {
   const evals: LatestOnly<Case, Evaluation> = new LatestOnly(
     (c) => resultWorker.run((api) => api.evaluate(c)),
     (e) => {
+      if (e.caseId !== currentCase.peek().id) return settle();
       latestEval = e;
       publishEval();
       settle();
@@ -253,11 +260,22 @@ export function startEvaluation(): () => void {
     const time = playTime.value;
     const inputAt = performance.now();
     try {
+      const unplaced = placementProblem(c);
+      if (unplaced) throw unplaced;
       preparedCase.value = prepareCase(c);
       inputIssue.value = null;
     } catch (e) {
       inputIssue.value = e instanceof ValidationError ? { field: e.field, message: e.message } : { field: '', message: describe(e) };
       preparedCase.value = null;
+      // results and plume of another case are never shown beside this one's inputs
+      if (latestEval && latestEval.caseId !== c.id) {
+        latestEval = null;
+        publishResults(null);
+      }
+      if (latestPlume && plumeCaseId !== c.id) {
+        latestPlume = null;
+        currentPlume.value = null;
+      }
       return;
     }
     evaluationError.value = null;

@@ -182,6 +182,11 @@ function LibraryView() {
                   {it.id === openId ? 'open now · ' : ''}saved {savedLabel(it.savedAt)}
                   {it.parentId ? ` · what-if of ${names.get(it.parentId) ?? 'a deleted case'}` : ''}
                 </span>
+                {it.problem && (
+                  <span class="dg-lib-repair" data-testid="needs-repair">
+                    Needs repair: {it.problem}
+                  </span>
+                )}
               </button>
             )}
             <div class="dg-lib-actions">

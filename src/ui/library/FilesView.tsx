@@ -4,7 +4,8 @@
  */
 import { useState } from 'preact/hooks';
 import { currentCase, currentResults } from '../state';
-import { importCaseText } from '../../app/actions';
+import { importCaseText, importForRepair } from '../../app/actions';
+import type { Case } from '../../case/schema';
 import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
 import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, type Built } from './outputs';
 import { reportOpen } from './ReportView';
@@ -17,7 +18,7 @@ function printable(s: string): string {
   return s.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, '␀');
 }
 
-type Msg = { tone: 'ok' | 'error'; lines: string[] } | null;
+type Msg = { tone: 'ok' | 'error'; lines: string[]; repairable?: Case } | null;
 
 export function FilesView() {
   const [msg, setMsg] = useState<Msg>(null);
@@ -62,9 +63,20 @@ export function FilesView() {
       }
       const res = await importCaseText(text, file.name);
       if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” from ${file.name} and opened it.`, ...(res.note ? [res.note] : [])] });
-      else setMsg({ tone: 'error', lines: [...res.errors, 'Nothing was imported; the cases on this device are unchanged.'] });
+      else setMsg({ tone: 'error', lines: [...res.errors, 'Nothing was imported; the cases on this device are unchanged.'], repairable: res.repairable });
     } catch (e) {
       setMsg({ tone: 'error', lines: [`${file.name}: could not be read (${e instanceof Error ? e.message : String(e)}). Nothing was imported.`] });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  const keepForRepair = async (c: Case) => {
+    setBusy(true);
+    try {
+      const res = await importForRepair(c);
+      if (res.ok) setMsg({ tone: 'ok', lines: [`Kept “${res.name}” and opened it.`, ...(res.note ? [res.note] : [])] });
+      else setMsg({ tone: 'error', lines: res.errors });
     } finally {
       setBusy(false);
     }
@@ -128,12 +140,17 @@ export function FilesView() {
           onChange={(e) => void onImport(e.target as HTMLInputElement)}
         />
       </label>
-      <p class="dg-lib-note">The file is checked before anything is stored: size (up to 2 MB), JSON, format, version and every field.</p>
+      <p class="dg-lib-note">The file is checked before anything is stored: size (up to 2 MB), JSON, format, version, every field, and the same checks as screening (positions on the map, physical sense).</p>
       {msg && (
         <div class={`dg-lib-msg ${msg.tone === 'error' ? 'is-error' : 'is-ok'}`} role={msg.tone === 'error' ? 'alert' : 'status'} data-testid="files-message">
           {msg.lines.map((l, i) => (
             <p key={i}>{printable(l)}</p>
           ))}
+          {msg.repairable && (
+            <button type="button" class="dg-lib-btn" data-testid="keep-for-repair" disabled={busy} onClick={() => void keepForRepair(msg.repairable!)}>
+              Keep it on this device to repair
+            </button>
+          )}
         </div>
       )}
     </section>

@@ -1,7 +1,8 @@
 /** The map panel: the Leaflet site map, its tool bar and the plume time control. */
 import { useEffect, useRef } from 'preact/hooks';
 import 'leaflet/dist/leaflet.css';
-import { SiteMap } from './siteMap';
+import { SiteMap, mapFailure } from './siteMap';
+import { inputIssue } from '../validity';
 import { currentCase } from '../state';
 import { mapTool, tileState, type MapTool } from '../view';
 import { TimeBar } from './TimeBar';
@@ -14,7 +15,29 @@ export function activeSiteMap(): SiteMap | null {
   return active;
 }
 
-export function MapView({ frameKey }: { frameKey: string }) {
+/**
+ * `problem`: why no map can be framed on this case (a datum or position that cannot be placed),
+ * in words; the map is then replaced by that message and the rest of the screen keeps working.
+ */
+export function MapView({ frameKey, problem }: { frameKey: string; problem: string | null }) {
+  if (problem) return <UnplacedMap problem={problem} />;
+  return <LiveMap frameKey={frameKey} />;
+}
+
+function UnplacedMap({ problem }: { problem: string }) {
+  return (
+    <div class="dg-map-wrap">
+      <div class="dg-map-box dg-map-none" role="alert" data-testid="map-problem">
+        <p>
+          <strong>The map cannot be drawn for this case.</strong> {problem}
+        </p>
+        <p>Correct the position in the panel, or open another case from Cases or Demo cases. Nothing stored has changed.</p>
+      </div>
+    </div>
+  );
+}
+
+function LiveMap({ frameKey }: { frameKey: string }) {
   const ref = useRef<HTMLDivElement>(null);
   useEffect(() => {
     const m = new SiteMap(ref.current!, currentCase.peek());
@@ -27,11 +50,22 @@ export function MapView({ frameKey }: { frameKey: string }) {
       if (active === m) active = null;
     };
   }, [frameKey]);
+  const stale = !!inputIssue.value && !!currentPlume.value;
   return (
     <div class="dg-map-wrap">
       <MapTools />
-      <div class="dg-map-box">
+      <div class={`dg-map-box${stale ? ' is-stale' : ''}`} data-stale={stale}>
         <div ref={ref} class="dg-map" role="application" aria-label="Site map" />
+        {stale && (
+          <p class="dg-map-stale" role="status" data-testid="plume-stale">
+            Plume out of date: results are paused until the input named in the panel is corrected.
+          </p>
+        )}
+        {mapFailure.value && (
+          <p class="dg-map-stale" role="alert" data-testid="map-failure">
+            Part of the map cannot be drawn: {mapFailure.value}
+          </p>
+        )}
       </div>
       <div class="dg-map-foot">
         {tileState.value === 'failed' && (

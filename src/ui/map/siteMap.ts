@@ -8,7 +8,7 @@
  * The flow arrow's round handle turns the flow direction when the flow is given by direction.
  */
 import L from 'leaflet';
-import { effect } from '@preact/signals';
+import { effect, signal } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import { ringCentroid } from '../../geo/rings';
@@ -23,6 +23,22 @@ import { moveSource } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
 
 export const toLatLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
+
+/** Why the map's last update failed (a mark that cannot be drawn), in words; null when it drew. */
+export const mapFailure = signal<string | null>(null);
+
+const failures = new Map<string, string>();
+/** A map update that fails is reported on the map, not thrown into the edit that caused it. */
+function guarded(part: string, update: () => void): void {
+  try {
+    update();
+    failures.delete(part);
+  } catch (e) {
+    failures.set(part, e instanceof Error ? e.message : String(e));
+  }
+  const first = failures.values().next().value ?? null;
+  if (mapFailure.peek() !== first) mapFailure.value = first;
+}
 export const toPosition = (ll: L.LatLng): Position => [ll.lng, ll.lat];
 
 /** Flow arrow length on screen, px (it shows a direction, not a distance). */
@@ -105,9 +121,9 @@ export class SiteMap {
     this.wireGestures();
     this.fitTo(this.frameTargets(c, null));
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
-    this.disposers.push(effect(() => this.syncCase(currentCase.value, selectedId.value, currentResults.value)));
-    this.disposers.push(effect(() => this.syncPlume(currentPlume.value)));
-    this.disposers.push(effect(() => (playTime.value === null ? this.framePlume() : undefined)));
+    this.disposers.push(effect(() => guarded('marks', () => this.syncCase(currentCase.value, selectedId.value, currentResults.value))));
+    this.disposers.push(effect(() => guarded('plume', () => this.syncPlume(currentPlume.value))));
+    this.disposers.push(effect(() => (playTime.value === null ? guarded('frame', () => this.framePlume()) : undefined)));
     this.disposers.push(
       effect(() => {
         // the source plane the solutions use: across the flow at the release, the width they use
@@ -120,7 +136,7 @@ export class SiteMap {
         setPathLatLngs(this.sourcePlane, [toLatLng(p.toMap(0, -w)), toLatLng(p.toMap(0, w))]);
       }),
     );
-    this.disposers.push(effect(() => this.syncFlowArrow(currentCase.value, currentResults.value?.derived.azimuthDeg ?? null)));
+    this.disposers.push(effect(() => guarded('arrow', () => this.syncFlowArrow(currentCase.value, currentResults.value?.derived.azimuthDeg ?? null))));
     this.disposers.push(
       effect(() => {
         el.dataset.tool = mapTool.value;
@@ -318,7 +334,8 @@ export class SiteMap {
       const status = results?.receptors.find((x) => x.id === r.id)?.status ?? null;
       const key = `${r.kind}|${r.name}|${status}|${sel === r.id}`;
       if (!m) {
-        m = L.marker(toLatLng(r.position), { draggable: true, keyboard: true, title: r.name });
+        // created with its own icon: Leaflet's default marker image is never requested
+        m = L.marker(toLatLng(r.position), { icon: receptorIcon(r.kind, r.name, status, sel === r.id), draggable: true, keyboard: true, title: r.name });
         if (this.synced) moved.push(m.getLatLng());
         const id = r.id;
         m.on('drag', () => this.moveReceptor(id, m!.getLatLng()));
@@ -347,7 +364,7 @@ export class SiteMap {
       const label = `${h.name}: ${h.head.value} ${h.head.unit}`;
       const key = `${label}|${sel === h.id}`;
       if (!m) {
-        m = L.marker(toLatLng(h.position), { draggable: true, keyboard: true, title: h.name });
+        m = L.marker(toLatLng(h.position), { icon: headIcon(label, sel === h.id), draggable: true, keyboard: true, title: h.name });
         if (this.synced) moved.push(m.getLatLng());
         const id = h.id;
         m.on('dragend', () => this.moveHead(id, m!.getLatLng()));

@@ -1,0 +1,110 @@
+// Nothing a user imports can lock them out (issue 14), in real Chromium. Each class of case file
+// whose shape passes the schema but whose positions fail the site checks (a receptor about
+// 1,400 km from the datum, a datum longitude of 500, a datum latitude of 95, a receptor at ±1e308,
+// a water-level well at latitude 1e308) is refused at import with the field named, and nothing is
+// stored; kept anyway "to repair", it is listed as needing repair. After a restart the app opens
+// on a case it can draw, names the passed-over case, and the case list, the demo picker and the
+// needing-repair case itself all open; switching from it to another case works.
+// The accepted ranges are the app's own (WGS 84 longitude −180…180, latitude −90…90, and the
+// 1,000 km site-scale limit of src/geo/projection.ts).
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { artifactPath, LANDSCAPE } from './browser';
+import { demoCase, openDemo, openFiles, storedCases, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+
+const getBrowser = useBrowser();
+const demo = demoCase();
+const [lon0, lat0] = demo.site.datum as [number, number];
+
+type Variant = { name: string; edit: (c: typeof demo) => void; field: RegExp };
+const VARIANTS: Variant[] = [
+  { name: 'receptor far away', field: /Receptor|receptor/, edit: (c) => void (c.site.receptors[0].position = [lon0 + 20, lat0]) },
+  { name: 'datum longitude 500', field: /datum/i, edit: (c) => void (c.site.datum = [500, lat0]) },
+  { name: 'datum latitude 95', field: /datum/i, edit: (c) => void (c.site.datum = [lon0, 95]) },
+  { name: 'receptor at 1e308', field: /Receptor|receptor/, edit: (c) => void (c.site.receptors[0].position = [1e308, -1e308]) },
+  {
+    name: 'water level at latitude 1e308',
+    field: /[Ww]ater.level|reading/,
+    edit: (c) =>
+      void (c.site.flow = {
+        method: 'heads',
+        readings: [
+          { id: 'h1', name: 'MW1', position: [lon0, lat0], head: { value: 10, unit: 'm' } },
+          { id: 'h2', name: 'MW2', position: [lon0 + 0.001, lat0], head: { value: 9.9, unit: 'm' } },
+          { id: 'h3', name: 'MW3', position: [lon0, 1e308], head: { value: 9.8, unit: 'm' } },
+        ],
+      }),
+  },
+];
+
+async function importFile(page: Page, name: string, text: string): Promise<string> {
+  await page.getByTestId('import-input').setInputFiles({ name, mimeType: 'application/json', buffer: Buffer.from(text) });
+  const msg = page.getByTestId('files-message');
+  await expect.poll(async () => (await msg.textContent()) ?? '').toContain(name);
+  return (await msg.textContent()) ?? '';
+}
+
+describe('nothing imported can lock the user out', () => {
+  it('refuses each class at import, keeps it for repair on request, and restarts on a safe screen', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page);
+    await openFiles(page);
+
+    for (const [i, v] of VARIANTS.entries()) {
+      const bad = structuredClone(demo);
+      v.edit(bad);
+      bad.id = `bad-${i}`;
+      bad.name = `Needs repair: ${v.name}`;
+      const before = await storedCases(page);
+      const file = `bad-${i}.json`;
+      const msg = await importFile(page, file, JSON.stringify(bad));
+      // said at import time, naming the field, and nothing stored
+      expect(msg, v.name).toMatch(v.field);
+      expect(msg, v.name).toMatch(/Nothing was imported/);
+      expect(await storedCases(page), v.name).toEqual(before);
+      // kept anyway, to repair
+      await page.getByTestId('keep-for-repair').click();
+      await expect.poll(async () => (await storedCases(page)).some((s) => s.id === bad.id), { timeout: 10_000 }).toBe(true);
+      await expect.poll(async () => (await page.getByTestId('files-message').textContent()) ?? '').toMatch(/needs repair/);
+    }
+    await page.getByRole('tab', { name: 'On this device' }).click();
+    await expect.poll(() => page.getByTestId('needs-repair').count()).toBe(VARIANTS.length);
+    await page.keyboard.press('Escape');
+
+    // restart: the last case opened (a needing-repair one) is passed over, named, and listed
+    await page.reload();
+    await waitSaved(page);
+    await expect.poll(async () => (await page.locator('.dg-notice').allTextContents()).join(' ')).toMatch(/was not opened at start/);
+    expect(await page.getByLabel('Case name', { exact: true }).inputValue()).not.toMatch(/Needs repair/);
+    await page.locator('.dg-map.leaflet-container').waitFor();
+    expect(await page.getByTestId('map-problem').count()).toBe(0);
+    await page.screenshot({ path: artifactPath('robust-restart.png') });
+
+    // the case list opens and lists every case that needs repair; each opens and shows what is wrong
+    await page.getByRole('button', { name: 'Cases and files' }).click();
+    await expect.poll(() => page.getByTestId('needs-repair').count()).toBe(VARIANTS.length);
+    for (const [i, v] of VARIANTS.entries()) {
+      if (!(await page.locator('dialog.dg-lib-sheet[open]').count())) await page.getByRole('button', { name: 'Cases and files' }).click();
+      await page.locator(`[data-case-id=bad-${i}] .dg-lib-name`).click();
+      await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).toBe(`Needs repair: ${v.name}`);
+      await page.getByTestId('map-problem').waitFor();
+      expect(await page.getByTestId('map-problem').textContent(), v.name).toMatch(v.field);
+      await page.getByTestId('input-issue').waitFor();
+    }
+    await page.screenshot({ path: artifactPath('robust-needs-repair.png') });
+
+    // switch away to another stored case, then to a demo
+    await page.getByRole('button', { name: 'Cases and files' }).click();
+    await page.locator(`[data-case-id="${demo.id}"] .dg-lib-name`).click();
+    await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).toBe(demo.name);
+    await page.locator('.dg-map.leaflet-container').waitFor();
+    await page.selectOption('select.dg-demo', { index: 1 });
+    await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).not.toMatch(/Needs repair/);
+    expect(await page.getByTestId('map-problem').count()).toBe(0);
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
+});
