@@ -82,6 +82,7 @@ describe('nothing imported can lock the user out', () => {
     await page.locator('.dg-map.leaflet-container').waitFor();
     expect(await page.getByTestId('map-problem').count()).toBe(0);
     await page.screenshot({ path: artifactPath('robust-restart.png') });
+    await page.locator('.dg-notice').getByRole('button', { name: 'OK' }).click();
 
     // the case list opens and lists every case that needs repair; each opens and shows what is wrong
     await page.getByRole('button', { name: 'Cases and files' }).click();
@@ -98,7 +99,8 @@ describe('nothing imported can lock the user out', () => {
 
     // switch away to another stored case, then to a demo
     await page.getByRole('button', { name: 'Cases and files' }).click();
-    await page.locator(`[data-case-id="${demo.id}"] .dg-lib-name`).click();
+    const demoId = (await storedCases(page)).find((s) => s.name === demo.name)?.id;
+    await page.locator(`[data-case-id="${demoId}"] .dg-lib-name`).click();
     await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).toBe(demo.name);
     await page.locator('.dg-map.leaflet-container').waitFor();
     await page.selectOption('select.dg-demo', { index: 1 });
