@@ -144,15 +144,17 @@ export class SiteMap {
         else this.map.dragging.enable();
       }),
     );
-    this.map.on('zoom move resize', () => this.syncFlowArrow(currentCase.peek(), currentResults.peek()?.derived.azimuthDeg ?? null));
+    this.map.on('zoom move resize', () => guarded('arrow', () => this.syncFlowArrow(currentCase.peek(), currentResults.peek()?.derived.azimuthDeg ?? null)));
     // the user's own pan or zoom ends the map's framing (until the frame button)
     this.map.on('movestart zoomstart', () => {
       if (this.framing === 0) this.autoFrame = false;
     });
     this.map.on('moveend zoomend resize', () => this.placeLabels());
-    this.map.on('resize', () => {
-      if (this.autoFrame) this.fitTo(this.frameTargets(currentCase.peek(), this.framablePlume()));
-    });
+    this.map.on('resize', () =>
+      guarded('frame', () => {
+        if (this.autoFrame) this.fitTo(this.frameTargets(currentCase.peek(), this.framablePlume()));
+      }),
+    );
     new FrameControl({ position: 'topleft' }, () => this.frameCase()).addTo(this.map);
   }
 
