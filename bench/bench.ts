@@ -39,6 +39,7 @@ import { NumpyProcess, type NumpyInfo, type NumpyGrid } from './numpyRunner';
 import { ratio, sci, seconds, si, table, targetTable, type Target } from './report';
 import { AX, AY, AZ, DECAY, R, T, THICKNESS, V, WIDTH, Z, benchModel, benchTimes, benchWells, gridXs, gridYs } from './scenario';
 import { measureContourPipeline } from './contourPipeline';
+import { measureMonteCarlo } from './monteCarlo';
 import { relativeGrid } from '../src/core/transport';
 import { latticeKernel, useLatticeKernel } from '../src/core/special/latticeKernel';
 
@@ -287,6 +288,9 @@ async function main(): Promise<void> {
     { name: 'Domenico grid cost (mirrored)', wanted: '≤ 2 erf-times/cell', measured: domSym.erfTimesPerCell.toFixed(2), met: domSym.erfTimesPerCell <= 2 },
     { name: 'Domenico grid cost (not mirrored)', wanted: '≤ 2 erf-times/cell', measured: domAsym.erfTimesPerCell.toFixed(2), met: domAsym.erfTimesPerCell <= 2 },
   ];
+  targets.push(...(await measureMonteCarlo({ withNumpy, python: argValue('--python') ?? 'python3' })));
+  phase('Monte Carlo');
+  console.log('');
   console.log(targetTable(targets));
 
   const sink =
