@@ -104,3 +104,4 @@ export {
   type WalkSource,
   type ParticleEstimate,
 } from './particles/walk';
+export { levenbergMarquardt, solveLinear, type LeastSquaresFit, type LeastSquaresProblem } from './fit/levenbergMarquardt';

@@ -1,0 +1,117 @@
+/**
+ * Fitting case parameters to monitoring data (src/case/fit.ts, src/core/fit).
+ *
+ * - Levenberg–Marquardt against SciPy's curve_fit (method 'lm', MINPACK) on y = a·e^(−bx) + c with
+ *   noise (fixture test/fixtures/trends/trends.json, generator committed): parameters to 1e-6
+ *   relative and standard errors to 1e-4 relative (both minimise the same sum of squares; the
+ *   tolerances cover the two stopping rules and forward-difference Jacobians).
+ * - Turning the flow direction in the fit matches prepareCase with the case's azimuth turned (the
+ *   project's own projection, an independent path): screen concentrations to 1e-9 relative.
+ * - Recovery (non-detects handled by the censored-normal EM): synthetic data from the project's Domenico model with known C₀, t½ and αL, ln-normal
+ *   noise σ = 0.3, non-detects below a reporting limit; over 30 seeded trials the 95 % interval of
+ *   each parameter covers the true value in at least 24 (80 %). The linearised interval is
+ *   approximate, so the bound is set below the nominal 95 %: with a true coverage of 95 % the
+ *   chance of fewer than 24 of 30 is 0.1 % (binomial).
+ */
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import fixture from '../fixtures/trends/trends.json';
+import { levenbergMarquardt, screenAverage } from '../../src/core/index';
+import { migrateCase } from '../../src/case/migrate';
+import { prepareCase } from '../../src/case/prepare';
+import { adoptFitAsVariant, fitCase, fitObservations, modelledAt } from '../../src/case/fit';
+import { isoFromDay, dayNumber, type SamplingResult } from '../../src/case/monitoring';
+import type { Case } from '../../src/case/schema';
+import { Prng } from '../core/helpers/check';
+import { normalQuantile } from '../../src/core/index';
+
+const depot = (): Case => migrateCase(JSON.parse(readFileSync('cases/depot-benzene-monitoring.json', 'utf8')));
+
+describe('Levenberg–Marquardt against scipy.optimize.curve_fit', () => {
+  it('a·e^(−bx) + c: parameters and standard errors', () => {
+    const { x, y, theta, stderr } = fixture.nonlinear;
+    const fit = levenbergMarquardt({
+      residuals: ([a, b, c]) => x.map((xi, i) => y[i] - (a * Math.exp(-b * xi) + c)),
+      start: [1, 0.1, 0],
+      steps: [1e-7, 1e-7, 1e-7],
+    }, { tolerance: 1e-14, maxIterations: 500 });
+    expect(fit.converged).toBe(true);
+    theta.forEach((t, i) => expect(Math.abs(fit.theta[i] - t)).toBeLessThan(1e-6 * Math.abs(t)));
+    stderr.forEach((s, i) => expect(Math.abs(fit.stdErrors[i]! - s)).toBeLessThan(1e-4 * s));
+  });
+});
+
+describe('the flow direction in the fit', () => {
+  it('turning by δ matches the case prepared with the azimuth turned', () => {
+    const c = depot();
+    const p = prepareCase(c);
+    const obs = fitObservations(c, p).slice(0, 40);
+    const turned = prepareCase({ ...c, site: { ...c.site, flow: { method: 'direction', azimuthDeg: 90 + 7, gradient: 0.005 } } });
+    const got = modelledAt(p.model, obs, 7);
+    obs.forEach((o, i) => {
+      const w = c.monitoring.wells.find((x) => x.id === o.wellId)!;
+      const f = turned.fromMap(w.position!);
+      const ref = screenAverage(turned.model, { x: f.x, y: f.y, zTop: o.zTop, zBottom: o.zBottom }, o.t);
+      expect(Math.abs(got[i] - ref)).toBeLessThanOrEqual(1e-9 * ref + 1e-300);
+    });
+  });
+});
+
+describe('recovery of known parameters', () => {
+  function synthetic(seed: number, truth: { c0: number; halfLifeD: number; ax: number }): Case {
+    const c = depot();
+    c.source.sourceHalfLife = null;
+    const p = prepareCase(c);
+    const k = truth.ax / p.model.ax;
+    const model = { ...p.model, c0: truth.c0, decay: Math.LN2 / truth.halfLifeD, ax: truth.ax, ay: p.model.ay * k, az: p.model.az * k };
+    const rng = new Prng(seed);
+    const release = dayNumber(c.monitoring.releaseDate!)!;
+    const results: SamplingResult[] = [];
+    for (const w of c.monitoring.wells) {
+      const f = p.fromMap(w.position!);
+      for (let q = 0; q < 10; q++) {
+        const t = 900 + 182 * q;
+        const true_ = screenAverage(model, { x: f.x, y: f.y, zTop: w.screenTop.value, zBottom: w.screenBottom.value }, t);
+        const noisy = true_ * Math.exp(0.3 * normalQuantile(Math.min(1 - 1e-12, Math.max(1e-12, rng.uniform()))));
+        const limit = 0.001;
+        results.push({ wellId: w.id, date: isoFromDay(release + t), analyte: 'benzene', value: noisy < limit ? limit : noisy, unit: 'mg/L', nonDetect: noisy < limit });
+      }
+    }
+    return { ...c, monitoring: { ...c.monitoring, results } };
+  }
+
+  it('C₀, t½ and αL from 30 seeded noisy data sets: each interval covers the truth in ≥ 24 of 30', () => {
+    const truth = { c0: 3, halfLifeD: 200, ax: 4 };
+    const covered = { sourceConcentration: 0, halfLife: 0, longitudinalDispersivity: 0 };
+    let withNonDetects = 0;
+    for (let seed = 1; seed <= 30; seed++) {
+      const c = synthetic(seed, truth);
+      if (c.monitoring.results.some((r) => r.nonDetect)) withNonDetects++;
+      const fit = fitCase(c, ['sourceConcentration', 'halfLife', 'longitudinalDispersivity']);
+      const want = { sourceConcentration: truth.c0, halfLife: truth.halfLifeD, longitudinalDispersivity: truth.ax };
+      for (const v of fit.values) {
+        const key = v.parameter as keyof typeof covered;
+        if (v.interval && v.interval[0] <= want[key] && want[key] <= v.interval[1]) covered[key]++;
+      }
+    }
+    expect(withNonDetects).toBeGreaterThan(0); // the censored residuals are exercised
+    for (const [k, n] of Object.entries(covered)) expect(n, k).toBeGreaterThanOrEqual(24);
+  });
+});
+
+describe('adopting a fit', () => {
+  it('makes a what-if variant (new id, parent, note), leaving the case itself unchanged', () => {
+    const c = depot();
+    const before = JSON.stringify(c);
+    const fit = fitCase(c, ['sourceConcentration', 'halfLife']);
+    expect(fit.rmsLn).toBeLessThan(fit.startRmsLn);
+    const v = adoptFitAsVariant(c, fit, 'variant-1', '2026-12-03T10:00:00.000Z');
+    expect(JSON.stringify(c)).toBe(before);
+    expect(v.parentId).toBe(c.id);
+    expect(v.id).toBe('variant-1');
+    expect(v.notes).toMatch(/^Fitted to \d+ detected results/);
+    expect(v.contaminant.halfLife!.unit).toBe('yr');
+    expect(v.contaminant.halfLife!.value).not.toBe(c.contaminant.halfLife!.value);
+    expect(() => migrateCase(JSON.parse(JSON.stringify(v)))).not.toThrow();
+  });
+});
