@@ -381,13 +381,16 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     const row = (i - from) * nr;
     try {
       const { model, receptors } = realisationModel(plan, realisationValues(plan, lhs, i));
+      // a continuous, constant source rises monotonically at a fixed point: its peak within the
+      // horizon is the value at the horizon (as peakConcentration finds it), computed once here
+      const rising = model.duration === Infinity && model.sourceDecay === 0;
       receptors.forEach((r, j) => {
         const ch = screenAverage(model, r, horizon);
-        const pk = peakConcentration(model, r, horizon);
-        const t = pk.c >= limit ? firstTimeAtLimit(model, r, limit, horizon) : null;
+        const pk = rising ? ch : peakConcentration(model, r, horizon).c;
+        const t = pk >= limit ? firstTimeAtLimit(model, r, limit, horizon) : null;
         arrival[row + j] = t ?? Infinity;
         atHorizon[row + j] = ch;
-        peak[row + j] = pk.c;
+        peak[row + j] = pk;
       });
     } catch (e) {
       if (!(e instanceof ValidationError)) throw e;
