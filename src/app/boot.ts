@@ -12,7 +12,7 @@ import type { Case } from '../case/schema';
 import { newCase } from '../case/defaults';
 import { CaseStore } from '../store/cases';
 import { Autosaver } from '../store/autosave';
-import { Journal, recoverJournal, type Recovery } from '../store/journal';
+import { Journal, holdTabLock, recoverJournal, type Recovery } from '../store/journal';
 import { openCaseChannel } from '../store/channel';
 import { requestPersistence } from '../store/quota';
 import { currentCase, replaceCase } from '../ui/state';
@@ -114,7 +114,9 @@ export async function boot(): Promise<BootResult> {
     return { initialCase: c, slots };
   }
 
-  const journal = new Journal(localStorageOrNull());
+  // this tab's edits are journaled under its writer; its lock tells other tabs it is still running
+  holdTabLock(store.writer);
+  const journal = new Journal(localStorageOrNull(), store.writer);
   try {
     reportRecoveries(await recoverJournal(store, journal));
   } catch {

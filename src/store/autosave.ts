@@ -1,7 +1,9 @@
 /**
  * The autosave engine. Every change to the open case is saved after a short quiet time (debounce);
- * `emergency()` (called on `pagehide` and when the page is hidden) copies unsaved edits to the
- * synchronous journal at once and starts the save. Saves run one at a time, each compare-and-set
+ * meanwhile each edit is copied at once to this tab's journal record in IndexedDB (so a hard kill
+ * loses at most the edit in flight; src/store/journal.ts), and `emergency()` (called on `pagehide`
+ * and when the page is hidden) copies unsaved edits to the synchronous localStorage journal and
+ * starts the save. Saves run one at a time, each compare-and-set
  * on the revision the edits started from.
  *
  * - Storage full: the case stays in memory (and in the journal if that has room), the state says
@@ -61,6 +63,11 @@ export class Autosaver {
   private readonly timers: Timers;
   private readonly now: () => number;
   private readonly unsubscribe: () => void;
+  /** the journal record this tab should hold next: a copy of unsaved edits, or none */
+  private journalWanted: { kind: 'put'; c: Case; base: number | null } | { kind: 'clear'; id: string } | null = null;
+  private journalBusy = false;
+  /** resolves when the journal record is up to date (tests, and the fault runs, wait on it) */
+  journalIdle: Promise<void> = Promise.resolve();
 
   constructor(
     private readonly store: CaseStore,
@@ -87,6 +94,29 @@ export class Autosaver {
 
   isDirty(): boolean {
     return this.current !== null && JSON.stringify(this.current) !== this.savedJson;
+  }
+
+  /**
+   * Bring this tab's journal record in line with the edits: writes run one at a time, and a
+   * newer wish replaces one not yet started, so a drag does not queue up writes.
+   */
+  private journalRecord(want: NonNullable<Autosaver['journalWanted']>): void {
+    this.journalWanted = want;
+    if (this.journalBusy) return;
+    this.journalBusy = true;
+    this.journalIdle = (async () => {
+      while (this.journalWanted) {
+        const w = this.journalWanted;
+        this.journalWanted = null;
+        try {
+          if (w.kind === 'put') await this.store.putJournal(w.c, w.base, this.now());
+          else await this.store.clearJournal(w.id);
+        } catch {
+          /* the localStorage copy and the autosave remain; a failed copy is not an error to show */
+        }
+      }
+      this.journalBusy = false;
+    })();
   }
 
   private setState(s: SaveState): void {
@@ -140,11 +170,13 @@ export class Autosaver {
     }
     if (!this.current) {
       this.current = c;
+      this.journalRecord({ kind: 'put', c, base: null });
       this.schedule();
       return;
     }
     this.current = c;
     if (!this.isDirty()) return;
+    this.journalRecord({ kind: 'put', c, base: this.revision });
     if (this._state.kind === 'conflict') return; // waiting for the user's choice
     this.schedule();
   }
@@ -205,8 +237,11 @@ export class Autosaver {
     this.savedJson = json;
     if (!this.isDirty()) {
       this.opts.journal?.clear(record.id);
+      this.journalRecord({ kind: 'clear', id: record.id });
       this.setState({ kind: 'saved', at: this.now(), revision: record.revision });
     } else {
+      // the edits made during the save now continue from the revision just written
+      if (this.current) this.journalRecord({ kind: 'put', c: this.current, base: record.revision });
       this.schedule();
     }
   }
@@ -219,6 +254,7 @@ export class Autosaver {
     const theirsRead = theirs ? readCaseData(theirs.data) : null;
     const theirsCase = theirsRead?.ok ? theirsRead.case : null;
     if (!this.isDirty() && theirs && theirsCase) {
+      this.journalRecord({ kind: 'clear', id: cur.id });
       this.current = theirsCase;
       this.revision = theirs.revision;
       this.savedJson = JSON.stringify(theirsCase);
@@ -248,6 +284,7 @@ export class Autosaver {
         this.revision = st.theirs.revision;
         this.savedJson = JSON.stringify(st.theirsCase);
         this.opts.journal?.clear(mine.id);
+        this.journalRecord({ kind: 'clear', id: mine.id });
         this.setState({ kind: 'saved', at: this.now(), revision: st.theirs.revision });
         result = st.theirsCase;
         return;
@@ -262,6 +299,7 @@ export class Autosaver {
       }
       const copy = await this.store.saveAsNew(mine, `${mine.name} (my copy)`);
       this.opts.journal?.clear(mine.id);
+      this.journalRecord({ kind: 'clear', id: mine.id });
       this.current = copy.case;
       this.revision = copy.record.revision;
       this.savedJson = JSON.stringify(copy.case);

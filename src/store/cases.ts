@@ -13,7 +13,7 @@ import type { IDBPDatabase } from 'idb';
 import type { Case } from '../case/schema';
 import { newId } from '../case/defaults';
 import { openCaseDb, type ConnectionEvent } from './db';
-import type { CaseDB, CaseRecord, TrashRecord } from './schema';
+import type { CaseDB, CaseRecord, JournalRecord, TrashRecord } from './schema';
 import { readCaseData, type ReadResult } from './caseData';
 
 /** Deleted cases stay restorable this long (then they are purged when the store opens). */
@@ -292,6 +292,23 @@ export class CaseStore {
     }
     await tx.done;
     return n;
+  }
+
+  // ---- the journal of unsaved edits (src/store/journal.ts) ----------------------------------
+
+  /** Keep a copy of this tab's unsaved edits of `c` (one record per case and tab, replaced). */
+  async putJournal(c: Case, baseRevision: number | null, at = this.now()): Promise<void> {
+    const rec: JournalRecord = { key: `${c.id}|${this.writer}`, caseId: c.id, writer: this.writer, baseRevision, at, data: c };
+    await this.write((db) => db.put('journal', rec));
+  }
+
+  /** Drop a journal record (by default this tab's for the case). */
+  async clearJournal(caseId: string, writer = this.writer): Promise<void> {
+    await this.write((db) => db.delete('journal', `${caseId}|${writer}`));
+  }
+
+  async journalRecords(): Promise<JournalRecord[]> {
+    return (await this.connection()).getAll('journal');
   }
 
   async lastOpenId(): Promise<string | undefined> {

@@ -9,6 +9,8 @@
  *      tabs, list fields copied out so the library does not parse every case), indexes
  *      `by-saved` and `by-parent`; store `meta` (last-open case, …).
  *   3  store `trash`: deleted cases are moved here (undo, and recovery for 30 days).
+ *   4  store `journal`: the copy of unsaved edits each tab writes on every edit (keyed by case and
+ *      tab), replayed at the next start after a hard kill (src/store/journal.ts).
  *
  * A record whose case does not validate is never dropped: the migration wraps whatever is there,
  * the library lists it as unreadable, and it can still be exported as raw JSON.
@@ -16,7 +18,7 @@
 import type { DBSchema, IDBPDatabase, IDBPTransaction, StoreNames } from 'idb';
 
 export const DB_NAME = 'downgradient';
-export const DB_VERSION = 3;
+export const DB_VERSION = 4;
 
 /** One stored case. `data` is the case file object (any case-file version; migrated on read). */
 export interface CaseRecord {
@@ -41,6 +43,20 @@ export interface TrashRecord {
   record: CaseRecord;
 }
 
+/** Unsaved edits of one case in one tab, written on every edit until they are saved. */
+export interface JournalRecord {
+  /** `${caseId}|${writer}` */
+  key: string;
+  caseId: string;
+  /** the tab (CaseStore.writer) that made the edits */
+  writer: string;
+  /** the stored revision the edits started from (null: the case was never stored) */
+  baseRevision: number | null;
+  /** epoch ms of the edit */
+  at: number;
+  data: unknown;
+}
+
 export type MetaKey = 'lastOpenId';
 
 export interface CaseDB extends DBSchema {
@@ -57,6 +73,10 @@ export interface CaseDB extends DBSchema {
   meta: {
     key: MetaKey;
     value: string;
+  };
+  journal: {
+    key: string;
+    value: JournalRecord;
   };
 }
 
@@ -110,5 +130,8 @@ export async function upgradeDatabase(
   if (oldVersion < 3) {
     const trash = db.createObjectStore('trash', { keyPath: 'id' });
     trash.createIndex('by-deleted', 'deletedAt');
+  }
+  if (oldVersion < 4) {
+    db.createObjectStore('journal', { keyPath: 'key' });
   }
 }

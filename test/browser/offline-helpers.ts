@@ -126,3 +126,24 @@ export function expectOnlyAllowedOrigins(w: Watched): string[] {
   const own = new URL(w.base).origin;
   return [...w.origins].filter((o) => o !== own && o !== TILE_ORIGIN);
 }
+
+/** Names of the cases in the unsaved-edits journal store, read with the raw API inside the page. */
+export async function journaledNames(page: Page): Promise<string[]> {
+  return page.evaluate(
+    () =>
+      new Promise<string[]>((resolve, reject) => {
+        const r = indexedDB.open('downgradient');
+        r.onerror = () => reject(r.error);
+        r.onsuccess = () => {
+          const db = r.result;
+          if (!db.objectStoreNames.contains('journal')) return (db.close(), resolve([]));
+          const q = db.transaction('journal').objectStore('journal').getAll();
+          q.onsuccess = () => {
+            db.close();
+            resolve((q.result as { data: { name: string } }[]).map((j) => j.data.name));
+          };
+          q.onerror = () => reject(q.error);
+        };
+      }),
+  );
+}

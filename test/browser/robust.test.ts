@@ -1,4 +1,5 @@
-// Nothing a user imports can lock them out (issue 14), in real Chromium. Each class of case file
+// Nothing a user imports or does can lock them out, and a hard kill loses at most the edit in
+// flight (issue 14), in real Chromium. Each class of case file
 // whose shape passes the schema but whose positions fail the site checks (a receptor about
 // 1,400 km from the datum, a datum longitude of 500, a datum latitude of 95, a receptor at ±1e308,
 // a water-level well at latitude 1e308) is refused at import with the field named, and nothing is
@@ -7,10 +8,13 @@
 // needing-repair case itself all open; switching from it to another case works.
 // The accepted ranges are the app's own (WGS 84 longitude −180…180, latitude −90…90, and the
 // 1,000 km site-scale limit of src/geo/projection.ts).
-import { describe, expect, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { artifactPath, LANDSCAPE } from './browser';
-import { demoCase, openDemo, openFiles, storedCases, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { artifactPath, killBrowser, launchPersistent, LANDSCAPE } from './browser';
+import { demoCase, journaledNames, openDemo, openFiles, renameInHeader, storedCases, useBrowser, waitSaved, watchedPage } from './offline-helpers';
 
 const getBrowser = useBrowser();
 const demo = demoCase();
@@ -108,5 +112,37 @@ describe('nothing imported can lock the user out', () => {
     expect(await page.getByTestId('map-problem').count()).toBe(0);
     expect(w.pageErrors).toEqual([]);
     await context.close();
+  });
+});
+
+describe('a hard kill loses at most the edit in flight', () => {
+  it('SIGKILL of the browser right after an edit: the edit is there on restart, no copy made', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'dg-kill-'));
+    try {
+      const base = inject('baseUrl');
+      let ctx = await launchPersistent(dir);
+      let page = ctx.pages()[0] ?? (await ctx.newPage());
+      await page.goto(base);
+      await waitSaved(page);
+      await openDemo(page);
+      await renameInHeader(page, 'Edited a moment before the kill');
+      // the edit's copy is in IndexedDB at once (no quiet time), well before the debounced save
+      await expect.poll(() => journaledNames(page), { timeout: 5_000, interval: 20 }).toContain('Edited a moment before the kill');
+      const stateAtKill = await page.getByTestId('save-state').getAttribute('data-state');
+      killBrowser(dir);
+      await ctx.close().catch(() => {});
+
+      ctx = await launchPersistent(dir);
+      page = ctx.pages()[0] ?? (await ctx.newPage());
+      await page.goto(base);
+      await waitSaved(page);
+      await expect.poll(() => page.getByLabel('Case name', { exact: true }).inputValue()).toBe('Edited a moment before the kill');
+      const names = (await storedCases(page)).map((s) => s.name);
+      expect(names, `saved state at the kill: ${stateAtKill}`).toContain('Edited a moment before the kill');
+      expect(names.some((n) => /recovered edits/.test(n))).toBe(false);
+      await ctx.close();
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -96,7 +96,7 @@ describe('Autosaver', () => {
     const store = await CaseStore.open();
     const c = sampleCase('Field visit');
     await store.save(c, null);
-    const a = new Autosaver(store, { timers: new ManualTimers(), journal: new Journal(storage) });
+    const a = new Autosaver(store, { timers: new ManualTimers(), journal: new Journal(storage, store.writer) });
     a.open(c, 1);
     a.change(edit(c, 'water level 3.2 m'));
     // pagehide: the journal copy is written before anything asynchronous happens
@@ -114,6 +114,86 @@ describe('Autosaver', () => {
     expect(((await store2.getRecord(c.id))?.data as Case).notes).toBe('water level 3.2 m');
     expect(storage.length).toBe(0);
     store2.close();
+  });
+
+  it('a hard kill right after an edit: the edit is already in the IndexedDB journal, and the next start saves it', async () => {
+    const store = await CaseStore.open();
+    const c = sampleCase('Killed');
+    await store.save(c, null);
+    const a = new Autosaver(store, { timers: new ManualTimers(), journal: new Journal(new MemoryStorage(), store.writer) });
+    a.open(c, 1);
+    a.change(edit(c, 'first'));
+    a.change(edit(c, 'second')); // replaces the first copy before or after it is written
+    await a.journalIdle; // no save ran (the quiet time never ended), no pagehide: a kill
+    expect(a.state.kind).toBe('pending');
+    a.dispose();
+    store.close();
+
+    const store2 = await CaseStore.open();
+    const rec = await recoverJournal(store2, new Journal(new MemoryStorage(), store2.writer), async () => new Set());
+    expect(rec).toEqual([{ id: c.id, outcome: 'saved', name: 'Killed' }]);
+    expect(((await store2.getRecord(c.id))?.data as Case).notes).toBe('second');
+    expect(await store2.journalRecords()).toEqual([]);
+    store2.close();
+  });
+
+  it('the journal record is dropped once the edits are saved', async () => {
+    const store = await CaseStore.open();
+    const c = sampleCase('Saved normally');
+    await store.save(c, null);
+    const timers = new ManualTimers();
+    const a = new Autosaver(store, { timers });
+    a.open(c, 1);
+    a.change(edit(c, 'typed'));
+    await a.journalIdle;
+    expect((await store.journalRecords()).length).toBe(1);
+    timers.fire();
+    await a.flush();
+    await a.journalIdle;
+    expect(a.state.kind).toBe('saved');
+    expect(await store.journalRecords()).toEqual([]);
+    a.dispose();
+    store.close();
+  });
+
+  it('edits made while a save ran continue from that save: recovery saves them, no "(recovered edits)" copy (issue 14.4)', async () => {
+    const store = await CaseStore.open();
+    const c = sampleCase('Dragged');
+    await store.save(c, null);
+    // the tab journaled edit 2 on revision 1, then its save of edit 1 committed as revision 2, then it was killed
+    await store.putJournal(edit(c, 'edit 2'), 1);
+    await store.save(edit(c, 'edit 1'), 1);
+    const rec = await recoverJournal(store, new Journal(null), async () => new Set());
+    expect(rec.map((r) => r.outcome)).toEqual(['saved']);
+    expect(((await store.getRecord(c.id))?.data as Case).notes).toBe('edit 2');
+    expect((await store.list()).length).toBe(1);
+    store.close();
+  });
+
+  it('a copy whose contents are already stored (only the edit time differs) makes no copy', async () => {
+    const storage = new MemoryStorage();
+    const store = await CaseStore.open();
+    const c = sampleCase('Same');
+    await store.save(c, null);
+    await store.save(edit(c, 'theirs'), 1); // another tab saved revision 2
+    new Journal(storage, 'another-tab').write({ ...edit(c, 'theirs'), modified: '2030-01-01T00:00:00.000Z' }, 1);
+    const rec = await recoverJournal(store, new Journal(storage, store.writer), async () => new Set());
+    expect(rec.map((r) => r.outcome)).toEqual(['already-saved']);
+    expect((await store.list()).length).toBe(1);
+    expect(storage.length).toBe(0);
+    store.close();
+  });
+
+  it('the copies of a tab that is still running are left alone', async () => {
+    const store = await CaseStore.open();
+    const c = sampleCase('Open elsewhere');
+    await store.save(c, null);
+    await store.putJournal(edit(c, 'still typing'), 1);
+    const rec = await recoverJournal(store, new Journal(null), async () => new Set([store.writer]));
+    expect(rec).toEqual([]);
+    expect((await store.journalRecords()).length).toBe(1);
+    expect(((await store.getRecord(c.id))?.data as Case).notes).not.toBe('still typing');
+    store.close();
   });
 
   it('recovery never overwrites a newer save from elsewhere: the edits become a copy', async () => {
