@@ -7,7 +7,8 @@ import { newCase } from '../case/defaults';
 import { parseCaseFile, serializeCase, DEFAULT_MAX_BYTES } from '../case/io';
 import { currentCase, replaceCase } from '../ui/state';
 import type { ConflictChoice } from '../store/autosave';
-import { StorageFullError } from '../store/cases';
+import { StorageFullError, type CaseStore, type CaseSummary } from '../store/cases';
+import { distinctName, sameContent } from '../case/identity';
 import { caseProblem } from '../case/check';
 import { storageInfo } from '../store/quota';
 import { libraryChanged, notify, session, storage } from './session';
@@ -131,15 +132,34 @@ export async function restoreDeleted(id: string): Promise<void> {
   }
 }
 
+/** "Depot", "Depot (2)" and "Depot (3)" share the base name "Depot" (distinctName's numbering). */
+function sameBaseName(a: string, b: string): boolean {
+  const base = (n: string) => n.trim().toLowerCase().replace(/ \(\d+\)$/, '');
+  return base(a) === base(b);
+}
+
+/** The first of `candidates` whose stored inputs equal `c`'s (its name aside: copies are numbered). */
+async function findSameContent(store: CaseStore, candidates: CaseSummary[], c: Case): Promise<{ case: Case; revision: number } | null> {
+  for (const s of candidates) {
+    const loaded = await store.load(s.id);
+    if (loaded?.read.ok && sameContent({ ...loaded.read.case, name: c.name }, c)) return { case: loaded.read.case, revision: loaded.record.revision };
+  }
+  return null;
+}
+
 export type ImportOutcome =
   | { ok: true; name: string; note: string | null }
   /** `repairable`: a well-formed case the screening checks refuse; the user may still keep it to repair */
-  | { ok: false; errors: string[]; repairable?: Case };
+  | { ok: false; errors: string[]; repairable?: Case }
+  /** a case with this id or name is stored with other content: the user chooses (`resolveImport`) */
+  | { ok: 'choose'; incoming: Case; existing: { id: string; name: string; savedAt: number }; keepBothName: string };
 
 /**
  * Import a case file. A file that is malformed, too large, of an unknown version or hostile is
- * rejected with what is wrong, and nothing stored changes. An imported case whose id is already
- * on the device with different content is stored as a separate copy (new id).
+ * rejected with what is wrong, and nothing stored changes. A case whose content is already stored
+ * (same inputs, whatever the id) is opened, not stored again. One that shares its id or name with
+ * a stored case of other content is not stored until the user chooses (`resolveImport`): replace
+ * the stored case, or keep both, the new one under a distinct name.
  */
 export async function importCaseText(text: string, fileName = 'the file'): Promise<ImportOutcome> {
   const parsed = parseCaseFile(text, { maxBytes: DEFAULT_MAX_BYTES });
@@ -164,16 +184,22 @@ async function storeImported(c: Case, repairNote: string | null = null): Promise
   const { store, autosaver } = need();
   await autosaver.flush();
   try {
-    const existing = await store.getRecord(c.id);
-    if (existing && JSON.stringify(existing.data) === JSON.stringify(c)) {
-      show(c, existing.revision);
-      return { ok: true, name: c.name, note: withRepair('This exact case was already on the device; it is now open.', repairNote) };
+    const list = await store.list();
+    const byId = list.find((s) => s.id === c.id);
+    const byName = list.filter((s) => s.id !== c.id && sameBaseName(s.name, c.name));
+    const stored = await findSameContent(store, [...(byId ? [byId] : []), ...byName], c);
+    if (stored) {
+      show(stored.case, stored.revision);
+      return { ok: true, name: c.name, note: withRepair(`This case was already on the device as “${stored.case.name}”; it is now open (nothing was added).`, repairNote) };
     }
-    if (existing) {
-      const copy = await store.saveAsNew(c);
-      show(copy.case, copy.record.revision);
-      libraryChanged();
-      return { ok: true, name: c.name, note: withRepair('A different version of this case is on the device; the file was stored beside it as a separate copy.', repairNote) };
+    const clash = byId ?? byName.find((s) => s.name.trim().toLowerCase() === c.name.trim().toLowerCase());
+    if (clash) {
+      return {
+        ok: 'choose',
+        incoming: c,
+        existing: { id: clash.id, name: clash.name, savedAt: clash.savedAt },
+        keepBothName: distinctName(c.name, list.map((s) => s.name)),
+      };
     }
     const r = await store.save(c, null);
     if (r.status !== 'saved') throw new Error('the case appeared in storage meanwhile; import again');
@@ -184,6 +210,47 @@ async function storeImported(c: Case, repairNote: string | null = null): Promise
     if (e instanceof StorageFullError) return { ok: false, errors: [e.message] };
     return { ok: false, errors: [`${c.name}: could not be stored: ${message(e)}`] };
   }
+}
+
+/** The user's answer to an import that clashes with a stored case. */
+export async function resolveImport(
+  choice: 'replace' | 'keep-both',
+  pending: Extract<ImportOutcome, { ok: 'choose' }>,
+): Promise<{ ok: true; name: string } | { ok: false; error: string }> {
+  const { store, autosaver } = need();
+  await autosaver.flush();
+  try {
+    if (choice === 'replace') {
+      const c: Case = { ...pending.incoming, id: pending.existing.id };
+      const record = await store.forceSave(c);
+      show(c, record.revision);
+      libraryChanged();
+      return { ok: true, name: c.name };
+    }
+    const copy = await store.saveAsNew(pending.incoming, pending.keepBothName);
+    show(copy.case, copy.record.revision);
+    libraryChanged();
+    return { ok: true, name: copy.case.name };
+  } catch (e) {
+    return { ok: false, error: e instanceof StorageFullError ? e.message : `Could not store the case: ${message(e)}` };
+  }
+}
+
+/**
+ * Open a demo case. A stored copy with the demo's inputs unchanged is opened instead of storing
+ * another; if only edited copies are stored, the fresh demo gets a distinct name beside them.
+ */
+export async function openDemoCase(build: () => Case): Promise<void> {
+  const fresh = build();
+  const { store, autosaver } = session;
+  if (!store || !autosaver) return replaceCase(fresh); // no storage: the demo runs in memory
+  await autosaver.flush();
+  const list = await store.list();
+  const stored = await findSameContent(store, list.filter((s) => sameBaseName(s.name, fresh.name)), fresh);
+  if (stored) return show(stored.case, stored.revision);
+  const name = distinctName(fresh.name, list.map((s) => s.name));
+  if (name !== fresh.name) notify({ tone: 'info', text: `Opened a fresh copy of the demo as “${name}”; your edited “${fresh.name}” is kept.`, timeoutMs: 8000 });
+  replaceCase({ ...fresh, name });
 }
 
 export function caseFileText(c: Case = currentCase.peek()): string {

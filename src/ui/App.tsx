@@ -18,6 +18,7 @@ import { ResultsPanel } from './panels/ResultsPanel';
 import { SettingsDialog } from './panels/SettingsDialog';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
+import { openDemoCase } from '../app/actions';
 import { openSections } from './view';
 import { startEvaluation } from './evaluation';
 import { Guard } from './Guard';
@@ -133,7 +134,7 @@ function DemoPicker() {
         const d = DEMO_CASES.find((x) => x.file === el.value);
         el.value = '';
         if (d) {
-          replaceCase(d.build());
+          void openDemoCase(d.build);
           // a demo opens on its results; the inputs are one tap away
           openSections.value = new Set();
         }

@@ -106,4 +106,66 @@ describe('case sheet', () => {
     expect(w.pageErrors).toEqual([]);
     await context.close();
   });
+
+  it('demo picks and re-imports do not duplicate cases; a clashing import offers replace or keep both', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page);
+    const count = async () => (await storedNames(page)).filter((n) => n.startsWith(demo.name)).length;
+    expect(await count()).toBe(1);
+    await page.selectOption('select.dg-demo', 'fuel-release-farm-well.json');
+    await waitSaved(page);
+    await page.waitForTimeout(500);
+    expect(await count()).toBe(1); // the unchanged stored copy is opened again
+    // an edited demo is kept; picking the demo again opens a fresh copy beside it, once
+    await page.getByRole('button', { name: /Where is the release/ }).click();
+    await page.locator('[data-field="source.concentration"] input.dg-num').fill('33');
+    await waitSaved(page);
+    await expect.poll(async () => (await storedCases(page)).some((c) => (c.data as any).source.concentration.value === 33)).toBe(true);
+    await page.selectOption('select.dg-demo', 'fuel-release-farm-well.json');
+    await expect.poll(() => storedNames(page)).toContain(`${demo.name} (2)`);
+    await page.selectOption('select.dg-demo', 'fuel-release-farm-well.json');
+    await waitSaved(page);
+    await page.waitForTimeout(500);
+    expect(await count()).toBe(2);
+
+    // the open case exported and imported again: nothing added
+    await openFiles(page);
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-case').click()]);
+    const text = readFileSync((await dl.path())!, 'utf8');
+    const importFile = async (name: string, body: string) => {
+      await page.getByTestId('import-input').setInputFiles({ name, mimeType: 'application/json', buffer: Buffer.from(body) });
+    };
+    await importFile('again.json', text);
+    await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/already on the device/);
+    expect(await count()).toBe(2);
+    // the same case with other values: the user chooses
+    const changed = JSON.parse(text);
+    changed.source.concentration.value = 44;
+    await importFile('changed.json', JSON.stringify(changed));
+    const ask = page.getByTestId('import-choice');
+    await ask.waitFor();
+    await page.screenshot({ path: artifactPath('import-choice-landscape.png') });
+    expect(await count()).toBe(2); // nothing stored before the choice
+    await ask.getByRole('button', { name: /Keep both/ }).click();
+    await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/as “.*\(3\)”/);
+    expect(await count()).toBe(3);
+    // importing that file once more finds the kept copy: nothing added
+    await importFile('changed.json', JSON.stringify(changed));
+    await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/already on the device/);
+    expect(await count()).toBe(3);
+    // replace: the stored case takes the file's values, no new entry
+    changed.source.concentration.value = 55;
+    await importFile('changed55.json', JSON.stringify(changed));
+    await ask.waitFor();
+    await ask.getByRole('button', { name: /Replace the stored case/ }).click();
+    await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/Replaced/);
+    expect(await count()).toBe(3);
+    const byId = (await storedCases(page)).find((c) => c.id === changed.id);
+    expect((byId?.data as any).source.concentration.value).toBe(55);
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
 });

@@ -4,7 +4,7 @@
  */
 import { useState } from 'preact/hooks';
 import { currentCase, currentResults } from '../state';
-import { importCaseText, importForRepair } from '../../app/actions';
+import { importCaseText, importForRepair, resolveImport, type ImportOutcome } from '../../app/actions';
 import type { Case } from '../../case/schema';
 import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
 import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, type Built } from './outputs';
@@ -23,6 +23,7 @@ type Msg = { tone: 'ok' | 'error'; lines: string[]; repairable?: Case } | null;
 export function FilesView() {
   const [msg, setMsg] = useState<Msg>(null);
   const [busy, setBusy] = useState(false);
+  const [pending, setPending] = useState<(Extract<ImportOutcome, { ok: 'choose' }> & { fileName: string }) | null>(null);
   const c = currentCase.value;
   const r = currentResults.value;
   const share = canShareFiles();
@@ -62,7 +63,9 @@ export function FilesView() {
         return;
       }
       const res = await importCaseText(text, file.name);
-      if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” from ${file.name} and opened it.`, ...(res.note ? [res.note] : [])] });
+      setPending(res.ok === 'choose' ? { ...res, fileName: file.name } : null);
+      if (res.ok === 'choose') setMsg(null);
+      else if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” from ${file.name} and opened it.`, ...(res.note ? [res.note] : [])] });
       else setMsg({ tone: 'error', lines: [...res.errors, 'Nothing was imported; the cases on this device are unchanged.'], repairable: res.repairable });
     } catch (e) {
       setMsg({ tone: 'error', lines: [`${file.name}: could not be read (${e instanceof Error ? e.message : String(e)}). Nothing was imported.`] });
@@ -75,11 +78,22 @@ export function FilesView() {
     setBusy(true);
     try {
       const res = await importForRepair(c);
-      if (res.ok) setMsg({ tone: 'ok', lines: [`Kept “${res.name}” and opened it.`, ...(res.note ? [res.note] : [])] });
+      setPending(res.ok === 'choose' ? { ...res, fileName: 'the file' } : null);
+      if (res.ok === 'choose') setMsg(null);
+      else if (res.ok) setMsg({ tone: 'ok', lines: [`Kept “${res.name}” and opened it.`, ...(res.note ? [res.note] : [])] });
       else setMsg({ tone: 'error', lines: res.errors });
     } finally {
       setBusy(false);
     }
+  };
+
+  const choose = async (choice: 'replace' | 'keep-both') => {
+    if (!pending) return;
+    const p = pending;
+    setPending(null);
+    const r = await resolveImport(choice, p);
+    if (r.ok) setMsg({ tone: 'ok', lines: [choice === 'replace' ? `Replaced “${p.existing.name}” with ${p.fileName} and opened it.` : `Imported ${p.fileName} as “${r.name}” beside “${p.existing.name}” and opened it.`] });
+    else setMsg({ tone: 'error', lines: [r.error, 'Nothing was imported; the cases on this device are unchanged.'] });
   };
 
   return (
@@ -141,6 +155,36 @@ export function FilesView() {
         />
       </label>
       <p class="dg-lib-note">The file is checked before anything is stored: size (up to 2 MB), JSON, format, version, every field, and the same checks as screening (positions on the map, physical sense).</p>
+      {pending && (
+        <div ref={(el) => el?.scrollIntoView({ block: 'start' })} class="dg-lib-msg is-ask" role="group" aria-labelledby="dg-import-ask" data-testid="import-choice">
+          <p id="dg-import-ask">
+            {pending.existing.id === pending.incoming.id ? 'This case is already on the device' : 'A case with this name is already on the device'} (“{pending.existing.name}”,
+            saved {new Date(pending.existing.savedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}), with other values than {pending.fileName}.
+            Nothing is stored until you choose:
+          </p>
+          <div class="dg-lib-grid">
+            <button type="button" class="dg-lib-btn" onClick={() => void choose('replace')}>
+              Replace the stored case
+              <small>with the file's values; the stored version is overwritten</small>
+            </button>
+            <button type="button" class="dg-lib-btn is-primary" onClick={() => void choose('keep-both')}>
+              Keep both
+              <small>the file is stored as “{pending.keepBothName}”</small>
+            </button>
+            <button
+              type="button"
+              class="dg-lib-btn"
+              onClick={() => {
+                setPending(null);
+                setMsg({ tone: 'ok', lines: [`${pending.fileName} was not imported; the cases on this device are unchanged.`] });
+              }}
+            >
+              Cancel
+              <small>import nothing</small>
+            </button>
+          </div>
+        </div>
+      )}
       {msg && (
         <div class={`dg-lib-msg ${msg.tone === 'error' ? 'is-error' : 'is-ok'}`} role={msg.tone === 'error' ? 'alert' : 'status'} data-testid="files-message">
           {msg.lines.map((l, i) => (
