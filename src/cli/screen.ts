@@ -3,6 +3,8 @@
  * results, the derived parameters, warnings and the screening caution.
  *
  *   npm run screen -- <case.json> [--format table|json|csv] [--runs N] [--seed S]
+ * A case with monitoring results adds the observation summary (model against data, trend per
+ * well, attenuation rates; src/cli/observations.ts) to every format.
  *
  * With --runs or --seed, a Monte Carlo run over the case's uncertain inputs follows the
  * deterministic screening (src/case/uncertainty.ts, the same code and numbers as the app's).
@@ -18,6 +20,7 @@ import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
 import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
+import { observationSummary, observationsCsvRows, observationsJson, observationsTable } from './observations';
 import { SOLUTION_LABEL } from '../case/export-results';
 import { describeDistribution, driverSentence, runUncertainty, type Percentiles, type UncertaintyResult } from '../case/uncertainty';
 
@@ -45,6 +48,11 @@ Probabilistic screening (--runs N and/or --seed S; the other is taken from the c
   the probability of reaching the limit within the horizon with its standard error, the 5th, 50th
   and 95th percentiles of the arrival time, the concentration at the horizon and the peak, and the
   inputs that drive the answer. The same case, seed and runs give the same figures as the app.
+
+Monitoring data (case version 3, "monitoring"): every format adds, for the compared analyte, each
+monitoring well's Mann-Kendall trend (S, tau, p, Sen's slope, verdict) and point decay rate, the
+bulk attenuation and Buscheck & Alcantar biodegradation rates along the centreline, and how far
+the model is from the measurements (json: "observations", rates per day).
 
 Formats:
   table  (default) readable text; times in years, lengths in m, concentrations in mg/L
@@ -262,6 +270,11 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
     L.push('');
     L.push(...uncertaintyTable(u, p.limit));
   }
+  const obs = observationSummary(c, p);
+  if (obs) {
+    L.push('');
+    L.push(...observationsTable(c, obs, pad, wrap));
+  }
   L.push('');
   L.push('Warnings');
   if (!s.warnings.length) L.push('  none');
@@ -340,6 +353,10 @@ function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyR
           },
         }
       : {}),
+    ...(() => {
+      const obs = observationSummary(c, p);
+      return obs ? { observations: observationsJson(obs) } : {};
+    })(),
     warnings: s.warnings,
     caution: s.caution,
     assumptions: ASSUMPTIONS,
@@ -349,7 +366,7 @@ function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyR
 
 /** One row per receptor (RFC 4180 via the app's CSV writer, numbers unrounded in internal units,
  * units in the column names), then the caution as a final record, as in the app's CSV exports. */
-function formatCsv(s: ScreeningResult, u: UncertaintyResult | null): string {
+function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null): string {
   const head: Cell[] = [
     'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
@@ -381,7 +398,8 @@ function formatCsv(s: ScreeningResult, u: UncertaintyResult | null): string {
       ]
     : [];
   const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];
-  return csvRecords([head, ...rows, ...inputs, caution]);
+  const obs = observationSummary(c, s.prepared);
+  return csvRecords([head, ...rows, ...inputs, ...(obs ? observationsCsvRows(obs, head.length) : []), caution]);
 }
 
 function uncertaintyCells(u: UncertaintyResult, j: number): Cell[] {
@@ -448,7 +466,7 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   const version = (JSON.parse(text.replace(/^\uFEFF/, '')) as { version?: number }).version;
   const source = `${args.file} (version ${version}${version !== c.version ? `, read as version ${c.version}` : ''})`;
-  out(args.format === 'json' ? formatJson(c, result, args.file, uncertainty) : args.format === 'csv' ? formatCsv(result, uncertainty) : formatTable(c, result, source, uncertainty));
+  out(args.format === 'json' ? formatJson(c, result, args.file, uncertainty) : args.format === 'csv' ? formatCsv(c, result, uncertainty) : formatTable(c, result, source, uncertainty));
   return EXIT.ok;
 }
 

@@ -278,3 +278,60 @@ describe('npm run screen -- case.json --runs N --seed S', () => {
     expect(r.err).toMatch(/no input has a distribution/);
   });
 });
+
+describe('npm run screen -- case.json with monitoring data', () => {
+  // The figures must be the in-process analysis (src/case/observations.ts, itself tested against
+  // SciPy and the steady-state centreline); here the CLI's job is to carry them in every format.
+  const file = demo('depot-benzene-monitoring');
+  const inProcess = async () => {
+    const { analyseObservations } = await import('../../src/case/observations');
+    const r = parseCaseFile(readFileSync(file, 'utf8'));
+    if (!r.ok) throw new Error(r.errors.join('; '));
+    return analyseObservations(r.case);
+  };
+
+  test('json: observations { wells: [{ name, trend: { s, tau, p, senSlope, verdict }, pointRate }], bulkRate, biodegradationRate }, rates per day', async () => {
+    const { code, out } = run(file, '--format', 'json');
+    expect(code).toBe(0);
+    const o = JSON.parse(out).observations;
+    const ref = await inProcess();
+    expect(o.wells.map((w: { name: string }) => w.name)).toEqual(ref.wells.map((w) => w.name));
+    o.wells.forEach((w: { trend: Record<string, unknown>; pointRate: { rate: number } | null }, i: number) => {
+      const t = ref.wells[i].trend;
+      expect(w.trend).toMatchObject({ s: t.mannKendall!.s, tau: t.mannKendall!.tau, p: t.mannKendall!.p, senSlope: t.sen!.slope, verdict: t.verdict });
+      expect(w.pointRate?.rate ?? null).toBe(ref.wells[i].pointRate?.rate ?? null);
+    });
+    expect(o.bulkRate.rate).toBe(ref.bulkRate!.rate);
+    expect(o.biodegradationRate.rate).toBe(ref.biodegradationRate!.rate);
+    expect(o.biodegradationRate.interval).toEqual([...ref.biodegradationRate!.interval!]);
+    expect(o.notes.join(' ')).toMatch(/must not be used as one in the transport solutions/);
+  });
+
+  test('table: a monitoring section with a row per well, the rates, the model comparison and the cautions', () => {
+    const { code, out } = run(file);
+    expect(code).toBe(0);
+    const section = out.slice(out.indexOf('Monitoring data'), out.indexOf('\nWarnings'));
+    for (const w of ['MW-1', 'MW-2', 'MW-3', 'MW-4', 'MW-5']) expect(section).toMatch(new RegExp(`\\n  ${w} `));
+    expect(section).toMatch(/< 1 µg\/L/); // a non-detect printed as such
+    expect(section).toMatch(/Bulk attenuation rate/);
+    expect(section).toMatch(/Biodegradation rate \(Buscheck & Alcantar 1995/);
+    const flat = section.replace(/\s+/g, ' '); // sentences are wrapped at 96 columns
+    expect(flat).toMatch(/within a factor of ten/);
+    expect(flat).toMatch(/must not be used as one in the transport solutions/);
+  });
+
+  test('csv: observation records before the caution, each the header\'s width', () => {
+    const { code, out } = run(file, '--format', 'csv');
+    expect(code).toBe(0);
+    const rows = out.split('\r\n').filter(Boolean);
+    const obs = rows.filter((r) => r.startsWith('observations,'));
+    expect(obs).toHaveLength(6); // header + 5 wells
+    expect(rows.some((r) => r.startsWith('biodegradation rate,'))).toBe(true);
+    expect(rows[rows.length - 1].startsWith('screening caution,')).toBe(true);
+  });
+
+  test('a case without monitoring results has no observations key', () => {
+    const { out } = run(demo('fuel-release-farm-well'), '--format', 'json');
+    expect('observations' in JSON.parse(out)).toBe(false);
+  });
+});
