@@ -365,6 +365,8 @@ export interface RealisationBlock {
   /** the engine's message for each refused realisation (at most the first five) */
   readonly refusals: { realisation: number; message: string }[];
   readonly refusedCount: number;
+  /** realisations computed in the block (screened or refused); a joined partial run has NaN rows for the rest */
+  readonly evaluated: number;
 }
 
 /** Screen realisations [from, to) of a planned run. */
@@ -401,10 +403,14 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
       peak.fill(Number.NaN, row, row + nr);
     }
   }
-  return { from, to, receptors: nr, arrival, atHorizon, peak, refusals, refusedCount };
+  return { from, to, receptors: nr, arrival, atHorizon, peak, refusals, refusedCount, evaluated: count };
 }
 
-/** Blocks in any order and split → one block of the whole run (realisation order). */
+/**
+ * Blocks in any order and split → one block of the whole run in realisation order; realisations
+ * not yet computed stay NaN and are left out of the statistics (a partial run's realisations are
+ * still draws from the distributions: which strata a realisation uses does not depend on its index).
+ */
 export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBlock[]): RealisationBlock {
   const nr = plan.prepared.receptors.length;
   const n = plan.runs;
@@ -413,16 +419,16 @@ export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBl
   const peak = new Float64Array(n * nr).fill(Number.NaN);
   const refusals: RealisationBlock['refusals'] = [];
   let refusedCount = 0;
-  let done = 0;
+  let evaluated = 0;
   for (const b of [...blocks].sort((a, b) => a.from - b.from)) {
     arrival.set(b.arrival, b.from * nr);
     atHorizon.set(b.atHorizon, b.from * nr);
     peak.set(b.peak, b.from * nr);
     refusals.push(...b.refusals);
     refusedCount += b.refusedCount;
-    done += b.to - b.from;
+    evaluated += b.evaluated;
   }
-  return { from: 0, to: done, receptors: nr, arrival, atHorizon, peak, refusals: refusals.slice(0, 5), refusedCount };
+  return { from: 0, to: n, receptors: nr, arrival, atHorizon, peak, refusals: refusals.slice(0, 5), refusedCount, evaluated };
 }
 
 export interface Percentiles {
@@ -532,7 +538,7 @@ export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs
   return {
     runs: plan.runs,
     seed: plan.seed,
-    done: n,
+    done: block.evaluated,
     refusedCount: block.refusedCount,
     refusals: block.refusals,
     solution: plan.prepared.model.solution,

@@ -15,6 +15,7 @@ import { FlowPanel } from './panels/FlowPanel';
 import { AquiferPanel } from './panels/AquiferPanel';
 import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
+import { UncertaintyPanel } from './panels/UncertaintyPanel';
 import { SettingsDialog } from './panels/SettingsDialog';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
@@ -92,6 +93,7 @@ const PANELS: [string, () => preact.JSX.Element | null][] = [
   ['The aquifer inputs', AquiferPanel],
   ['The receptors', ReceptorsPanel],
   ['The results', ResultsPanel],
+  ['How sure it is', UncertaintyPanel],
 ];
 
 /** Why no map can be framed on the case on screen (in words), or null. */

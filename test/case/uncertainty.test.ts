@@ -167,6 +167,11 @@ describe('a run is the same however it is split', () => {
     ].map(([a, b]) => runRealisations(planUncertainty(u), a, b, designOf(plan)));
     const four = summariseRun(plan, joinBlocks(plan, blocks));
     expect(four).toEqual(one);
+    // a partial run (two of the four blocks back): only their realisations count
+    const partial = summariseRun(plan, joinBlocks(plan, [blocks[0], blocks[2]]));
+    expect(partial.done).toBe(120);
+    const rows = [...blocks[0].arrival.filter((_t, k) => k % 2 === 0), ...blocks[2].arrival.filter((_t, k) => k % 2 === 0)];
+    expect(partial.receptors[0].pExceed).toBe(rows.filter(Number.isFinite).length / 120);
     expect(one.receptors[0].drivers.map((d) => d.input)).toContain('hydraulicConductivity');
   });
 });

@@ -1,0 +1,195 @@
+/**
+ * How sure is it: the Monte Carlo screening of the case's uncertain inputs. Lists the
+ * distributions (with their notes), the run count and seed (editable), Run / Cancel with a
+ * progress bar and the time left, and per receptor the probability of reaching the limit within
+ * the horizon ± its standard error, the 5th/50th/95th percentiles, and which input drives the
+ * answer with the measurement that would settle it (bars: the exceedance probability when the
+ * input lies in its low and in its high third). Results of an earlier case are marked out of date.
+ * The deterministic results stay live while a run goes on (the run is in its own workers).
+ */
+import { Section } from './Section';
+import { currentCase, updateCase } from '../state';
+import { fmtConc, fmtTime } from '../format';
+import { describeDistribution, driverSentence, INPUT_DEFINITIONS, UNCERTAINTY_CAUTION, type ReceptorUncertainty } from '../../case/uncertainty';
+import { UNCERTAIN_INPUTS } from '../../case/schema';
+import { cancelUncertainty, caseKeyOf, startUncertainty, uncertaintyRun } from '../uncertaintyRun';
+import { MAX_RUNS } from '../../core/uncertainty';
+
+const pc = (p: number) => `${(100 * p).toFixed(p > 0 && p < 0.1 ? 1 : 0)}\u00a0%`;
+
+export function UncertaintyPanel() {
+  const c = currentCase.value;
+  const run = uncertaintyRun.value;
+  const inputs = UNCERTAIN_INPUTS.filter((k) => c.uncertainty.inputs[k]);
+  const has = inputs.length > 0 || c.uncertainty.headFit;
+  const r = run.result;
+  const stale = !!r && run.caseKey !== caseKeyOf(c);
+  const summary = !has
+    ? 'No input has a distribution in this case'
+    : r
+      ? `${r.done} of ${r.runs} realisations${stale ? ' (out of date)' : ''}`
+      : `${inputs.length + (c.uncertainty.headFit ? 2 : 0)} uncertain inputs; not run yet`;
+  return (
+    <Section id="uncertainty" title="How sure is it?" summary={summary} class="dg-uncertainty">
+      {!has ? (
+        <p>
+          No input of this case has a distribution, so there is nothing to sample. Open a demo case that carries distributions (the fuel release or the
+          nitrate field) or add an <code>uncertainty</code> block to the case file.
+        </p>
+      ) : (
+        <>
+          <p class="dg-note">Uncertain inputs (sampled independently; correlation between inputs is not represented):</p>
+          <ul class="dg-mc-inputs">
+            {inputs.map((k) => {
+              const d = c.uncertainty.inputs[k]!;
+              return (
+                <li key={k}>
+                  <strong>{INPUT_DEFINITIONS[k].label}</strong>: {describeDistribution(d, d.unit ?? undefined, k)}
+                  {d.note ? <span class="dg-note"> — {d.note}</span> : null}
+                </li>
+              );
+            })}
+            {c.uncertainty.headFit && (
+              <li>
+                <strong>flow direction and gradient</strong>: from the head readings' plane fit (least-squares covariance; understated with few readings)
+              </li>
+            )}
+          </ul>
+          <div class="dg-btn-row dg-mc-controls">
+            <label>
+              Realisations{' '}
+              <input
+                type="number"
+                inputMode="numeric"
+                min={1}
+                max={MAX_RUNS}
+                step={1}
+                value={c.uncertainty.runs}
+                onChange={(e) => {
+                  const v = Number((e.target as HTMLInputElement).value);
+                  if (Number.isFinite(v)) updateCase((d) => void (d.uncertainty.runs = v));
+                }}
+              />
+            </label>
+            <label>
+              Seed{' '}
+              <input
+                type="number"
+                inputMode="numeric"
+                min={0}
+                step={1}
+                value={c.uncertainty.seed}
+                onChange={(e) => {
+                  const v = Number((e.target as HTMLInputElement).value);
+                  if (Number.isFinite(v)) updateCase((d) => void (d.uncertainty.seed = v));
+                }}
+              />
+            </label>
+            {run.status === 'running' ? (
+              <button type="button" onClick={cancelUncertainty}>
+                Cancel
+              </button>
+            ) : (
+              <button type="button" class="dg-on" onClick={() => startUncertainty(currentCase.peek())}>
+                {r ? 'Run again' : 'Run'}
+              </button>
+            )}
+          </div>
+          {run.status === 'running' && (
+            <div class="dg-mc-progress" role="status">
+              <progress max={run.runs} value={run.done} aria-label="Realisations done" />
+              <span>
+                {run.done} of {run.runs} realisations on {run.workers} worker{run.workers === 1 ? '' : 's'}
+                {run.secondsLeft !== null ? `, about ${Math.max(1, Math.round(run.secondsLeft))} s left` : ''}
+              </span>
+            </div>
+          )}
+          {run.status === 'failed' && run.error && (
+            <p class="dg-field-error" role="alert">
+              {run.error}
+            </p>
+          )}
+          {run.status === 'cancelled' && <p class="dg-note">Cancelled: the figures below are from the {run.done} realisations done.</p>}
+          {r && (
+            <div class={stale ? 'dg-mc-results dg-stale' : 'dg-mc-results'}>
+              {stale && (
+                <p class="dg-stale-note" role="status">
+                  Out of date: the case changed since this run. Run again for figures that match the inputs.
+                </p>
+              )}
+              <p class="dg-note">
+                {r.done} realisations{r.done < r.runs ? ` of ${r.runs} (partial)` : ''}, seed {r.seed}, Latin hypercube;{' '}
+                {r.solution === 'exact' ? 'exact rectangular-source solution' : 'Domenico (1987)'}
+                {r.refusedCount ? `; ${r.refusedCount} realisations refused by the engine and left out` : ''}.
+              </p>
+              <div class="dg-table-wrap">
+                <table class="dg-table">
+                  <caption>Probability of reaching the limit within the horizon, and percentiles over the realisations</caption>
+                  <thead>
+                    <tr>
+                      <th scope="col">Receptor</th>
+                      <th scope="col">P(reaches limit)</th>
+                      <th scope="col">Arrival 5th / 50th / 95th</th>
+                      <th scope="col">Peak 5th / 50th / 95th</th>
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {r.receptors.map((x) => (
+                      <tr key={x.id}>
+                        <th scope="row">{x.name || x.id}</th>
+                        <td>
+                          {pc(x.pExceed)} ± {pc(x.pExceedSE)}
+                          <br />
+                          <span class="dg-note">
+                            95 %: {pc(x.pExceedInterval[0])}–{pc(x.pExceedInterval[1])}
+                          </span>
+                        </td>
+                        <td>{[x.arrival.p5, x.arrival.p50, x.arrival.p95].map((t) => (t === null ? 'not within horizon' : fmtTime(t))).join(' / ')}</td>
+                        <td>{[x.peak.p5, x.peak.p50, x.peak.p95].map((v) => (v === null ? '—' : fmtConc(v))).join(' / ')}</td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
+              <h3 class="dg-mc-h">Which measurement would settle it</h3>
+              {r.receptors.map((x) => (
+                <Drivers key={x.id} r={x} />
+              ))}
+            </div>
+          )}
+          <p class="dg-caution">{UNCERTAINTY_CAUTION}</p>
+        </>
+      )}
+    </Section>
+  );
+}
+
+/** The strongest drivers of one receptor: a pair of bars (low third, high third) and the words. */
+function Drivers({ r }: { r: ReceptorUncertainty }) {
+  const top = r.drivers.filter((d) => Math.abs(d.rankCorrelation) >= 0.1).slice(0, 3);
+  return (
+    <div class="dg-mc-drivers">
+      <h4>{r.name || r.id}</h4>
+      {!top.length && <p class="dg-note">No single input moves the answer much (every rank correlation below 0.1).</p>}
+      {top.map((d) => (
+        <figure key={d.input} class="dg-mc-driver">
+          <figcaption>
+            <strong>{d.label}</strong> (rank correlation {d.rankCorrelation.toFixed(2)}): {driverSentence(d)}. To narrow it: {d.measure}.
+          </figcaption>
+          <div class="dg-mc-bars" aria-hidden="true">
+            <span class="dg-mc-bar-label">low third</span>
+            <span class="dg-mc-bar">
+              <span class="dg-mc-bar-fill dg-mc-low" style={{ width: `${100 * d.pExceedLowThird}%` }} />
+            </span>
+            <span class="dg-mc-bar-value">{pc(d.pExceedLowThird)}</span>
+            <span class="dg-mc-bar-label">high third</span>
+            <span class="dg-mc-bar">
+              <span class="dg-mc-bar-fill dg-mc-high" style={{ width: `${100 * d.pExceedHighThird}%` }} />
+            </span>
+            <span class="dg-mc-bar-value">{pc(d.pExceedHighThird)}</span>
+          </div>
+        </figure>
+      ))}
+    </div>
+  );
+}

@@ -1,0 +1,105 @@
+/**
+ * A Monte Carlo run in a pool of web workers (one per core, navigator.hardwareConcurrency), with
+ * progress, time left, cancel and partial results. The run is planned on the main thread first
+ * (so a bad distribution is refused at once, with its message), then ranges of realisations are
+ * handed to whichever worker is free; every finished range updates the partial result. Cancel
+ * terminates the workers and keeps what was done. The result records the case it was computed
+ * for, so an edit marks it out of date instead of silently keeping it.
+ */
+import { signal } from '@preact/signals';
+import type { Case } from '../case/schema';
+import { joinBlocks, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan, type UncertaintyResult } from '../case/uncertainty';
+import type { UncertaintyReply, UncertaintyRequest } from '../worker/uncertainty';
+
+export interface RunState {
+  readonly status: 'idle' | 'running' | 'done' | 'cancelled' | 'failed';
+  readonly result: UncertaintyResult | null;
+  /** the case text the result belongs to (out of date when the case differs) */
+  readonly caseKey: string | null;
+  readonly done: number;
+  readonly runs: number;
+  readonly startedAt: number;
+  /** seconds left, estimated from the pace so far (null: not known yet) */
+  readonly secondsLeft: number | null;
+  readonly error: string | null;
+  readonly workers: number;
+}
+
+export const uncertaintyRun = signal<RunState>({ status: 'idle', result: null, caseKey: null, done: 0, runs: 0, startedAt: 0, secondsLeft: null, error: null, workers: 0 });
+
+/** What a result depends on: everything but the case's name, notes and time stamps. */
+export function caseKeyOf(c: Case): string {
+  return JSON.stringify([c.site, c.aquifer, c.contaminant, c.source, c.evaluation, c.uncertainty]);
+}
+
+const RANGE = 200;
+let active: { workers: Worker[]; cancel: () => void } | null = null;
+
+export function cancelUncertainty(): void {
+  active?.cancel();
+}
+
+export function startUncertainty(c: Case): void {
+  cancelUncertainty();
+  let plan: UncertaintyPlan;
+  try {
+    plan = planUncertainty(c);
+  } catch (e) {
+    uncertaintyRun.value = { ...uncertaintyRun.peek(), status: 'failed', error: e instanceof Error ? e.message : String(e) };
+    return;
+  }
+  const runs = plan.runs;
+  const n = Math.max(1, Math.min(8, navigator.hardwareConcurrency || 2, Math.ceil(runs / RANGE)));
+  const caseKey = caseKeyOf(c);
+  const startedAt = performance.now();
+  const blocks: RealisationBlock[] = [];
+  let next = 0;
+  let done = 0;
+  let finished = false;
+  let summarisedAt = 0;
+  const workers = Array.from({ length: n }, () => new Worker(new URL('../worker/uncertainty.ts', import.meta.url), { type: 'module', name: 'downgradient-monte-carlo' }));
+  const stop = (status: RunState['status'], error: string | null = null) => {
+    if (finished) return;
+    finished = true;
+    for (const w of workers) w.terminate();
+    active = null;
+    uncertaintyRun.value = { ...uncertaintyRun.peek(), status, error, secondsLeft: null };
+  };
+  active = {
+    workers,
+    cancel: () => {
+      // keep what was done: the partial result over the finished ranges
+      if (!finished && blocks.length) uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joinBlocks(plan, blocks)) };
+      stop('cancelled');
+    },
+  };
+  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n };
+  const snapshot = structuredClone(c);
+  const give = (w: Worker) => {
+    if (next >= runs) return;
+    const from = next;
+    next = Math.min(runs, next + RANGE);
+    w.postMessage({ type: 'range', from, to: next } satisfies UncertaintyRequest);
+  };
+  for (const w of workers) {
+    w.onmessage = (e: MessageEvent<UncertaintyReply>) => {
+      if (finished) return;
+      const m = e.data;
+      if (m.type === 'error') return stop('failed', m.message);
+      if (m.type === 'planned') return give(w);
+      blocks.push(m.block);
+      done += m.block.to - m.block.from;
+      const now = performance.now();
+      const elapsed = (now - startedAt) / 1000;
+      const last = done >= runs;
+      // partial results at most twice a second (a summary sorts every receptor's values)
+      const result = last || now - summarisedAt > 500 ? summariseRun(plan, joinBlocks(plan, blocks)) : uncertaintyRun.peek().result;
+      if (result !== uncertaintyRun.peek().result) summarisedAt = performance.now();
+      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
+      if (last) stop('done');
+      else give(w);
+    };
+    w.onerror = (e) => stop('failed', e.message || 'a worker failed');
+    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed } satisfies UncertaintyRequest);
+  }
+}
