@@ -292,7 +292,13 @@ export function importObservations(table: ObservationTable, mapping: ColumnMappi
   };
   const decimalComma = table.delimiter !== ',';
   let order: 'dmy' | 'mdy' | null = options.dateOrder === 'dmy' || options.dateOrder === 'mdy' ? options.dateOrder : null;
-  if (order === null) order = slashDateOrder(table.rows.map((r) => cell(r, 'date')));
+  if (order === null) {
+    const cells = table.rows.map((r) => cell(r, 'date'));
+    order = slashDateOrder(cells);
+    const first = cells.find((d) => RE_SLASH.test(d));
+    if (order === null && first !== undefined)
+      return fail(`dates such as "${first}" could be day/month or month/day and none in the file settles it; choose the date order (day first or month first)`);
+  }
 
   const problems: ImportProblem[] = [];
   const notes = new Set<string>();

@@ -3,6 +3,7 @@
  * results, the derived parameters, warnings and the screening caution.
  *
  *   npm run screen -- <case.json> [--format table|json|csv] [--runs N] [--seed S]
+ *                    [--observations results.csv] [--fit parameters] [--variant out.json]
  * A case with monitoring results adds the observation summary (model against data, trend per
  * well, attenuation rates; src/cli/observations.ts) to every format.
  *
@@ -20,7 +21,11 @@ import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
 import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
-import { observationSummary, observationsCsvRows, observationsJson, observationsTable } from './observations';
+import { observationSummary, observationsCsvRows, observationsJson, observationsTable, fitJson, fitLines } from './observations';
+import { FIT_PARAMETERS, adoptFitAsVariant, fitCase, type FitParameter, type FitResult } from '../case/fit';
+import { applyImport, importObservationsCsv } from '../case/observations-import';
+import { serializeCase } from '../case/io';
+import { writeFileSync } from 'node:fs';
 import { SOLUTION_LABEL } from '../case/export-results';
 import { describeDistribution, driverSentence, runUncertainty, type Percentiles, type UncertaintyResult } from '../case/uncertainty';
 
@@ -54,6 +59,16 @@ monitoring well's Mann-Kendall trend (S, tau, p, Sen's slope, verdict) and point
 bulk attenuation and Buscheck & Alcantar biodegradation rates along the centreline, and how far
 the model is from the measurements (json: "observations", rates per day).
 
+Monitoring options:
+  --observations results.csv   import sampling results (CSV; header names mapped automatically,
+                               bad rows reported by line on stderr and skipped) before screening
+  --date-order dmy|mdy         for dates like 03/04/2024 when the file does not settle the order
+  --fit a,b,...                fit sourceConcentration, halfLife, longitudinalDispersivity and/or
+                               flowDirection to the monitoring data (least squares on ln C,
+                               non-detects censored) and print the values with 95 % intervals
+  --variant out.json           with --fit: write the case with the fitted values as a what-if
+                               variant (new id, this case as parent); the case file is not changed
+
 Formats:
   table  (default) readable text; times in years, lengths in m, concentrations in mg/L
   json   every figure in internal units (m, d, mg/L), with a "units" key
@@ -71,10 +86,14 @@ interface Args {
   help: boolean;
   runs: number | null;
   seed: number | null;
+  observations: string | null;
+  fit: FitParameter[] | null;
+  variant: string | null;
+  dateOrder: 'dmy' | 'mdy' | null;
 }
 
 function parseArgs(argv: string[]): Args | string {
-  const a: Args = { file: null, format: 'table', help: false, runs: null, seed: null };
+  const a: Args = { file: null, format: 'table', help: false, runs: null, seed: null, observations: null, fit: null, variant: null, dateOrder: null };
   for (let i = 0; i < argv.length; i++) {
     const s = argv[i];
     if (s === '--help' || s === '-h') a.help = true;
@@ -88,10 +107,26 @@ function parseArgs(argv: string[]): Args | string {
       const n = v === undefined || v.trim() === '' ? Number.NaN : Number(v);
       if (!Number.isFinite(n)) return `--${name} must be a number (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
       a[name] = n;
+    } else if (s === '--observations' || s.startsWith('--observations=') || s === '--variant' || s.startsWith('--variant=')) {
+      const name = s.startsWith('--observations') ? 'observations' : 'variant';
+      const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
+      if (!v) return `--${name} needs a file name`;
+      a[name] = v;
+    } else if (s === '--date-order' || s.startsWith('--date-order=')) {
+      const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
+      if (v !== 'dmy' && v !== 'mdy') return `--date-order must be dmy (day first) or mdy (month first) (got ${JSON.stringify(v ?? '')})`;
+      a.dateOrder = v;
+    } else if (s === '--fit' || s.startsWith('--fit=')) {
+      const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
+      const names = (v ?? '').split(',').map((x) => x.trim()).filter(Boolean);
+      const bad = names.filter((n) => !(FIT_PARAMETERS as readonly string[]).includes(n));
+      if (!names.length || bad.length) return `--fit takes a comma-separated list of ${FIT_PARAMETERS.join(', ')} (got ${JSON.stringify(v ?? '')})`;
+      a.fit = names as FitParameter[];
     } else if (s.startsWith('-')) return `unknown option ${s} (see --help)`;
     else if (a.file === null) a.file = s;
     else return `only one case file can be screened at a time (got ${JSON.stringify(a.file)} and ${JSON.stringify(s)})`;
   }
+  if (a.variant && !a.fit) return '--variant writes the fitted what-if variant, so it needs --fit';
   return a;
 }
 
@@ -188,7 +223,7 @@ function uncertaintyTable(u: UncertaintyResult, limit: number): string[] {
   return L;
 }
 
-function formatTable(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null): string {
+function formatTable(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null, fit: FitResult | null = null): string {
   const p = s.prepared;
   const d = p.derived;
   const m = p.model;
@@ -275,6 +310,11 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
     L.push('');
     L.push(...observationsTable(c, obs, pad, wrap));
   }
+  if (fit) {
+    L.push('');
+    L.push('Fit to the monitoring data');
+    for (const line of fitLines(fit)) L.push(...wrap(`- ${line}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
+  }
   L.push('');
   L.push('Warnings');
   if (!s.warnings.length) L.push('  none');
@@ -306,7 +346,7 @@ function receptorUncertaintyJson(u: UncertaintyResult, j: number) {
   };
 }
 
-function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null): string {
+function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null, fit: FitResult | null = null): string {
   const p = s.prepared;
   const out = {
     case: { id: c.id, name: c.name, file: source, contaminant: c.contaminant.name, limitNote: c.contaminant.limitNote },
@@ -355,7 +395,7 @@ function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyR
       : {}),
     ...(() => {
       const obs = observationSummary(c, p);
-      return obs ? { observations: observationsJson(obs) } : {};
+      return obs ? { observations: { ...observationsJson(obs), ...(fit ? { fit: fitJson(fit) } : {}) } } : {};
     })(),
     warnings: s.warnings,
     caution: s.caution,
@@ -450,12 +490,32 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
     err(`error: ${args.file} is not a valid case file:\n${parsed.errors.map((e) => '  - ' + e).join('\n')}\n`);
     return EXIT.invalidCase;
   }
-  const c = parsed.case;
+  let c = parsed.case;
+  if (args.observations) {
+    let csv: string;
+    try {
+      csv = readFileSync(args.observations, 'utf8');
+    } catch (e) {
+      err(`error: cannot read ${args.observations}: ${(e as { code?: string }).code === 'ENOENT' ? 'no such file' : (e as Error).message}\n`);
+      return EXIT.unreadable;
+    }
+    const imp = importObservationsCsv(csv, c.monitoring, { dateOrder: args.dateOrder ?? 'auto' });
+    if (imp.fatal) {
+      err(`error: ${args.observations}: ${imp.fatal}\n`);
+      return EXIT.invalidCase;
+    }
+    for (const p of imp.problems) err(`warning: ${args.observations}: line ${p.line}: ${p.message}\n`);
+    for (const n of imp.notes) err(`note: ${args.observations}: ${n}\n`);
+    err(`imported ${imp.results.length} results${imp.newWells.length ? ` and ${imp.newWells.length} new wells` : ''} from ${args.observations}${imp.problems.length ? `; ${imp.problems.length} rows skipped` : ''}\n`);
+    c = { ...c, monitoring: applyImport(c.monitoring, imp) };
+  }
+  let fit: FitResult | null = null;
   let result: ScreeningResult;
   let uncertainty: UncertaintyResult | null = null;
   try {
     result = screenCase(c);
     if (args.runs !== null || args.seed !== null) uncertainty = runUncertainty(c, { runs: args.runs ?? undefined, seed: args.seed ?? undefined });
+    if (args.fit) fit = fitCase(c, args.fit);
   } catch (e) {
     if (e instanceof ValidationError) {
       err(`error: ${args.file}: ${e.message}\n  field: ${e.field}\n  accepted: ${e.range}\n`);
@@ -466,7 +526,18 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   const version = (JSON.parse(text.replace(/^\uFEFF/, '')) as { version?: number }).version;
   const source = `${args.file} (version ${version}${version !== c.version ? `, read as version ${c.version}` : ''})`;
-  out(args.format === 'json' ? formatJson(c, result, args.file, uncertainty) : args.format === 'csv' ? formatCsv(c, result, uncertainty) : formatTable(c, result, source, uncertainty));
+  out(args.format === 'json' ? formatJson(c, result, args.file, uncertainty, fit) : args.format === 'csv' ? formatCsv(c, result, uncertainty) : formatTable(c, result, source, uncertainty, fit));
+  if (fit && args.variant) {
+    const now = new Date().toISOString();
+    const variant = adoptFitAsVariant(c, fit, `${c.id}-fit-${now.replace(/\D/g, '').slice(0, 14)}`.slice(0, 64), now);
+    try {
+      writeFileSync(args.variant, serializeCase(variant));
+    } catch (e) {
+      err(`error: cannot write ${args.variant}: ${(e as Error).message}\n`);
+      return EXIT.unreadable;
+    }
+    err(`wrote the fitted what-if variant to ${args.variant} (the case file itself is unchanged)\n`);
+  }
   return EXIT.ok;
 }
 

@@ -157,6 +157,12 @@ describe('malformed files: a message naming the line and the problem; the case u
     check(big, /the file is 50\.0 MB, larger than the 5\.0 MB accepted/);
   });
 
+  it('slash dates that never settle day/month order stop the import and ask for the order', () => {
+    check('well,date,analyte,value,unit\nMW-1,03/04/2021,Benzene,1,mg/L\nMW-1,05/06/2021,Benzene,1,mg/L', /"03\/04\/2021" could be day\/month or month\/day .*choose the date order/);
+    const ok = importObservationsCsv('well,date,analyte,value,unit\nMW-1,03/04/2021,Benzene,1,mg/L', empty(), { dateOrder: 'dmy' });
+    expect(ok.results[0].date).toBe('2021-04-03');
+  });
+
   it('a missing column stops the import and names it', () => {
     check('well,date,value\nMW-1,2021-01-01,1', /choose the column for: analyte .*unit/);
   });

@@ -335,3 +335,36 @@ describe('npm run screen -- case.json with monitoring data', () => {
     expect('observations' in JSON.parse(out)).toBe(false);
   });
 });
+
+describe('npm run screen -- case.json --observations results.csv --fit … --variant out.json', () => {
+  const file = demo('depot-benzene-monitoring');
+  test('imports the lab table (day-first dates asked for), fits, and writes a what-if variant; the case file is unchanged', () => {
+    const before = readFileSync(file, 'utf8');
+    const ambiguous = run(file, '--observations', 'cases/depot-benzene-2024.csv');
+    expect(ambiguous.code).toBe(4);
+    expect(ambiguous.err).toMatch(/could be day\/month or month\/day/);
+    const out = join(dir, 'variant.json');
+    const r = run(file, '--observations', 'cases/depot-benzene-2024.csv', '--date-order', 'dmy', '--fit', 'sourceConcentration,halfLife', '--variant', out, '--format', 'json');
+    expect(r.code).toBe(0);
+    expect(r.err).toMatch(/imported 20 results/);
+    const fit = JSON.parse(r.out).observations.fit;
+    expect(fit.values.map((v: { parameter: string }) => v.parameter)).toEqual(['sourceConcentration', 'halfLife']);
+    // the invented data were generated with a half-life of 0.5 yr (scripts/demo/make-depot-monitoring.py)
+    const hl = fit.values[1];
+    expect(hl.interval[0]).toBeLessThan(0.5 * 365.25 * 1.15);
+    expect(hl.interval[1]).toBeGreaterThan(0.5 * 365.25 * 0.85);
+    const v = parseCaseFile(readFileSync(out, 'utf8'));
+    expect(v.ok).toBe(true);
+    if (v.ok) {
+      expect(v.case.parentId).toBe('demo-depot-benzene-monitoring');
+      expect(v.case.monitoring.results).toHaveLength(120);
+    }
+    expect(readFileSync(file, 'utf8')).toBe(before);
+  });
+
+  test('bad monitoring options exit 2 with the reason', () => {
+    expect(run(file, '--fit', 'porosity').err).toMatch(/--fit takes a comma-separated list/);
+    expect(run(file, '--variant', 'x.json').err).toMatch(/needs --fit/);
+    expect(run(file, '--date-order', 'ymd').code).toBe(2);
+  });
+});
