@@ -63,4 +63,29 @@ describe('printable report', () => {
     await viewer.screenshot({ path: artifactPath('report-pdf-page1.png') });
     await viewer.close();
   });
+
+  it('a case with monitoring data gets the "Monitoring data" section: a row per well, rates, the model comparison and the cautions', async () => {
+    const w = await watchedPage(getBrowser(), PORTRAIT);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page, 'depot-benzene-monitoring.json');
+    await openFiles(page);
+    expect(await page.getByTestId('export-observations').count()).toBe(1);
+    await page.getByTestId('open-report').click();
+    const section = page.getByTestId('report-observations');
+    await section.waitFor({ timeout: 30_000 });
+    await expect.poll(() => section.locator('tbody tr').count()).toBe(5);
+    const text = (await section.textContent()) ?? '';
+    expect(text).toMatch(/Biodegradation rate \(Buscheck & Alcantar 1995/);
+    expect(text).toMatch(/within a factor of ten/);
+    expect(text).toMatch(/must not be used as one in the transport solutions/);
+    expect(text).toMatch(/< 1 µg\/L/);
+    await section.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('report-monitoring-portrait.png') });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await section.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('report-monitoring-phone.png') });
+    await context.close();
+  });
 });
