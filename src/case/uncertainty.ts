@@ -596,7 +596,7 @@ export function describeDistribution(d: UncertainValue, unit: string | undefined
       s = `triangular from ${d.low} to ${d.high}${u}, most likely ${d.mode}`;
       break;
     case 'normal':
-      s = `normal, mean ${d.mean}${u}, standard deviation ${d.sd}`;
+      s = `normal, mean ${d.mean}${u}, standard deviation ${d.sd}${input === 'flowDirection' ? '°' : u}`;
       break;
     case 'lognormal':
       s = `lognormal, median ${d.median}${u}, geometric standard deviation ${d.gsd}`;

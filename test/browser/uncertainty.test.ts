@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
 import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { openFiles } from './offline-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { runUncertainty } from '../../src/case/uncertainty';
 
@@ -66,6 +67,27 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     // an edit marks the probabilistic results out of date
     await setNumber(page, 'Seed', 43);
     await page.waitForSelector('.dg-stale-note');
+    expect(errors).toEqual([]);
+    await close();
+  });
+
+  it('the printed report carries the distributions, seed, runs and the run\'s results', async () => {
+    const { page, errors, close } = await openFuelDemo(PORTRAIT);
+    await setNumber(page, 'Realisations', 250);
+    await setNumber(page, 'Seed', 9);
+    await page.getByRole('button', { name: /^Run/ }).click();
+    await page.waitForSelector('text=Run again', { timeout: 90_000 });
+    await openFiles(page);
+    await page.getByTestId('open-report').click();
+    await page.locator('[data-testid=report][data-ready=yes]').waitFor({ timeout: 30_000 });
+    const text = await page.getByTestId('report-uncertainty').innerText();
+    expect(text).toContain('250 realisations, seed 9');
+    expect(text).toContain('npm run screen -- case.json --runs 250 --seed 9');
+    expect(text).toContain('hydraulic conductivity (K): lognormal, median 12 m/d, geometric standard deviation 3');
+    expect(text).toMatch(/To narrow it: /);
+    expect(text).toContain('conditional on the chosen distributions');
+    await page.getByTestId('report-uncertainty').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('uncertainty-report-768x1024.png') });
     expect(errors).toEqual([]);
     await close();
   });

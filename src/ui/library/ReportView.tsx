@@ -19,6 +19,7 @@ import { resultsFor } from './outputs';
 import { inputRows } from './reportInputs';
 import { SitePlan } from './SitePlan';
 import { ReportObservations } from './ReportObservations';
+import { ReportUncertainty } from './ReportUncertainty';
 import { APP_VERSION } from './version';
 import '../print.css';
 
@@ -197,6 +198,7 @@ export function Report() {
       )}
 
       <ReportObservations c={c} prepared={prepared} />
+      <ReportUncertainty c={c} />
 
       <section class="dg-report-section">
         <h2>Inputs and their sources</h2>
