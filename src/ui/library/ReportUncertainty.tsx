@@ -8,9 +8,8 @@ import type { Case } from '../../case/schema';
 import { UNCERTAIN_INPUTS } from '../../case/schema';
 import { describeDistribution, driverSentence, INPUT_DEFINITIONS, UNCERTAINTY_CAUTION } from '../../case/uncertainty';
 import { caseKeyOf, uncertaintyRun } from '../uncertaintyRun';
-import { fmtConc, fmtTime } from '../format';
+import { arrivalPercentiles, intervalText, pc, peakPercentiles } from '../uncertaintyFormat';
 
-const pc = (p: number) => `${(100 * p).toFixed(p > 0 && p < 0.1 ? 1 : 0)}\u00a0%`;
 
 export function ReportUncertainty({ c }: { c: Case }) {
   const inputs = UNCERTAIN_INPUTS.filter((k) => c.uncertainty.inputs[k]);
@@ -58,10 +57,10 @@ export function ReportUncertainty({ c }: { c: Case }) {
                 <tr key={x.id}>
                   <th scope="row">{x.name || x.id}</th>
                   <td>
-                    {pc(x.pExceed)} ± {pc(x.pExceedSE)} (95 %: {pc(x.pExceedInterval[0])}–{pc(x.pExceedInterval[1])})
+                    {pc(x.pExceed)} ± {pc(x.pExceedSE)} ({intervalText(x)})
                   </td>
-                  <td>{[x.arrival.p5, x.arrival.p50, x.arrival.p95].map((t) => (t === null ? 'not within horizon' : fmtTime(t))).join(' / ')}</td>
-                  <td>{[x.peak.p5, x.peak.p50, x.peak.p95].map((v) => (v === null ? '—' : fmtConc(v))).join(' / ')}</td>
+                  <td>{arrivalPercentiles(x)}</td>
+                  <td>{peakPercentiles(x)}</td>
                   <td>{x.drivers[0] ? `${x.drivers[0].label} (rank correlation ${x.drivers[0].rankCorrelation.toFixed(2)}): ${driverSentence(x.drivers[0])}. To narrow it: ${x.drivers[0].measure}.` : '—'}</td>
                 </tr>
               ))}

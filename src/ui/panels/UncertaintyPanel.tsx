@@ -9,13 +9,12 @@
  */
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
-import { fmtConc, fmtTime } from '../format';
+import { arrivalPercentiles, intervalText, pc, peakPercentiles } from '../uncertaintyFormat';
 import { describeDistribution, driverSentence, INPUT_DEFINITIONS, UNCERTAINTY_CAUTION, type ReceptorUncertainty } from '../../case/uncertainty';
 import { UNCERTAIN_INPUTS } from '../../case/schema';
 import { cancelUncertainty, caseKeyOf, startUncertainty, uncertaintyRun } from '../uncertaintyRun';
 import { MAX_RUNS } from '../../core/uncertainty';
 
-const pc = (p: number) => `${(100 * p).toFixed(p > 0 && p < 0.1 ? 1 : 0)}\u00a0%`;
 
 export function UncertaintyPanel() {
   const c = currentCase.value;
@@ -141,11 +140,11 @@ export function UncertaintyPanel() {
                           {pc(x.pExceed)} ± {pc(x.pExceedSE)}
                           <br />
                           <span class="dg-note">
-                            95 %: {pc(x.pExceedInterval[0])}–{pc(x.pExceedInterval[1])}
+                            {intervalText(x)}
                           </span>
                         </td>
-                        <td>{[x.arrival.p5, x.arrival.p50, x.arrival.p95].map((t) => (t === null ? 'not within horizon' : fmtTime(t))).join(' / ')}</td>
-                        <td>{[x.peak.p5, x.peak.p50, x.peak.p95].map((v) => (v === null ? '—' : fmtConc(v))).join(' / ')}</td>
+                        <td>{arrivalPercentiles(x)}</td>
+                        <td>{peakPercentiles(x)}</td>
                       </tr>
                     ))}
                   </tbody>
