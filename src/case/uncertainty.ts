@@ -14,13 +14,11 @@
  * refuses (e.g. a source declining faster than Domenico can represent) is counted and reported,
  * never silently dropped or clipped.
  *
- * Mapping (prepareCase's derivations, with the core's relations, redone per realisation):
- *   v = K·i/nₑ; Kd = Koc·foc (or Kd); R = 1 + ρb·Kd/n; λ = ln 2/t½; γ = ln 2/(source t½);
- *   dispersivities × the dispersivity factor; an estimated αL is re-scaled from the farthest
- *   downgradient receptor when the flow direction moves the receptors (the estimate scaled from
- *   the travel distance, used only when no receptor lies downgradient, is kept from the base case);
- *   the flow direction rotates the receptors about the source (a traced footprint keeps the width
- *   it has across the base direction).
+ * Mapping: the case-to-engine seam's `modelFor(prepared, overrides)` (physics.ts) derives each
+ * realisation's model from the sampled physical inputs exactly as prepareCase does, checking each
+ * against the case file's rule; the dispersivity factor then scales αL, αT and αV; the flow
+ * direction rotates the receptors about the source and gives an estimated dispersivity its new
+ * scale distance (a traced footprint keeps the width it has across the base direction).
  * Flow from four or more head readings (the head-fit option): the plane's slope (a, b) is sampled
  * from the least-squares covariance of the fit (core/uncertainty/planeFit.ts) through two more
  * Latin hypercube columns, giving each realisation's gradient and direction.
@@ -28,18 +26,14 @@
 import type { Case, UncertainInput, UncertainValue } from './schema';
 import { UNCERTAIN_INPUTS } from './schema';
 import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
+import { modelFor, type PhysicalInputs, type PhysicsBasis } from './physics';
 import { unitDef, type Dimension } from '../core/units';
 import type { ScreeningModel } from '../core/model';
 import {
   ValidationError,
-  decayRateFromHalfLife,
   firstTimeAtLimit,
-  kdFromKoc,
-  longitudinalDispersivity,
   peakConcentration,
-  retardationFactor,
   screenAverage,
-  seepageVelocity,
   validateModel,
 } from '../core';
 import {
@@ -175,18 +169,8 @@ export interface PlannedInput {
   readonly factor: number;
 }
 
-/** The fixed values a realisation starts from that PreparedCase does not carry (internal units). */
-interface BaseInputs {
-  readonly totalPorosity: number;
-  readonly effectivePorosity: number;
-  readonly foc: number;
-  /** L/kg; null when sorption is given as Kd */
-  readonly koc: number | null;
-}
-
 export interface UncertaintyPlan {
   readonly prepared: PreparedCase;
-  readonly base: BaseInputs;
   readonly runs: number;
   readonly seed: number;
   readonly inputs: readonly PlannedInput[];
@@ -266,14 +250,7 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
   }
   if (!inputs.length && !headPlane)
     throw new ValidationError('uncertainty.inputs', 'none', 'at least one uncertain input', 'no input has a distribution: give at least one uncertain input a distribution to run a Monte Carlo screening');
-  const s = c.contaminant.sorption;
-  const base: BaseInputs = {
-    totalPorosity: c.aquifer.totalPorosity,
-    effectivePorosity: c.aquifer.effectivePorosity,
-    foc: c.aquifer.fractionOrganicCarbon,
-    koc: s.mode === 'koc' ? s.koc.value * unitDef(s.koc.unit).factor : null,
-  };
-  return { prepared, base, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0) };
+  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0) };
 }
 
 /** Internal-unit values of one realisation's inputs (by input name). */
@@ -303,51 +280,36 @@ interface RealisationGeometry {
 
 /** The engine model and receptor positions of one realisation; throws ValidationError when the engine refuses it. */
 export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): RealisationGeometry {
-  const { prepared, base: fixed } = plan;
-  const c = prepared.derived;
-  const base = prepared.model;
-  const n = fixed.totalPorosity;
-  const K = v.hydraulicConductivity ?? c.K;
-  const gradient = v.gradient ?? c.gradient;
-  if (!(gradient > 0 && gradient < 1)) throw new ValidationError('site.flow.gradient', gradient, 'in (0, 1)');
-  const ne = v.effectivePorosity ?? fixed.effectivePorosity;
-  let kd = c.kd;
-  if (v.kd !== undefined) kd = v.kd;
-  else if (fixed.koc !== null && (v.koc !== undefined || v.fractionOrganicCarbon !== undefined)) kd = kdFromKoc(v.koc ?? fixed.koc, v.fractionOrganicCarbon ?? fixed.foc);
-  const R = kd === c.kd ? base.R : retardationFactor(c.bulkDensity, kd, n);
+  const { prepared } = plan;
+  const d = prepared.derived;
   let receptors: RealisationGeometry['receptors'] = prepared.receptors;
-  let ax = base.ax;
-  let ay = base.ay;
-  let az = base.az;
+  let basis: PhysicsBasis = prepared;
   if (v.flowDirection !== undefined) {
-    const plane = normalizeDeg(v.flowDirection + (c.planeAzimuthDeg - c.azimuthDeg));
+    // the receptors move in the flow frame; an estimated dispersivity re-scales with their reach
+    const plane = normalizeDeg(v.flowDirection + (d.planeAzimuthDeg - d.azimuthDeg));
     receptors = prepared.receptors.map((r) => ({ ...toFlow(prepared.sourceEN, plane, r.en), zTop: r.zTop, zBottom: r.zBottom }));
-    const rel = c.dispersivityRelation;
-    if (rel.mode === 'estimate' && rel.relation) {
-      const reach = Math.max(0, ...receptors.map((r) => r.x));
-      if (reach > 0) {
-        ax = longitudinalDispersivity(reach, rel.relation as Parameters<typeof longitudinalDispersivity>[1]).value;
-        ay = ax * rel.transverseRatio!;
-        az = ax * rel.verticalRatio!;
-      }
-    }
+    const downgradient = receptors.filter((r) => r.x > 0);
+    basis = { ...prepared, receptorReach: downgradient.length ? Math.max(...downgradient.map((r) => r.x)) : null };
   }
-  const f = v.dispersivityFactor ?? 1;
-  const model: ScreeningModel = {
-    ...base,
-    v: seepageVelocity(K, gradient, ne),
-    R,
-    ax: ax * f,
-    ay: ay * f,
-    az: az * f,
-    decay: v.halfLife !== undefined ? decayRateFromHalfLife(v.halfLife) : base.decay,
-    sourceDecay: v.sourceHalfLife !== undefined ? decayRateFromHalfLife(v.sourceHalfLife) : base.sourceDecay,
-    c0: v.sourceConcentration ?? base.c0,
-    width: v.sourceWidth ?? base.width,
-    thickness: v.sourceThickness ?? base.thickness,
-    duration: v.releaseDuration ?? base.duration,
-  };
-  validateModel(model);
+  const o: { -readonly [K in keyof PhysicalInputs]?: PhysicalInputs[K] } = {};
+  if (v.hydraulicConductivity !== undefined) o.hydraulicConductivity = v.hydraulicConductivity;
+  if (v.gradient !== undefined) o.gradient = v.gradient;
+  if (v.effectivePorosity !== undefined) o.effectivePorosity = v.effectivePorosity;
+  if (v.fractionOrganicCarbon !== undefined) o.fractionOrganicCarbon = v.fractionOrganicCarbon;
+  if (v.koc !== undefined) o.sorption = { mode: 'koc', koc: v.koc };
+  if (v.kd !== undefined) o.sorption = { mode: 'kd', kd: v.kd };
+  if (v.halfLife !== undefined) o.halfLife = v.halfLife;
+  if (v.sourceHalfLife !== undefined) o.sourceHalfLife = v.sourceHalfLife;
+  if (v.sourceConcentration !== undefined) o.c0 = v.sourceConcentration;
+  if (v.sourceWidth !== undefined) o.width = v.sourceWidth;
+  if (v.sourceThickness !== undefined) o.thickness = v.sourceThickness;
+  if (v.releaseDuration !== undefined) o.duration = v.releaseDuration;
+  let model = modelFor(basis, o);
+  const f = v.dispersivityFactor;
+  if (f !== undefined) {
+    model = { ...model, ax: model.ax * f, ay: model.ay * f, az: model.az * f };
+    validateModel(model);
+  }
   return { model, receptors };
 }
 
