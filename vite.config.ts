@@ -2,6 +2,7 @@ import { defineConfig, type Plugin } from 'vite';
 import preact from '@preact/preset-vite';
 import { VitePWA } from 'vite-plugin-pwa';
 import { readFileSync } from 'node:fs';
+import { gzipSync } from 'node:zlib';
 
 const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string };
 
@@ -61,6 +62,45 @@ function contentSecurityPolicy(): Plugin {
   };
 }
 
+/** Budget for the JavaScript the first screen loads (gzip), in KB of 1000 bytes. */
+export const INITIAL_JS_BUDGET_KB = 120;
+
+/**
+ * Prints, after a build, the JavaScript the first screen loads: the entry chunk and its static
+ * imports (what index.html loads and preloads), gzip-compressed (level 9), beside the budget; then
+ * the chunks loaded on demand and the screening worker (started at once, off the main thread). Over
+ * budget prints a warning and leaves the build standing. Everything listed is also precached.
+ */
+function initialSizeReport(): Plugin {
+  return {
+    name: 'downgradient-initial-size',
+    apply: 'build',
+    writeBundle(_options, bundle) {
+      const chunks = Object.values(bundle).filter((c) => c.type === 'chunk');
+      const entry = chunks.find((c) => c.isEntry);
+      if (!entry) return;
+      const kb = (code: string) => gzipSync(code, { level: 9 }).length / 1000;
+      const initial = new Set<string>();
+      const visit = (name: string) => {
+        if (initial.has(name)) return;
+        initial.add(name);
+        const c = bundle[name];
+        if (c?.type === 'chunk') c.imports.forEach(visit);
+      };
+      visit(entry.fileName);
+      const total = [...initial].reduce((sum, f) => sum + kb((bundle[f] as { code: string }).code), 0);
+      const list = (cs: { name?: string; fileName: string; code?: string; source?: string | Uint8Array }[]) =>
+        cs.map((c) => `${c.name ?? c.fileName} ${kb(c.code ?? String(c.source)).toFixed(1)}`).join(', ');
+      const verdict = total <= INITIAL_JS_BUDGET_KB ? 'within budget' : 'OVER BUDGET: load more of it on demand (DEVELOPERS.md, "First load")';
+      console.log(`\ninitial JavaScript (entry + static imports, gzip): ${total.toFixed(1)} KB of a ${INITIAL_JS_BUDGET_KB} KB budget: ${verdict}`);
+      console.log(`  first load, KB gzip: ${list(chunks.filter((c) => initial.has(c.fileName)))}`);
+      console.log(`  on demand, KB gzip: ${list(chunks.filter((c) => !initial.has(c.fileName)))}`);
+      const workers = Object.values(bundle).filter((a) => a.type === 'asset' && a.fileName.endsWith('.js'));
+      if (workers.length) console.log(`  workers (started with the screen, off the main thread), KB gzip: ${list(workers)}`);
+    },
+  };
+}
+
 // Everything shipped is precached for offline use (see DEVELOPERS.md, "Offline").
 export default defineConfig(({ command }) => ({
   base: './',
@@ -78,6 +118,7 @@ export default defineConfig(({ command }) => ({
   plugins: [
     preact(),
     contentSecurityPolicy(),
+    initialSizeReport(),
     VitePWA({
       registerType: 'prompt',
       injectRegister: false,
@@ -112,6 +153,9 @@ export default defineConfig(({ command }) => ({
       },
     }),
   ],
+  // Leaflet's ES module build (its package "main" is the UMD file), so the parts of Leaflet the map
+  // does not use are left out of the first load
+  resolve: { alias: [{ find: /^leaflet$/, replacement: 'leaflet/dist/leaflet-src.esm.js' }] },
   worker: { format: 'es' },
   build: { target: 'es2022', sourcemap: false, chunkSizeWarningLimit: 800 },
   server: { host: '127.0.0.1' },

@@ -7,8 +7,11 @@
  * it first saves the open case (and refuses while it cannot be saved, e.g. storage full), then
  * tells the waiting worker to take over, and reloads once it controls the page. Unsaved work is
  * never discarded by an update.
+ *
+ * workbox-window is loaded on demand (import()), after the first screen: registering the worker is
+ * not needed to show it (see src/ui/lazy.tsx on what the first load carries).
  */
-import { Workbox } from 'workbox-window';
+import type { Workbox } from 'workbox-window';
 import { offlineReady, updateWaiting, notify, session } from './session';
 
 export async function saveBeforeReload(): Promise<boolean> {
@@ -27,9 +30,24 @@ export async function saveBeforeReload(): Promise<boolean> {
   return true;
 }
 
-export function registerServiceWorker(url = './sw.js'): Workbox | null {
+function offlineUnavailable(e: unknown): void {
+  // e.g. service workers disabled (private windows, policies): the app still works and saves
+  console.warn('service worker registration failed', e);
+  notify({
+    tone: 'warn',
+    text: 'Offline use is not available in this browser session (the browser does not allow the app to install itself here). Everything else works, and cases are still saved on this device.',
+  });
+}
+
+export async function registerServiceWorker(url = './sw.js'): Promise<Workbox | null> {
   if (!('serviceWorker' in navigator)) return null;
-  const wb = new Workbox(url, { type: 'classic' });
+  let wb: Workbox;
+  try {
+    wb = new (await import('workbox-window')).Workbox(url, { type: 'classic' });
+  } catch (e) {
+    offlineUnavailable(e);
+    return null;
+  }
   let reloading = false;
 
   const reloadOnce = () => {
@@ -74,13 +92,6 @@ export function registerServiceWorker(url = './sw.js'): Workbox | null {
         }
       });
     })
-    .catch((e) => {
-      // e.g. service workers disabled (private windows, policies): the app still works and saves
-      console.warn('service worker registration failed', e);
-      notify({
-        tone: 'warn',
-        text: 'Offline use is not available in this browser session (the browser does not allow the app to install itself here). Everything else works, and cases are still saved on this device.',
-      });
-    });
+    .catch(offlineUnavailable);
   return wb;
 }

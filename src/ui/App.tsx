@@ -16,7 +16,7 @@ import { AquiferPanel } from './panels/AquiferPanel';
 import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
 import { UncertaintyPanel } from './panels/UncertaintyPanel';
-import { SettingsDialog } from './panels/SettingsDialog';
+import { lazyPart } from './lazy';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
 import { openDemoCase } from '../app/actions';
@@ -24,7 +24,11 @@ import { openSections } from './view';
 import { startEvaluation } from './evaluation';
 import { Guard } from './Guard';
 import { placementProblem } from '../case/check';
+import { notify } from '../app/session';
 import './app.css';
+
+// opened from the header; loaded when first opened (src/ui/lazy.tsx)
+const SettingsDialog = lazyPart(() => import('./panels/SettingsDialog').then((m) => m.SettingsDialog), 'settings', { overlay: true });
 
 export interface AppProps {
   initialCase: Case;
@@ -135,11 +139,15 @@ function DemoPicker() {
         const el = e.target as HTMLSelectElement;
         const d = DEMO_CASES.find((x) => x.file === el.value);
         el.value = '';
-        if (d) {
-          void openDemoCase(d.build);
-          // a demo opens on its results; the inputs are one tap away
-          openSections.value = new Set();
-        }
+        if (d)
+          d.build().then(
+            (c) => {
+              void openDemoCase(() => c);
+              // a demo opens on its results; the inputs are one tap away
+              openSections.value = new Set();
+            },
+            (e: unknown) => notify({ tone: 'warn', text: `The demo case “${d.name}” could not be opened (${e instanceof Error ? e.message : String(e)}).` }),
+          );
       }}
     >
       <option value="">Demo cases…</option>

@@ -20,10 +20,13 @@ import {
   restoreDeleted,
   startNewCase,
 } from '../../app/actions';
-import { FilesView } from './FilesView';
-import { CompareView } from './CompareView';
+import { lazyPart } from '../lazy';
 import { useModalDialog } from './topLayer';
 import './library.css';
+
+// files in and out, and the comparison: loaded when first opened (src/ui/lazy.tsx)
+const FilesView = lazyPart(() => import('./FilesView').then((m) => m.FilesView), 'files view');
+const CompareView = lazyPart(() => import('./CompareView').then((m) => m.CompareView), 'comparison');
 
 export type SheetView = 'library' | 'files' | 'compare';
 /** which view the sheet shows; null: closed (other components may open it, e.g. "Export…") */

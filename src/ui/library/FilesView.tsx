@@ -8,7 +8,7 @@ import { importCaseText, importForRepair, resolveImport, type ImportOutcome } fr
 import type { Case } from '../../case/schema';
 import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
 import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, type Built } from './outputs';
-import { reportOpen } from './ReportView';
+import { reportOpen } from './reportOpen';
 import { DEFAULT_MAX_BYTES } from '../../case/io';
 import { SCREENING_CAUTION } from '../../case/caution';
 import { sheet } from './CaseMenu';

@@ -5,7 +5,6 @@
  * contours, the receptor table, breakthrough charts, warnings, assumptions and the caution.
  */
 import { useEffect } from 'preact/hooks';
-import { signal } from '@preact/signals';
 import { createPortal } from 'preact/compat';
 import { currentCase, currentResults } from '../state';
 import { prepareCase, type PreparedCase } from '../../case/prepare';
@@ -21,14 +20,13 @@ import { SitePlan } from './SitePlan';
 import { ReportObservations } from './ReportObservations';
 import { ReportUncertainty } from './ReportUncertainty';
 import { APP_VERSION } from './version';
+import { reportOpen } from './reportOpen';
 import '../print.css';
-
-export const reportOpen = signal(false);
-
 
 export function ReportHost() {
   useEffect(() => {
     document.documentElement.classList.toggle('dg-report-open', reportOpen.value);
+    return () => document.documentElement.classList.remove('dg-report-open');
   }, [reportOpen.value]);
   if (!reportOpen.value) return null;
   return createPortal(<ReportPreview />, document.body);

@@ -8,7 +8,8 @@ import { createPortal } from 'preact/compat';
 import { dismiss, notices, offlineReady, online, saveState, updateWaiting } from '../../app/session';
 import { resolveConflict } from '../../app/actions';
 import { currentCase } from '../state';
-import { ReportHost } from './ReportView';
+import { reportOpen } from './reportOpen';
+import { lazyPart } from '../lazy';
 import { topLayerHost, useModalDialog } from './topLayer';
 import './library.css';
 
@@ -111,6 +112,9 @@ function Notices() {
   );
 }
 
+// the printable report is loaded when it is first opened (src/ui/lazy.tsx)
+const ReportHost = lazyPart(() => import('./ReportView').then((m) => m.ReportHost), 'printable report', { overlay: true });
+
 export function StatusArea() {
   const upd = updateWaiting.value;
   return (
@@ -130,7 +134,7 @@ export function StatusArea() {
       )}
       {saveState.value.kind === 'conflict' && createPortal(<ConflictDialog key={String(saveState.value.theirs?.revision)} />, document.body)}
       <Notices />
-      <ReportHost />
+      {reportOpen.value && <ReportHost />}
     </span>
   );
 }

@@ -4,7 +4,7 @@
  * so work continues with a scale bar and north arrow. It lives in its own SVG under Leaflet's
  * panes (showing through wherever no tile is drawn) and is redrawn on every move so it never lags.
  */
-import L from 'leaflet';
+import * as L from 'leaflet';
 import { niceStep } from '../charts/axes';
 
 export interface GridFrame {

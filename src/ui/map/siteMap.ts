@@ -7,7 +7,7 @@
  * place-source (tap puts the release point), add-receptor and add-head (tap adds a point).
  * The flow arrow's round handle turns the flow direction when the flow is given by direction.
  */
-import L from 'leaflet';
+import * as L from 'leaflet';
 import { effect, signal } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';

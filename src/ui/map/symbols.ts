@@ -3,7 +3,7 @@
  * in a 44 px touch target; the drawn symbol is smaller and carries a dark outline and a light halo
  * so it reads on a basemap, on the site grid and in sunlight.
  */
-import L from 'leaflet';
+import * as L from 'leaflet';
 import type { ReceptorKind } from '../../case/schema';
 
 const TARGET = 44;

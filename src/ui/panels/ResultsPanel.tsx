@@ -11,12 +11,16 @@ import { Segmented } from '../fields';
 import { selectedId } from '../view';
 import { inputIssue } from '../validity';
 import { evaluationState, evaluationError } from '../evaluation';
-import { BreakthroughChart, ProfileChart } from '../charts/Charts';
+import { lazyPart } from '../lazy';
 import { fmtLength, fmtTime, concUnit, lengthUnit } from '../format';
 import { SCREENING_CAUTION, ASSUMPTIONS } from '../../case/caution';
 import type { Evaluation } from '../results';
 import { ReceptorTable } from './ReceptorTable';
 import { toInternal } from '../../core/units';
+
+// the charts arrive after the first screen (src/ui/lazy.tsx)
+const BreakthroughChart = lazyPart(() => import('../charts/Charts').then((m) => m.BreakthroughChart), 'chart');
+const ProfileChart = lazyPart(() => import('../charts/Charts').then((m) => m.ProfileChart), 'chart');
 
 export function ResultsPanel() {
   const c = currentCase.value;
