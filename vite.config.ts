@@ -34,7 +34,7 @@ const TILE_URL_PATTERN = new RegExp(`^(?:${TILE_ORIGINS.map(escapeRe).join('|')}
  */
 export const CONTENT_SECURITY_POLICY = [
   "default-src 'self'",
-  "script-src 'self' 'wasm-unsafe-eval'", // WebAssembly compilation only (the lattice kernel, src/core/special/latticeKernel.ts); no eval
+  "script-src 'self'", // no eval, no WebAssembly
   "style-src 'self'",
   `img-src 'self' data: blob: ${TILE_ORIGINS.join(' ')}`,
   `connect-src 'self' ${TILE_ORIGINS.join(' ')}`,

@@ -15,8 +15,7 @@
  * Then the contour pipeline (bench/contourPipeline.ts). Targets are printed with whether they are met.
  * Beside the contract grid (a fresh result array per call) the mirrored Domenico grid is also timed
  * into a reused buffer, as the app's plume worker computes it, so the cost of the allocation shows.
- * The lateral rows run in the WebAssembly lattice kernel (src/core/special/latticeKernel.ts; the
- * same values as the TypeScript code); --no-wasm times the TypeScript path instead.
+ * The lateral rows of evenly spaced y values come from the lattice error function (src/core/lattice).
  *
  * Memory allocator: `npm run bench` starts this script (and so the numpy child, which inherits the
  * environment) with glibc's MALLOC_TRIM_THRESHOLD_, MALLOC_TOP_PAD_ and MALLOC_MMAP_THRESHOLD_
@@ -25,7 +24,7 @@
  * that cost more than the grid itself (measured 2026-12-02: 6.3 ms per 512² grid against 1.4 ms
  * into a reused buffer, while numpy, whose arrays are freed at once and reused, was unaffected).
  * The header line "allocator" says which settings a run had.
- * Options: --no-numpy (JS figures only), --no-wasm (TypeScript lattice), --python <command>
+ * Options: --no-numpy (JS figures only), --python <command>
  * (python3 by default), --json <file> (also write every figure as JSON).
  * Nothing here asserts on time; tests never do.
  */
@@ -41,7 +40,6 @@ import { AX, AY, AZ, DECAY, R, T, THICKNESS, V, WIDTH, Z, benchModel, benchTimes
 import { measureContourPipeline } from './contourPipeline';
 import { measureMonteCarlo } from './monteCarlo';
 import { relativeGrid } from '../src/core/transport';
-import { latticeKernel, useLatticeKernel } from '../src/core/special/latticeKernel';
 
 const REL_TOL = 1e-6;
 const ABS_TOL = 1e-13;
@@ -77,7 +75,6 @@ function lateralArguments(xs: Float64Array, ys: Float64Array): Float64Array {
 
 async function main(): Promise<void> {
   const withNumpy = !process.argv.includes('--no-numpy');
-  if (process.argv.includes('--no-wasm')) useLatticeKernel(false);
   const jsonPath = argValue('--json');
   const rules = DEFAULT_RULES;
   const started = performance.now();
@@ -92,7 +89,7 @@ async function main(): Promise<void> {
   console.log(`node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'} (${cpus().length} cores; all figures single-threaded)`);
   const loadAtStart = loadavg()[0];
   const mallocVars = ['MALLOC_TRIM_THRESHOLD_', 'MALLOC_TOP_PAD_', 'MALLOC_MMAP_THRESHOLD_'].filter((k) => process.env[k] !== undefined);
-  console.log(`allocator: ${mallocVars.length ? mallocVars.map((k) => `${k}=${process.env[k]}`).join(' ') : "glibc's defaults"} (see bench/bench.ts); lateral rows: ${latticeKernel() ? 'WebAssembly lattice kernel' : 'TypeScript'}`);
+  console.log(`allocator: ${mallocVars.length ? mallocVars.map((k) => `${k}=${process.env[k]}`).join(' ') : "glibc's defaults"} (see bench/bench.ts)`);
   console.log(
     `timing: median of ≥ ${rules.minReps} repetitions and ≥ ${rules.minSeconds} s per figure after ${rules.warmupSeconds} s warm-up; JS and numpy repetitions interleaved in rounds; inputs built before the clock`,
   );

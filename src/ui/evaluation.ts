@@ -150,7 +150,6 @@ export interface LatencySample {
   drawnAt: number;
   gridSize: number;
   solution: string;
-  kernel: PlumeLayer['kernel'];
   timing: PlumeLayer['timing'];
 }
 
@@ -311,7 +310,6 @@ function recordSample(j: PlumeJob, p: PlumeLayer, receivedAt: number, layerAt: n
     drawnAt,
     gridSize: p.gridSize,
     solution: p.solution,
-    kernel: p.kernel,
     timing: p.timing,
   });
   if (latencySamples.length > 200) latencySamples.splice(0, 100);

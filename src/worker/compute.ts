@@ -7,7 +7,6 @@
  *   over d3-contour), mapped to the case's map coordinates and packed into typed arrays.
  * No DOM here: both run under the WebWorker lib (tsconfig.worker.json).
  */
-import { latticeKernel } from '../core/special/latticeKernel';
 import type { Case } from '../case/schema';
 import { screenCase } from '../case/screen';
 import { prepareCase, type PreparedCase } from '../case/prepare';
@@ -217,7 +216,6 @@ export function plumeForCase(c: Case, t: number | null, gridSize: number, lattic
     bands: packed,
     extent: lat.extent,
     gridSize: lat.xs.length,
-    kernel: latticeKernel() ? 'WebAssembly' : 'TypeScript',
     timing: { prepareMs: t1 - t0, gridMs: t2 - t1, contourMs: t3 - t2, totalMs: t3 - t0, startedAt, finishedAt: epochNow() },
   };
 }

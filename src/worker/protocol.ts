@@ -48,8 +48,6 @@ export interface PlumeLayer {
   /** flow-frame extent of the lattice, m */
   extent: { x0: number; x1: number; y0: number; y1: number };
   gridSize: number;
-  /** where the lateral rows were computed: the WebAssembly lattice kernel or the TypeScript code (same values) */
-  kernel: 'WebAssembly' | 'TypeScript';
   /**
    * worker-side milliseconds: case preparation and lattice, lattice values (the engine's pure
    * compute), contouring and packing, everything; and when the job started and finished

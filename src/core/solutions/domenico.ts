@@ -19,11 +19,12 @@
  * x–z term (two erf per column) and an x–y term (two erf per cell; one when the y values are
  * symmetric about 0, by mirroring). So a grid costs at most two error-function calls per cell.
  * When the y values are evenly spaced (as on map lattices) the lateral arguments of a column are
- * themselves a lattice, and its error functions come from erfLattice (special/erfLattice.ts):
+ * themselves a lattice, and its error functions come from the lattice error function (../lattice):
  * no exponential per cell, 5e-13 relative accuracy (instead of Cody's few ulp), with the lattice
  * arguments u0 + j·du differing from (y_j ± W/2)/s by the rounding of the y values (≤ 8ε·max|y|).
  */
-import { depthFactor, erfRatioSafe, lateralLattice, spreadFactor, uniformStep, type DepthSpan } from './spread';
+import { depthFactor, erfRatioSafe, spreadFactor, uniformStep, type DepthSpan } from './spread';
+import { lateralLattice } from '../lattice';
 import { erfDiff } from '../special/erf';
 import { lnCdf, pistonCdf } from './oneD';
 

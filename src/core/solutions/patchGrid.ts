@@ -34,7 +34,8 @@
  * first-passage peak: in s it has a standard deviation of about √(2Dx/(u·x)) (the inverse
  * Gaussian's coefficient of variation), and the finest spacing is a quarter of it or less.
  */
-import { depthFactor, lateralLattice, spreadFactor, uniformStep, type DepthSpan } from './spread';
+import { depthFactor, spreadFactor, uniformStep, type DepthSpan } from './spread';
+import { lateralLattice } from '../lattice';
 import { exactColumn, exactTolerances, tauOf, type ExactOptions, type PatchParams } from './patchSource';
 import { uMinusV } from './oneD';
 

@@ -1,5 +1,6 @@
 /**
- * The table erf (src/core/special/erfTable.ts) and the lattice erf (src/core/special/erfLattice.ts)
+ * The lattice folder (src/core/lattice): the table erf (erfTable.ts), the lattice erf (erfLattice.ts)
+ * and the lateral rows (lateral.ts, the folder's entry point)
  * against a published reference library: @stdlib/math-base-special-erf and -erfc (npm; FDLIBM's
  * erf/erfc, a few ulp), which share no code with the engine.
  *
@@ -11,10 +12,10 @@
 import { describe, expect, it } from 'vitest';
 import stdlibErf from '@stdlib/math-base-special-erf';
 import stdlibErfc from '@stdlib/math-base-special-erfc';
-import { ERF_TABLE_SPLIT, splitValue } from '../../src/core/special/erfTable';
-import { erfLattice, erfNearZero, LATTICE_CUT } from '../../src/core/special/erfLattice';
-import { lateralLattice } from '../../src/core/solutions/spread';
-import { DBL_MIN, EPS, MismatchLog, Prng } from './helpers/check';
+import { ERF_TABLE_SPLIT, splitValue } from '../../../src/core/lattice/erfTable';
+import { erfLattice, erfNearZero, LATTICE_CUT } from '../../../src/core/lattice/erfLattice';
+import { lateralLattice } from '../../../src/core/lattice';
+import { DBL_MIN, EPS, MismatchLog, Prng } from '../helpers/check';
 
 const S = ERF_TABLE_SPLIT;
 

@@ -5,7 +5,7 @@
  * Representation ("split values", as erfTable.ts): for |u| < ERF_TABLE_SPLIT (≈ 0.496) the value is
  * erf(u), signed; from there on erfc(|u|). Each keeps its relative accuracy where it is small, and
  * differences erf(a) − erf(b) formed from two of them within one tail keep it too (lateralLattice in
- * solutions/spread.ts; as erfDiff in erf.ts does).
+ * lateral.ts; as erfDiff in ../special/erf.ts does).
  *
  * Method: in the middle (|u| < the split) erf(u) comes point by point from its Taylor series
  * (erfNearZero, a few ulp: a dozen multiply–adds, cheaper there than starting a run). In each tail
@@ -23,7 +23,7 @@
  * (two exponentials) from the number J of steps since the seed. A segment ends where the rule
  * would change, and is shortened so that no carried factor leaves [e^{−600}, e^{600}].
  *
- * Error (stated; test/core/erf-lattice.test.ts measures it against 40-digit decimal.js values):
+ * Error (stated; test/core/lattice/lattice.test.ts measures it against @stdlib's erf and erfc):
  *  - quadrature: Gauss–Legendre's remainder δ^{2m+1}(m!)⁴/((2m+1)((2m)!)³)·f^{(2m)}(ξ), with
  *    f^{(2m)} = H_{2m}(t)e^{−t²} and |H_{2m}(t)| ≤ Σ_k |h_k|·|t|^k (H_{2m}'s coefficients taken
  *    positive: a bound that increases with |t|); relative to the step's integral (whose integrand
@@ -38,13 +38,10 @@
  *  - the seed: a few ulp; the running sum adds positive terms (≤ Jε ≈ 2e-14).
  *  So each value is within 0.1 + 1.3 + 2.3 + 0.7 + 0.2 ≈ 4.6e-13 < 5e-13 of its own magnitude.
  *  Chunks for which no rule meets the bound (coarse lattices) are evaluated point by point from the table (a few ulp); |u| > LATTICE_CUT = 10
- *  by Cody's single-exponential erfcTail (erf.ts), within 2u²ε ≤ 1.6e-13 relative (u < 27).
- *
- * Ported to WebAssembly in ../wasm/lattice.as.ts (loaded by latticeKernel.ts), which must perform
- * the same operations in the same order: test/core/lattice-wasm.test.ts requires the same doubles.
+ *  by Cody's single-exponential erfcTail (../special/erf.ts), within 2u²ε ≤ 1.6e-13 relative (u < 27).
  */
 import { ERF_TABLE_SPLIT, splitValue } from './erfTable';
-import { erfcTail } from './erf';
+import { erfcTail } from '../special/erf';
 
 export { ERF_TABLE_SPLIT };
 export const LATTICE_CUT = 10;
@@ -167,10 +164,8 @@ function stepTable(): Float64Array {
   return table;
 }
 
-/** The rules' nodes and weights, for the WebAssembly port (latticeKernel.ts); read only. */
-export const LATTICE_RULES: readonly { readonly m: number; readonly c: Float64Array; readonly w: Float64Array }[] = RULES.map((r) => ({ m: r.m, c: r.c, w: r.w }));
-/** The step table (STEP_MAX, rule-major, STEP_POINTS per rule), for the WebAssembly port; read only. */
-export function latticeStepMax(): Float64Array {
+/** The step table, built on first use. */
+function stepMax(): Float64Array {
   if (STEP_MAX === null) STEP_MAX = stepTable();
   return STEP_MAX;
 }
@@ -179,7 +174,7 @@ export function latticeStepMax(): Float64Array {
 function ruleFor(delta: number, tmax: number): number {
   if (!(tmax <= STEP_TOP)) return -1;
   const g = Math.ceil(tmax * STEP_CELLS);
-  const table = STEP_MAX ?? latticeStepMax();
+  const table = STEP_MAX ?? stepMax();
   for (let r = 0; r < RULES.length; r++) if (delta <= table[r * STEP_POINTS + g]) return r;
   return -1;
 }
@@ -292,8 +287,7 @@ function pointValue(u: number): number {
  * erf(u) for |u| < ERF_TABLE_SPLIT (≈ 0.496) from its Taylor series, erf(u) = (2/√π)·Σ (−1)^n
  * u^{2n+1}/(n!(2n+1)) (Abramowitz & Stegun 7.1.5), terms n = 0 … 11 (the first omitted one is
  * below 4e-18 of the value there), coefficients correctly rounded (computed in 50-digit
- * arithmetic), summed by Estrin's scheme in z = u²: a few ulp. The WebAssembly port evaluates the
- * same expression two points at a time.
+ * arithmetic), summed by Estrin's scheme in z = u²: a few ulp.
  */
 const ERF0 = [
   1.1283791670955126, -0.37612638903183754, 0.11283791670955126, -0.026866170645131252, 0.005223977625442188,

@@ -8,19 +8,19 @@
  *   erfc(x) about x_k for k ≥ 64, where erfc keeps its relative accuracy in the tail,
  * with the derivatives d^n/dx^n erfc(x) = −(2/√π)·(−1)^{n−1}·H_{n−1}(x)·e^{−x²} (physicists'
  * Hermite polynomials, three-term recurrence; Abramowitz & Stegun 7.1.19 and 22.7.13), and the
- * degree-0 values from Cody's erf/erfc (erf.ts). An argument is evaluated at its nearest node,
+ * degree-0 values from Cody's erf/erfc (../special/erf.ts). An argument is evaluated at its nearest node,
  * |d| = |x − x_k| ≤ h/2 = 1/256 (d is exact in binary64 by Sterbenz's lemma).
  *
  * Truncation: the first omitted term, relative to the value, is about (2x·|d|)⁹/9! in the erfc
  * range (≤ 3e-16 at x = 10) and about 2^{9/2}·|d|⁹/√9! in the erf range (≤ 1e-22): below the
  * rounding of the polynomial sum, so the table functions carry a few ulp, like Cody's (the tests
- * check them against @stdlib's erf and erfc, test/core/erf-lattice.test.ts). Above x = 10 the table is
- * not used: erfc there comes from Cody's erfc (erf.ts, with its split exponential, a few ulp).
+ * check them against @stdlib's erf and erfc, test/core/lattice/lattice.test.ts). Above x = 10 the table is
+ * not used: erfc there comes from Cody's erfc (../special/erf.ts, with its split exponential, a few ulp).
  *
  * Cost: one table index and a degree-8 polynomial (Estrin's scheme; no exp, no division), against
  * Cody's exp and degree-8 rational function.
  */
-import { erf, erfc } from './erf';
+import { erf, erfc } from '../special/erf';
 
 const INV_H = 128;
 const H = 1 / INV_H;
@@ -60,11 +60,6 @@ function buildTable(): Float64Array {
 }
 
 const T = buildTable();
-
-/** The table itself (degree 0…8 per node, node-major), for the WebAssembly port (latticeKernel.ts); read only. */
-export const ERF_TABLE: Float64Array = T;
-export const ERF_TABLE_NODES = NODES;
-export const ERF_TABLE_STRIDE = STRIDE;
 
 /**
  * The table polynomial at x (0 ≤ x < TABLE_TOP): erf(x) below the split, erfc(x) above it. Estrin's
