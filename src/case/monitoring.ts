@@ -8,6 +8,7 @@
  * Dates are calendar days, 'YYYY-MM-DD'. The model's time zero is `releaseDate` (when the release
  * began); without it measured series are compared with the steady state.
  */
+import './zodConfig';
 import { z } from 'zod';
 import { UNITS, toInternal } from '../core/units';
 import { quantity } from './quantity';

@@ -1,4 +1,5 @@
 /** The case file's quantity: a finite value with a unit of one dimension (schema.ts re-exports it). */
+import './zodConfig';
 import { z } from 'zod';
 import { UNITS, type Dimension } from '../core/units';
 

@@ -9,6 +9,7 @@
  * Positions are [x, y] pairs: in a geographic case [longitude, latitude] in degrees (WGS 84,
  * the GeoJSON order of RFC 7946); in a local case [east, north] in metres from the site datum.
  */
+import './zodConfig';
 import { z } from 'zod';
 
 export const CASE_FORMAT = 'downgradient-case';

@@ -27,6 +27,7 @@
  *   "horizon": d, "viewTime"?: d | null (null: steady state), "depth"?: m, "solution"?: "domenico" | "exact"
  * }
  */
+import './zodConfig';
 import { z } from 'zod';
 import { CASE_FORMAT } from './schema';
 

@@ -146,3 +146,55 @@ describe('a hard kill loses at most the edit in flight', () => {
     }
   });
 });
+
+describe('a clean start', () => {
+  it('reports no Content Security Policy violation, requests no default marker image and no request of its own origin fails', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    // violations as the page itself sees them (the schema library's eval probe was one)
+    await page.addInitScript(() => {
+      const seen: string[] = ((window as unknown as { __csp: string[] }).__csp = []);
+      document.addEventListener('securitypolicyviolation', (e) => seen.push(`${e.violatedDirective} ${e.blockedURI}`));
+    });
+    const failed: string[] = [];
+    const requested: string[] = [];
+    page.on('request', (r) => requested.push(r.url()));
+    page.on('requestfailed', (r) => failed.push(r.url()));
+    page.on('response', (r) => void (r.status() >= 400 && failed.push(`${r.status()} ${r.url()}`)));
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page); // receptors and water-level marks drawn
+    await page.reload();
+    await waitSaved(page);
+    await page.locator('.dg-map.leaflet-container').waitFor();
+    const own = new URL(w.base).origin;
+    expect(failed.filter((u) => u.includes(own))).toEqual([]);
+    expect(requested.filter((u) => /marker-(icon|shadow)/.test(u))).toEqual([]);
+    expect(await page.evaluate(() => (window as unknown as { __csp: string[] }).__csp)).toEqual([]);
+    expect(w.cspViolations).toEqual([]);
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
+
+  it('the map attribution typed in Settings is shown as text; only plain links become links', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page); // a case on the basemap, so the tile layer and its attribution are shown
+    const hostile = '<img src=x onerror="window.__pwned=1">Tiles <b>bold</b> © <a href="https://example.org/credits">Example maps</a> <a href="javascript:alert(1)">x</a>';
+    await page.evaluate((a) => {
+      const s = JSON.parse(localStorage.getItem('downgradient.settings.v1') ?? '{}');
+      localStorage.setItem('downgradient.settings.v1', JSON.stringify({ ...s, tileAttribution: a }));
+    }, hostile);
+    await page.reload();
+    await waitSaved(page);
+    const box = page.locator('.leaflet-control-attribution');
+    await expect.poll(async () => (await box.textContent()) ?? '').toContain('<img src=x');
+    expect(await box.locator('img, b, script').count()).toBe(0);
+    const links = await box.locator('a').evaluateAll((as) => as.map((a) => [a.getAttribute('href'), a.textContent]));
+    expect(links).toEqual([['https://example.org/credits', 'Example maps']]);
+    expect(await page.evaluate(() => (window as unknown as { __pwned?: number }).__pwned)).toBeUndefined();
+    await context.close();
+  });
+});

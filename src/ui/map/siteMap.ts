@@ -18,6 +18,7 @@ import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
+import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
@@ -292,7 +293,7 @@ export class SiteMap {
     this.tileErrors = 0;
     tileState.value = 'loading';
     this.showGrid(false);
-    const tiles = L.tileLayer(url, { attribution, maxZoom: 21, maxNativeZoom: 19, crossOrigin: true, errorTileUrl: '' });
+    const tiles = L.tileLayer(url, { attribution: attributionHtml(attribution), maxZoom: 21, maxNativeZoom: 19, crossOrigin: true, errorTileUrl: '' });
     tiles.on('tileload', () => {
       this.tileLoads++;
       tileState.value = 'ok';
