@@ -5,4 +5,4 @@ export { toFlow, fromFlow, type FlowPoint } from './flowFrame';
 export { footprintSourcePlane, type SourcePlane } from './footprint';
 export { distanceMetres, azimuthDeg, MAX_SEPARATION_M } from './geodesy';
 export { contourBands, contoursToGeoJSON, bandLabel, ringArea, type ContourBand, type ContourInput, type PolygonSet, type Ring } from './contours';
-export { ringCentroid, openRing } from './rings';
+export { ringCentroid, openRing, pointInRing } from './rings';

@@ -49,3 +49,16 @@ export function ringCentroid(closedOrOpen: readonly (readonly number[])[]): [num
   }
   return [x0 + cx / (3 * a), y0 + cy / (3 * a)];
 }
+
+/**
+ * Whether a point lies inside a simple polygon given as an open or closed ring (even–odd rule by
+ * a ray cast to +x; a point on the boundary may fall either way).
+ */
+export function pointInRing(p: readonly number[], ring: readonly (readonly number[])[]): boolean {
+  let inside = false;
+  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+    const [xi, yi] = ring[i], [xj, yj] = ring[j];
+    if (yi > p[1] !== yj > p[1] && p[0] < xj + ((p[1] - yj) * (xi - xj)) / (yi - yj)) inside = !inside;
+  }
+  return inside;
+}

@@ -160,3 +160,48 @@ describe('map framing', () => {
     await w.context.close();
   });
 });
+
+/** A one-finger stroke through the points, as touch events (Chrome DevTools Protocol). */
+async function touchStroke(page: Page, pts: [number, number][]): Promise<void> {
+  const cdp = await page.context().newCDPSession(page);
+  const at = ([x, y]: [number, number]) => [{ x, y, id: 1, radiusX: 4, radiusY: 4, force: 1 }];
+  await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: at(pts[0]) });
+  for (let k = 1; k < pts.length; k++) {
+    const [x0, y0] = pts[k - 1];
+    const [x1, y1] = pts[k];
+    for (let f = 1; f <= 8; f++)
+      await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: at([x0 + ((x1 - x0) * f) / 8, y0 + ((y1 - y0) * f) / 8]) });
+  }
+  await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+  await cdp.detach();
+}
+
+describe('release outline', () => {
+  it('tracing an outline around the release keeps the release where it was; a point again restores it; no page errors', async () => {
+    const w = await start(PORTRAIT);
+    const { page } = w;
+    const sourceAt = () => page.evaluate(() => (globalThis as any).__downgradient.currentCase().site.source.position as number[]);
+    const before = await sourceAt();
+    const mark = (await page.locator('.dg-mark-source').boundingBox())!;
+    const cx = mark.x + mark.width / 2, cy = mark.y + mark.height / 2;
+    await page.click('[data-section=release] .dg-seg button[data-value=outline]');
+    // a finger stroke starting on the release mark itself, around it (off-centre: the outline's centroid is elsewhere)
+    await touchStroke(page, [[cx, cy], [cx - 20, cy - 50], [cx + 120, cy - 50], [cx + 120, cy + 60], [cx - 20, cy + 60], [cx - 20, cy - 45]]);
+    await page.waitForSelector('[data-testid=source-width]');
+    await settled(page);
+    expect(await sourceAt()).toEqual(before);
+    const traced = await page.evaluate(() => (globalThis as any).__downgradient.currentCase().site.source.footprint.length as number);
+    expect(traced).toBeGreaterThanOrEqual(4);
+    // trace again away from the release: the release moves into the new outline ...
+    await page.click('[data-testid=source-width] button:has-text("Trace again")');
+    const x2 = cx + 150;
+    await touchStroke(page, [[x2, cy - 40], [x2 + 60, cy - 40], [x2 + 60, cy + 40], [x2, cy + 40], [x2, cy - 38]]);
+    await page.waitForFunction((b) => (globalThis as any).__downgradient.currentCase().site.source.position[0] !== b[0], before);
+    // ... and a point with a width again puts it back where it was
+    await page.click('[data-section=release] .dg-seg button[data-value=point]');
+    await expect.poll(sourceAt).toEqual(before);
+    await settled(page);
+    expect(w.pageErrors).toEqual([]);
+    await w.context.close();
+  });
+});

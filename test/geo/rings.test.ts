@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ringArea, ringCentroid, openRing } from '../../src/geo/rings';
+import { ringArea, ringCentroid, openRing, pointInRing } from '../../src/geo/rings';
 
 // References are exact elementary geometry, independent of the shoelace formula under test:
 // - a triangle's centroid is the mean of its vertices, its area ½|base × height|;
@@ -62,5 +62,24 @@ describe('ringCentroid', () => {
 
   it('openRing drops repeated and closing vertices', () => {
     expect(openRing([[0, 0], [0, 0], [1, 0], [1, 1], [0, 0]])).toEqual([[0, 0], [1, 0], [1, 1]]);
+  });
+});
+
+describe('pointInRing (even–odd rule)', () => {
+  // the L-shape above: its notch (x 2–10, y 2–8) is outside, each arm inside (elementary geometry)
+  const L = [[0, 0], [10, 0], [10, 2], [2, 2], [2, 8], [0, 8]];
+  it('inside each arm, outside the notch and beyond the shape, either orientation, open or closed', () => {
+    for (const ring of [L, [...L].reverse(), [...L, L[0]]]) {
+      expect(pointInRing([5, 1], ring)).toBe(true);
+      expect(pointInRing([1, 6], ring)).toBe(true);
+      expect(pointInRing([6, 5], ring)).toBe(false);
+      expect(pointInRing([-1, 1], ring)).toBe(false);
+      expect(pointInRing([11, 1], ring)).toBe(false);
+    }
+  });
+  it('the centroid of a convex ring is inside it; the L-shape\'s centroid (3.5, 2.5) lies in its notch, outside', () => {
+    const tri = [[0, 0], [9, 0], [3, 6]];
+    expect(pointInRing(ringCentroid(tri), tri)).toBe(true);
+    expect(pointInRing(ringCentroid(L), L)).toBe(false);
   });
 });

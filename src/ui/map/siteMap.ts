@@ -11,7 +11,6 @@ import * as L from 'leaflet';
 import { effect, signal } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
-import { ringCentroid } from '../../geo/rings';
 import { currentCase, currentResults, updateCase, registerMapElement } from '../state';
 import { mapTool, selectedId, tileState, playTime } from '../view';
 import { settings } from '../settings';
@@ -20,7 +19,7 @@ import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
 import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
-import { moveSource } from '../frame';
+import { moveSource, setFootprint } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
 
 export const toLatLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
@@ -141,8 +140,15 @@ export class SiteMap {
     this.disposers.push(
       effect(() => {
         el.dataset.tool = mapTool.value;
-        if (mapTool.value === 'trace-footprint') this.map.dragging.disable();
+        // while tracing, the finger draws: neither the map nor any mark moves under it
+        const tracing = mapTool.value === 'trace-footprint';
+        if (tracing) this.map.dragging.disable();
         else this.map.dragging.enable();
+        for (const m of [this.source, this.flowHandle, ...this.receptors.values(), ...this.heads.values()]) {
+          if (!m.dragging) continue;
+          if (tracing) m.dragging.disable();
+          else m.dragging.enable();
+        }
       }),
     );
     this.map.on('zoom move resize', () => guarded('arrow', () => this.syncFlowArrow(currentCase.peek(), currentResults.peek()?.derived.azimuthDeg ?? null)));
@@ -518,13 +524,7 @@ export class SiteMap {
       if (!pts) return;
       const ring = simplifyTrace(pts.map((ll) => map.latLngToContainerPoint(ll))).map((p) => toPosition(map.containerPointToLatLng(p)));
       if (ring.length < 3) return;
-      const c = currentCase.peek();
-      const lf = makeLocalFrame(c.site.frame, c.site.datum);
-      const centre = lf.fromEN(ringCentroid(ring.map((p) => lf.toEN(p))));
-      updateCase((d) => {
-        d.site.source.footprint = ring;
-        d.site.source.position = centre;
-      });
+      updateCase((d) => setFootprint(d, ring));
       mapTool.value = 'move';
     };
     el.addEventListener('pointerup', finish);

@@ -7,7 +7,7 @@ import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, typ
 import type { Case } from '../../case/schema';
 import { convert } from '../../core/units';
 import { fmtLength } from '../format';
-import { moveSource } from '../frame';
+import { moveSource, dropFootprint } from '../frame';
 import { derivedForScreen } from '../evaluation';
 
 export function ReleasePanel() {
@@ -27,7 +27,7 @@ export function ReleasePanel() {
           { id: 'outline', label: 'Traced outline' },
         ]}
         onChange={(v) => {
-          if (v === 'point') updateCase((d) => void (d.site.source.footprint = null));
+          if (v === 'point') updateCase(dropFootprint);
           else mapTool.value = 'trace-footprint';
         }}
       />
@@ -42,7 +42,7 @@ export function ReleasePanel() {
             <button type="button" onClick={() => (mapTool.value = 'trace-footprint')}>
               Trace again
             </button>
-            <button type="button" onClick={() => updateCase((d) => void (d.site.source.footprint = null))}>
+            <button type="button" onClick={() => updateCase(dropFootprint)}>
               Use a point instead
             </button>
           </div>
