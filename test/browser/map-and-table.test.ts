@@ -205,3 +205,48 @@ describe('release outline', () => {
     await w.context.close();
   });
 });
+
+describe('lists and tools', () => {
+  it('deleting a receptor far down the list puts its Undo where it was, in view and focused', async () => {
+    const w = await start(PHONE, 'fuel-release-farm-well.json');
+    const { page } = w;
+    await page.click('[data-section=risk] .dg-sec-toggle');
+    for (let n = 3; n <= 5; n++) {
+      await page.click('button[data-action=add-receptor-downgradient]');
+      await page.waitForFunction((k) => document.querySelectorAll('[data-testid=receptor-list] > li[data-receptor]').length === k, n);
+    }
+    const last = page.locator('[data-testid=receptor-list] > li[data-receptor]').nth(4);
+    const del = last.getByRole('button', { name: /^Delete / });
+    await del.scrollIntoViewIfNeeded();
+    await del.click();
+    const undo = page.getByTestId('undo-receptor').getByRole('button', { name: 'Undo' });
+    await undo.waitFor();
+    expect(await undo.evaluate((b) => b === document.activeElement)).toBe(true);
+    const box = (await undo.boundingBox())!;
+    expect(box.y).toBeGreaterThanOrEqual(0);
+    expect(box.y + box.height).toBeLessThanOrEqual(PHONE.height);
+    expect(box.height).toBeGreaterThanOrEqual(44);
+    await page.screenshot({ path: artifactPath('receptor-undo-phone.png') });
+    await undo.click();
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-list] > li[data-receptor]').length === 5);
+    expect(w.pageErrors).toEqual([]);
+    await w.context.close();
+  });
+
+  it('a tool hint does not change the map size (a tap lands where the finger is)', async () => {
+    for (const viewport of [LANDSCAPE, PHONE]) {
+      const w = await start(viewport);
+      const { page } = w;
+      const before = (await page.locator('.dg-map').boundingBox())!;
+      await page.click('button[data-tool=add-receptor]');
+      await page.getByTestId('tool-hint').waitFor();
+      const after = (await page.locator('.dg-map').boundingBox())!;
+      expect(after).toEqual(before);
+      // the tap under the hint's row still reaches the map
+      const marks = await page.locator('.dg-mark-receptor').count();
+      await page.mouse.click(after.x + after.width / 2, after.y + 20);
+      await expect.poll(() => page.locator('.dg-mark-receptor').count()).toBe(marks + 1);
+      await w.context.close();
+    }
+  });
+});

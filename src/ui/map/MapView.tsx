@@ -66,6 +66,7 @@ function LiveMap({ frameKey }: { frameKey: string }) {
             Part of the map cannot be drawn: {mapFailure.value}
           </p>
         )}
+        <ToolHint />
       </div>
       <div class="dg-map-foot">
         {tileState.value === 'failed' && (
@@ -88,9 +89,19 @@ const TOOLS: { id: MapTool; label: string; hint: string }[] = [
   { id: 'add-head', label: '+ Water level', hint: 'Tap each monitoring well (three or more) and enter its water level' },
 ];
 
-function MapTools() {
+/** What the active tool does, over the top of the map (so the map keeps its size: a tap lands where the finger is). */
+function ToolHint() {
   const tool = mapTool.value;
   const hint = TOOLS.find((t) => t.id === tool)?.hint ?? '';
+  return tool !== 'move' ? (
+    <p class="dg-tool-hint" role="status" data-testid="tool-hint">
+      {hint}
+    </p>
+  ) : null;
+}
+
+function MapTools() {
+  const tool = mapTool.value;
   return (
     <div class="dg-map-tools" role="toolbar" aria-label="Map tools">
       {TOOLS.map((t) => (
@@ -105,7 +116,6 @@ function MapTools() {
           {t.label}
         </button>
       ))}
-      {tool !== 'move' && <span class="dg-tool-hint" role="status">{hint}</span>}
     </div>
   );
 }

@@ -2,6 +2,7 @@
  * Which way the water goes and how fast: the flow direction (an arrow and gradient, or water levels
  * in wells) and the seepage velocity that follows with the aquifer's inputs (AquiferPanel.tsx).
  */
+import { Fragment } from 'preact';
 import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
 import { QuantityField, NumberField, Segmented, fmtNum } from '../fields';
@@ -95,10 +96,11 @@ function HeadReadings({ c }: { c: Case }) {
         {mapTool.value === 'add-head' ? 'Done adding wells' : '+ Water level (tap the map)'}
       </button>
       {issue && <p class="dg-field-error" role="alert">{issue}</p>}
-      <UndoDelete what="head" />
       <ol class="dg-list">
         {readings.map((h, i) => (
-          <li key={h.id} class={selectedId.value === h.id ? 'dg-selected' : ''} onClick={() => (selectedId.value = h.id)}>
+          <Fragment key={h.id}>
+          <UndoDelete what="head" at={i} />
+          <li class={selectedId.value === h.id ? 'dg-selected' : ''} onClick={() => (selectedId.value = h.id)}>
             <input
               class="dg-text dg-name"
               aria-label={`Name of well ${i + 1}`}
@@ -140,7 +142,9 @@ function HeadReadings({ c }: { c: Case }) {
               Remove
             </button>
           </li>
+          </Fragment>
         ))}
+        <UndoDelete what="head" at={readings.length} />
       </ol>
       {fit && readings.length === 3 && <p class="dg-help">Three wells define the plane exactly (residuals 0); a fourth checks it.</p>}
     </div>

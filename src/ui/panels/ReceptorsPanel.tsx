@@ -5,7 +5,9 @@ import { QuantityField, NumberField, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId, lastDeleted } from '../view';
 import { preparedCase } from '../evaluation';
 import { newId, newReceptor } from '../../case/defaults';
-import type { ReceptorKind } from '../../case/schema';
+import type { Case, ReceptorKind } from '../../case/schema';
+import { Fragment } from 'preact';
+import { useEffect, useRef } from 'preact/hooks';
 import { activeSiteMap } from '../map/MapView';
 import { toLatLng } from '../map/siteMap';
 
@@ -64,7 +66,6 @@ export function ReceptorsPanel() {
           + Receptor on the centreline (no map needed)
         </button>
       </div>
-      <UndoDelete what="receptor" />
       {c.site.receptors.length === 0 && (
         <p class="dg-help">No receptors yet: add the wells, springs, creeks or property lines that matter.</p>
       )}
@@ -72,7 +73,9 @@ export function ReceptorsPanel() {
         {c.site.receptors.map((r, i) => {
           const sel = selectedId.value === r.id;
           return (
-            <li key={r.id} class={sel ? 'dg-selected' : ''} data-receptor={r.id}>
+            <Fragment key={r.id}>
+            <UndoDelete what="receptor" at={i} />
+            <li class={sel ? 'dg-selected' : ''} data-receptor={r.id}>
               <div class="dg-list-head">
                 <input
                   class="dg-text dg-name"
@@ -144,23 +147,37 @@ export function ReceptorsPanel() {
                 </button>
               </div>
             </li>
+            </Fragment>
           );
         })}
+        <UndoDelete what="receptor" at={c.site.receptors.length} />
       </ol>
     </Section>
   );
 }
 
-/** Put back the last deleted receptor or water-level well (deleting never loses anything). */
-export function UndoDelete({ what }: { what: 'receptor' | 'head' }) {
+/**
+ * Put back the last deleted receptor or water-level well (deleting never loses anything): a list
+ * item where the deleted one was, so it is where the finger is, with the focus on its button.
+ * List it before item `at` (and once at the list's end, `at` = its length).
+ */
+export function UndoDelete({ what, at }: { what: 'receptor' | 'head'; at: number }) {
   const d = lastDeleted.value;
   const c = currentCase.value;
-  if (!d || d.what !== what || d.caseId !== c.id) return null;
+  const button = useRef<HTMLButtonElement>(null);
+  const shown = !!d && d.what === what && d.caseId === c.id && at === Math.min(d.index, listLength(c, what));
+  useEffect(() => {
+    if (!shown) return;
+    button.current?.focus({ preventScroll: true });
+    button.current?.scrollIntoView({ block: 'center' });
+  }, [shown, d]);
+  if (!shown || !d) return null;
   return (
-    <p class="dg-undo" role="status">
+    <li class="dg-undo" role="status" data-testid={`undo-${what}`}>
       Deleted “{d.item.name}”.{' '}
       <button
         type="button"
+        ref={button}
         onClick={() => {
           lastDeleted.value = null;
           updateCase((x) => {
@@ -171,8 +188,12 @@ export function UndoDelete({ what }: { what: 'receptor' | 'head' }) {
       >
         Undo
       </button>
-    </p>
+    </li>
   );
+}
+
+function listLength(c: Case, what: 'receptor' | 'head'): number {
+  return what === 'receptor' ? c.site.receptors.length : c.site.flow.method === 'heads' ? c.site.flow.readings.length : 0;
 }
 
 /** Add a receptor on the plume centreline beyond the farthest one (keyboard users need no map). */
