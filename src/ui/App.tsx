@@ -20,7 +20,7 @@ import { lazyPart } from './lazy';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
 import { openDemoCase } from '../app/actions';
-import { openSections } from './view';
+import { openSections, settingsOpen } from './view';
 import { startEvaluation } from './evaluation';
 import { Guard } from './Guard';
 import { placementProblem } from '../case/check';
@@ -43,7 +43,6 @@ export function App({ initialCase, slots }: AppProps) {
   useEffect(() => startEvaluation(), []);
   const CaseMenu = slots.caseMenu;
   const Status = slots.status;
-  const [showSettings, setShowSettings] = useState(false);
   return (
     <div class="dg-app" data-started={started}>
       <header class="dg-header">
@@ -69,7 +68,7 @@ export function App({ initialCase, slots }: AppProps) {
         >
           {settings.value.theme === 'dark' ? '☀' : '☾'}
         </button>
-        <button type="button" class="dg-icon-btn" aria-label="Settings" title="Settings" onClick={() => setShowSettings(true)}>
+        <button type="button" class="dg-icon-btn" aria-label="Settings" title="Settings" onClick={() => (settingsOpen.value = 'all')}>
           ⚙
         </button>
       </header>
@@ -85,7 +84,7 @@ export function App({ initialCase, slots }: AppProps) {
           ))}
         </div>
       </main>
-      {showSettings && <SettingsDialog onClose={() => setShowSettings(false)} />}
+      {settingsOpen.value && <SettingsDialog at={settingsOpen.value} onClose={() => (settingsOpen.value = null)} />}
     </div>
   );
 }

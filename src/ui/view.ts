@@ -23,3 +23,6 @@ export const lastDeleted = signal<
   | { what: 'head'; index: number; item: import('../case/schema').HeadReading; caseId: string }
   | null
 >(null);
+
+/** The settings dialog: closed, open, or open at the case's site coordinates (to place it on the basemap). */
+export const settingsOpen = signal<null | 'all' | 'site'>(null);

@@ -168,4 +168,28 @@ describe('case sheet', () => {
     expect(w.pageErrors).toEqual([]);
     await context.close();
   });
+
+  it('GeoJSON of a case in local metres: the refusal leads to placing it on the basemap, then the export works', async () => {
+    const w = await watchedPage(getBrowser(), PORTRAIT);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page, 'nitrate-field-supply.json');
+    await openFiles(page);
+    await page.getByTestId('export-geojson').click();
+    await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/WGS 84/);
+    await page.getByTestId('place-on-map').click();
+    const lon = page.locator('#dg-datum-lon');
+    await expect.poll(() => lon.evaluate((el) => el === document.activeElement)).toBe(true);
+    await lon.fill('9.5');
+    await page.getByLabel(/Datum latitude/).fill('47.2');
+    await page.screenshot({ path: artifactPath('place-on-map-portrait.png') });
+    await page.getByRole('button', { name: 'Put this case on the basemap' }).click();
+    await page.getByRole('button', { name: 'Close' }).click();
+    await openFiles(page);
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-geojson').click()]);
+    expect(dl.suggestedFilename()).toMatch(/\.geojson$/);
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
 });

@@ -12,7 +12,7 @@ import type { Evaluation } from '../results';
 import { libraryVersion, session } from '../../app/session';
 import { currentCase } from '../state';
 import { fmtConc, fmtTime } from '../format';
-import { inputDifferences, receptorChanges, type Difference, type ReceptorChange, type ReceptorOutcome } from './compare';
+import { comparePairOrder, inputDifferences, receptorChanges, type Difference, type ReceptorChange, type ReceptorOutcome } from './compare';
 import { comparePair } from './CaseMenu';
 import { SCREENING_CAUTION } from '../../case/caution';
 
@@ -59,12 +59,7 @@ export function CompareView() {
   useEffect(() => {
     void session.store?.list().then((l) => {
       setList(l);
-      setIds(([a, b]) => {
-        const open = currentCase.peek().id;
-        const first = a && l.some((x) => x.id === a) ? a : l.some((x) => x.id === open) ? open : (l[0]?.id ?? null);
-        const second = b && l.some((x) => x.id === b) && b !== first ? b : (l.find((x) => x.id !== first)?.id ?? null);
-        return [first, second];
-      });
+      setIds((chosen) => comparePairOrder(l, chosen, currentCase.peek().id));
     });
   }, [version]);
 

@@ -12,13 +12,14 @@ import { reportOpen } from './reportOpen';
 import { DEFAULT_MAX_BYTES } from '../../case/io';
 import { SCREENING_CAUTION } from '../../case/caution';
 import { sheet } from './CaseMenu';
+import { settingsOpen } from '../view';
 
 /** Control characters from a hostile file would render as garbage: show them as a visible mark. */
 function printable(s: string): string {
   return s.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, '␀');
 }
 
-type Msg = { tone: 'ok' | 'error'; lines: string[]; repairable?: Case } | null;
+type Msg = { tone: 'ok' | 'error'; lines: string[]; repairable?: Case; placeOnMap?: boolean } | null;
 
 export function FilesView() {
   const [msg, setMsg] = useState<Msg>(null);
@@ -105,7 +106,12 @@ export function FilesView() {
           Case file (.json)
           <small>re-opens in Downgradient on any device</small>
         </button>
-        <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => out(() => geojsonFile(c, r))}>
+        <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => {
+            out(() => geojsonFile(c, r));
+            // a case in local metres has no map coordinates: offer the way to give it some
+            if (c.site.frame !== 'geographic') setMsg((m) => m && { ...m, placeOnMap: true });
+          }}
+        >
           Map layers (GeoJSON)
           <small>source, receptors, monitoring wells, flow arrow, plume contours for a GIS</small>
         </button>
@@ -190,6 +196,20 @@ export function FilesView() {
           {msg.lines.map((l, i) => (
             <p key={i}>{printable(l)}</p>
           ))}
+          {msg.placeOnMap && (
+            <button
+              type="button"
+              class="dg-lib-btn is-primary"
+              data-testid="place-on-map"
+              onClick={() => {
+                sheet.value = null;
+                settingsOpen.value = 'site';
+              }}
+            >
+              Place this case on the basemap…
+              <small>give the site datum's longitude and latitude in Settings</small>
+            </button>
+          )}
           {msg.repairable && (
             <button type="button" class="dg-lib-btn" data-testid="keep-for-repair" disabled={busy} onClick={() => void keepForRepair(msg.repairable!)}>
               Keep it on this device to repair

@@ -6,7 +6,7 @@
  * input; bookkeeping fields (id, dates, parent link, notes) are not inputs and are left out.
  * Receptors are matched by id (a variant keeps its parent's receptor ids), then by name.
  */
-import { formatDuration, screenNumber } from '../../case/numbers';
+import { formatDuration, formatSig, roundSig, screenNumber } from '../../case/numbers';
 import type { Case } from '../../case/schema';
 import { UNITS } from '../../core/units';
 
@@ -81,9 +81,42 @@ function sameNumber(x: number, y: number): boolean {
   return Math.abs(x - y) <= 1e-12 * Math.max(Math.abs(x), Math.abs(y));
 }
 
+/** "1 year", "2 years": time units named in words take the singular for exactly one. */
+export function quantityText(value: number, unit: string): string {
+  const label = UNITS[unit]?.label ?? unit;
+  const n = roundSig(value, 6);
+  const word = n === 1 && /^(years|days|hours)$/.test(label) ? label.slice(0, -1) : label;
+  return `${formatSig(n, 6)} ${word}`;
+}
+
+/**
+ * The pair to compare, in reading order: the base case first, its what-if second (so "now reaches
+ * the limit" describes the what-if). With nothing chosen: the open case, after its base if it is
+ * a what-if. A chosen pair given what-if first is turned round.
+ */
+export function comparePairOrder(
+  list: readonly { id: string; parentId: string | null }[],
+  chosen: [string | null, string | null],
+  openId: string,
+): [string | null, string | null] {
+  const byId = new Map(list.map((x) => [x.id, x]));
+  const [a, b] = chosen;
+  let first = a && byId.has(a) ? a : null;
+  let second = b && byId.has(b) && b !== first ? b : null;
+  if (!first && !second) {
+    const parent = byId.get(openId)?.parentId;
+    if (parent && byId.has(parent)) [first, second] = [parent, openId];
+    else first = byId.has(openId) ? openId : (list[0]?.id ?? null);
+  }
+  if (!first) first = list.find((x) => x.id !== second)?.id ?? null;
+  if (!second) second = list.find((x) => x.id !== first)?.id ?? null;
+  if (first && second && byId.get(first)?.parentId === second) [first, second] = [second, first];
+  return [first, second];
+}
+
 export function show(v: unknown): string {
   if (v === null || v === undefined) return 'none';
-  if (isQuantity(v)) return `${Number(v.value.toPrecision(6))} ${UNITS[v.unit]?.label ?? v.unit}`;
+  if (isQuantity(v)) return quantityText(v.value, v.unit);
   if (typeof v === 'number') return String(Number(v.toPrecision(6)));
   if (typeof v === 'boolean') return v ? 'yes' : 'no';
   if (typeof v === 'string') return v || '(empty)';

@@ -10,14 +10,18 @@ import { currentCase, updateCase } from '../state';
 import { convertFrame } from '../frame';
 import { ALLOWED_TILE_ORIGINS } from '../../app/tilePolicy';
 
-export function SettingsDialog({ onClose }: { onClose: () => void }) {
+export function SettingsDialog({ onClose, at = 'all' }: { onClose: () => void; at?: 'all' | 'site' }) {
   const s = settings.value;
   const [url, setUrl] = useState(s.tileUrl);
   const [attr, setAttr] = useState(s.tileAttribution);
   const urlError = checkTileUrl(url);
   const first = useRef<HTMLInputElement>(null);
   useEffect(() => {
-    first.current?.focus();
+    if (at === 'site') {
+      const lon = document.getElementById('dg-datum-lon');
+      lon?.scrollIntoView({ block: 'center' });
+      lon?.focus();
+    } else first.current?.focus();
     const key = (e: KeyboardEvent) => e.key === 'Escape' && onClose();
     addEventListener('keydown', key);
     return () => removeEventListener('keydown', key);
@@ -101,7 +105,7 @@ function FrameSettings() {
           <div class="dg-pair">
             <label class="dg-field">
               <span>Datum longitude (−180 to 180)</span>
-              <input class="dg-text" inputMode="decimal" value={lon} onInput={(e) => setLon((e.target as HTMLInputElement).value)} />
+              <input id="dg-datum-lon" class="dg-text" inputMode="decimal" value={lon} onInput={(e) => setLon((e.target as HTMLInputElement).value)} />
             </label>
             <label class="dg-field">
               <span>Datum latitude (−85 to 85)</span>

@@ -1,7 +1,7 @@
 // Case comparison: differences found in internal units (unit factors from src/core/units.ts, whose
 // definitions cite NIST), bookkeeping fields ignored, receptors matched by id then name.
 import { describe, expect, it } from 'vitest';
-import { inputDifferences, receptorChanges, describeChange, type ReceptorOutcome } from '../../../src/ui/library/compare';
+import { inputDifferences, receptorChanges, describeChange, comparePairOrder, quantityText, type ReceptorOutcome } from '../../../src/ui/library/compare';
 import { newCase } from '../../../src/case/defaults';
 import type { Case } from '../../../src/case/schema';
 
@@ -48,7 +48,7 @@ describe('inputDifferences', () => {
       'Receptor “Garden well”',
     ]);
     expect(d[0]).toMatchObject({ a: '10 m/d', b: '25 m/d' });
-    expect(d[1]).toMatchObject({ a: 'none', b: '1 years' });
+    expect(d[1]).toMatchObject({ a: 'none', b: '1 year' });
     expect(d[3]).toMatchObject({ a: 'absent', b: 'present' });
   });
 
@@ -90,5 +90,29 @@ describe('receptorChanges', () => {
       ['Creek', 'only in the first case'],
       ['Spring', 'only in the second case'],
     ]);
+  });
+});
+
+describe('comparePairOrder (base case first, what-if second)', () => {
+  const list = [
+    { id: 'base', parentId: null },
+    { id: 'whatif', parentId: 'base' },
+    { id: 'other', parentId: null },
+  ];
+  it('nothing chosen: the open what-if after its base', () => {
+    expect(comparePairOrder(list, [null, null], 'whatif')).toEqual(['base', 'whatif']);
+    expect(comparePairOrder(list, [null, null], 'base')).toEqual(['base', 'whatif']);
+    expect(comparePairOrder(list, [null, null], 'other')).toEqual(['other', 'base']);
+  });
+  it('a pair chosen what-if first is turned round; others are kept', () => {
+    expect(comparePairOrder(list, ['whatif', 'base'], 'whatif')).toEqual(['base', 'whatif']);
+    expect(comparePairOrder(list, ['other', 'base'], 'base')).toEqual(['other', 'base']);
+    // a chosen case no longer stored: the other is kept, a partner found, base first
+    expect(comparePairOrder(list, ['gone', 'base'], 'base')).toEqual(['base', 'whatif']);
+  });
+  it('one year, not "1 years"', () => {
+    expect(quantityText(1, 'yr')).toBe('1 year');
+    expect(quantityText(2, 'yr')).toBe('2 years');
+    expect(quantityText(1, 'm')).toBe('1 m');
   });
 });
