@@ -27,6 +27,7 @@ import { applyImport, importObservationsCsv } from '../case/observations-import'
 import { serializeCase } from '../case/io';
 import { writeFileSync } from 'node:fs';
 import { SOLUTION_LABEL } from '../case/export-results';
+import { UNCERTAINTY_COLUMNS, distributionRecords, uncertaintyCells } from '../case/export-uncertainty';
 import { describeDistribution, driverSentence, runUncertainty, type Percentiles, type UncertaintyResult } from '../case/uncertainty';
 
 export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase: 4, invalidValue: 5 } as const;
@@ -412,13 +413,7 @@ function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null): st
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
     'other_solution', 'other_status', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
     'solutions_differ_in',
-    ...(u
-      ? [
-          'mc_runs', 'mc_seed', 'p_exceed', 'p_exceed_se', 'p_exceed_low95', 'p_exceed_high95',
-          'arrival_p5_d', 'arrival_p50_d', 'arrival_p95_d', 'c_horizon_p5_mg_per_L', 'c_horizon_p50_mg_per_L', 'c_horizon_p95_mg_per_L',
-          'peak_p5_mg_per_L', 'peak_p50_mg_per_L', 'peak_p95_mg_per_L', 'drivers',
-        ]
-      : []),
+    ...(u ? UNCERTAINTY_COLUMNS : []),
   ];
   const rows: Cell[][] = s.results.map(({ receptor: r, result: x }) => {
     const a = x.alternate;
@@ -431,28 +426,13 @@ function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null): st
     ];
   });
   const inputs: Cell[][] = u
-    ? [
-        ...u.inputs.map((i): Cell[] => ['uncertain input', i.label, describeDistribution(i.distribution, i.unit, i.input), ...Array(head.length - 3).fill('')]),
-        ...(u.headPlane ? [['uncertain input', 'flow direction and gradient', 'from the head readings\' plane fit (least-squares covariance)', ...Array(head.length - 3).fill('')] as Cell[]] : []),
-        ['probabilistic caution', u.caution, ...Array(head.length - 2).fill('')],
-      ]
+    ? [...distributionRecords(u).map((r) => [...r, ...Array(head.length - 3).fill('')]), ['probabilistic caution', u.caution, ...Array(head.length - 2).fill('')]]
     : [];
   const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];
   const obs = observationSummary(c, s.prepared);
   return csvRecords([head, ...rows, ...inputs, ...(obs ? observationsCsvRows(obs, head.length) : []), caution]);
 }
 
-function uncertaintyCells(u: UncertaintyResult, j: number): Cell[] {
-  const r = u.receptors[j];
-  const t = (v: number | null) => (v === null ? 'not within the horizon' : v);
-  return [
-    u.runs, u.seed, r.pExceed, r.pExceedSE, r.pExceedInterval[0], r.pExceedInterval[1],
-    t(r.arrival.p5), t(r.arrival.p50), t(r.arrival.p95),
-    r.concentrationAtHorizon.p5, r.concentrationAtHorizon.p50, r.concentrationAtHorizon.p95,
-    r.peak.p5, r.peak.p50, r.peak.p95,
-    r.drivers.map((d) => `${d.input} rho=${d.rankCorrelation.toFixed(3)} low=${d.pExceedLowThird.toFixed(3)} high=${d.pExceedHighThird.toFixed(3)}`).join('; '),
-  ];
-}
 
 // ---------------------------------------------------------------------------------------------
 

@@ -71,13 +71,18 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await close();
   });
 
-  it('the printed report carries the distributions, seed, runs and the run\'s results', async () => {
+  it('the CSV export and the printed report carry the distributions, seed, runs and the run\'s results', async () => {
     const { page, errors, close } = await openFuelDemo(PORTRAIT);
     await setNumber(page, 'Realisations', 250);
     await setNumber(page, 'Seed', 9);
     await page.getByRole('button', { name: /^Run/ }).click();
     await page.waitForSelector('text=Run again', { timeout: 90_000 });
     await openFiles(page);
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-probabilities').click()]);
+    const csv = readFileSync((await dl.path())!, 'utf8');
+    expect(csv).toMatch(/^run,realisations,seed/);
+    expect(csv).toContain('Monte Carlo,250,9,');
+    expect(csv).toContain('probabilistic caution');
     await page.getByTestId('open-report').click();
     await page.locator('[data-testid=report][data-ready=yes]').waitFor({ timeout: 30_000 });
     const text = await page.getByTestId('report-uncertainty').innerText();

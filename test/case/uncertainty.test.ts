@@ -241,3 +241,18 @@ describe('demo cases with distributions', () => {
     expect(res.receptors.every((r) => r.pExceed >= 0 && r.pExceed <= 1 && r.drivers.length >= 4)).toBe(true);
   });
 });
+
+describe('probabilistic CSV (src/case/export-uncertainty.ts)', () => {
+  it('holds the run, every distribution, per-receptor figures, drivers and the caution, and reads back as RFC 4180', async () => {
+    const { uncertaintyCsv } = await import('../../src/case/export-uncertainty');
+    const res = runUncertainty(load('fuel-release-farm-well.json'), { runs: 120, seed: 8 });
+    const text = uncertaintyCsv(res);
+    const lines = text.split('\r\n');
+    expect(lines[1]).toMatch(/^Monte Carlo,120,8,"?Latin hypercube/);
+    expect(text).toContain('uncertain input,hydraulic conductivity (K),"lognormal, median 12 m/d, geometric standard deviation 3"');
+    const farm = lines.find((l) => l.startsWith('Farm supply well,120,8,'))!;
+    expect(Number(farm.split(',')[3])).toBe(res.receptors[0].pExceed);
+    expect(lines.filter((l) => l.startsWith("Neighbour's garden well,")).length).toBe(1 + res.receptors[1].drivers.length);
+    expect(text).toContain('probabilistic caution');
+  });
+});

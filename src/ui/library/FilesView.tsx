@@ -7,7 +7,7 @@ import { currentCase, currentResults } from '../state';
 import { importCaseText, importForRepair, resolveImport, type ImportOutcome } from '../../app/actions';
 import type { Case } from '../../case/schema';
 import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
-import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, type Built } from './outputs';
+import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, uncertaintyCsvFile, type Built } from './outputs';
 import { reportOpen } from './reportOpen';
 import { DEFAULT_MAX_BYTES } from '../../case/io';
 import { SCREENING_CAUTION } from '../../case/caution';
@@ -123,6 +123,12 @@ export function FilesView() {
           Breakthrough curves (CSV)
           <small>concentration over time at each receptor</small>
         </button>
+        {(c.uncertainty.headFit || Object.keys(c.uncertainty.inputs).length > 0) && (
+          <button type="button" class="dg-lib-btn" data-testid="export-probabilities" onClick={() => out(() => uncertaintyCsvFile(c))}>
+            Probabilistic results (CSV)
+            <small>distributions, seed and runs, P(reaches limit) ± SE, percentiles and drivers per receptor</small>
+          </button>
+        )}
         {c.monitoring.results.length > 0 && (
           <button type="button" class="dg-lib-btn" data-testid="export-observations" onClick={() => out(() => observationsCsvFile(c))}>
             Monitoring results (CSV)

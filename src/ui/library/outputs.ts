@@ -6,6 +6,8 @@ import { serializeCase } from '../../case/io';
 import { caseToGeoJSON } from '../../case/export-geojson';
 import { breakthroughCsv, fileStem, receptorTableCsv } from '../../case/export-csv';
 import { observationsCsv } from '../../case/export-observations';
+import { uncertaintyCsv } from '../../case/export-uncertainty';
+import { caseKeyOf, uncertaintyRun } from '../uncertaintyRun';
 import { plumeGeoJSON, type Evaluation } from '../results';
 import type { ExportResults } from '../../case/export-results';
 import type { OutFile } from './download';
@@ -53,4 +55,11 @@ export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
 export function observationsCsvFile(c: Case): Built {
   if (c.monitoring.results.length === 0) return { ok: false, error: 'Monitoring results: the case has no sampling results yet.' };
   return { ok: true, file: { name: `${fileStem(c)}-monitoring.csv`, type: 'text/csv', text: observationsCsv(c) } };
+}
+
+export function uncertaintyCsvFile(c: Case): Built {
+  const run = uncertaintyRun.peek();
+  if (!run.result || run.status !== 'done' || run.caseKey !== caseKeyOf(c))
+    return { ok: false, error: 'Probabilistic results: no completed run for the current inputs; run it under "How sure is it?", then export.' };
+  return { ok: true, file: { name: `${fileStem(c)}-probabilities.csv`, type: 'text/csv', text: uncertaintyCsv(run.result) } };
 }
