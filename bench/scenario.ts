@@ -1,7 +1,7 @@
 /**
  * The benchmark's inputs: one invented screening scenario (not a real site), built before any clock
  * starts. Values are plausible for a sandy aquifer (K, porosity within the ranges in
- * the design notes (../shared/FIELD-VALUES.md); dispersivity ratios αy = αx/10, αz = αx/100, common practice).
+ * docs/field-values.md; dispersivity ratios αy = αx/10, αz = αx/100, common practice).
  */
 import type { ScreeningModel } from '../src/core/model';
 

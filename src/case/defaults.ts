@@ -1,6 +1,6 @@
 /**
  * A new, valid case to start from. The numbers are neutral starting values for a sandy aquifer
- * and a fuel aromatic, each within the published ranges of shared field values (Bouwer 1978 for K,
+ * and a fuel aromatic, each within the published ranges in docs/field-values.md (Bouwer 1978 for K,
  * US EPA 1996 Soil Screening Guidance for benzene's Koc, US EPA MCL for benzene's limit). The user
  * is expected to replace them with site values; the limit note says the local limit governs.
  */

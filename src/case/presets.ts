@@ -1,6 +1,6 @@
 /**
  * Presets: published starting values for contaminants and aquifer materials, each with the
- * publication it comes from exactly as recorded in the design notes (../shared/FIELD-VALUES.md), and whether the
+ * publication it comes from exactly as recorded in docs/field-values.md (in this repository), and whether the
  * number was read in that publication ('seen'), is from memory and must be checked before it is
  * shown as published ('recalled, to verify'), or is a rule of thumb ('common practice').
  *
@@ -13,7 +13,7 @@
 export type Provenance = 'seen' | 'recalled, to verify' | 'common practice';
 
 export interface Sourced {
-  /** the publication, as named in the shared field values */
+  /** the publication, as named in docs/field-values.md */
   readonly source: string;
   readonly provenance: Provenance;
 }

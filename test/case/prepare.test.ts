@@ -271,7 +271,7 @@ describe('warnings', () => {
     const c = base();
     c.site.receptors[0].pumping = true;
     c.contaminant.presetId = 'vinyl-chloride';
-    c.contaminant.sorption = { mode: 'koc', koc: { value: 18.6, unit: 'L/kg' } }; // recalled in the shared field values
+    c.contaminant.sorption = { mode: 'koc', koc: { value: 18.6, unit: 'L/kg' } }; // recalled in docs/field-values.md
     c.aquifer.hydraulicConductivity = { value: 5000, unit: 'K:m/d' }; // above Bouwer's 1978 gravel range (≤ 1000 m/d)
     const w = prepareCase(c).warnings;
     const byCode = Object.fromEntries(w.map((x) => [x.code, x]));

@@ -1,5 +1,5 @@
 // The report's inputs table names each value's source. Expected sources are the published values
-// in the design notes (../shared/FIELD-VALUES.md) as carried by src/case/presets.ts: benzene Koc 61.7 L/kg
+// in docs/field-values.md as carried by src/case/presets.ts: benzene Koc 61.7 L/kg
 // (US EPA 1996 Soil Screening Guidance, seen), benzene limit 0.005 mg/L (US EPA MCL, seen);
 // bulk density 2.65 (1 − n) is common practice.
 import { describe, expect, it } from 'vitest';

@@ -13,10 +13,10 @@
  * the tolerance written beside each.
  */
 import { describe, expect, it } from 'vitest';
-import { ogataBanks } from '../../src/core/index';
-import { erfcD, exactDecimal, makeDecimal } from '../../scripts/reference/decimal-special.mjs';
-import { DBL_MIN, EPS, MismatchLog, Prng, expectWithin } from './helpers/check';
-import { ogataBanksReference, type ObInput } from './reference/ogata-banks-decimal';
+import { ogataBanks } from '../../../src/core/index';
+import { erfcD, exactDecimal, makeDecimal } from '../../../scripts/reference/decimal-special.mjs';
+import { DBL_MIN, EPS, MismatchLog, Prng, expectWithin } from '../helpers/check';
+import { ogataBanksReference, type ObInput } from '../reference/ogata-banks-decimal';
 
 const K = 16;
 

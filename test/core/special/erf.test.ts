@@ -23,8 +23,8 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import stdlibErfc from '@stdlib/math-base-special-erfc';
 import stdlibErfcx from '@stdlib/math-base-special-erfcx';
-import { erf, erfc, erfcx } from '../../src/core/special/erf';
-import { EPS, MismatchLog, Prng, relTol } from './helpers/check';
+import { erf, erfc, erfcx } from '../../../src/core/special/erf';
+import { EPS, MismatchLog, Prng, relTol } from '../helpers/check';
 
 interface FixtureCase {
   x: number;
@@ -35,7 +35,7 @@ interface Fixtures {
   functions: Record<'erf' | 'erfc' | 'erfcx', Record<string, FixtureCase[]>>;
 }
 
-const fixtures: Fixtures = JSON.parse(readFileSync(new URL('../fixtures/erf.json', import.meta.url), 'utf8'));
+const fixtures: Fixtures = JSON.parse(readFileSync(new URL('../../fixtures/erf.json', import.meta.url), 'utf8'));
 const K_DECIMAL = 4;
 const K_STDLIB = 8;
 
