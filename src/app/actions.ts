@@ -92,6 +92,24 @@ export async function duplicateAsVariant(id: string): Promise<void> {
   }
 }
 
+/** Store and open a what-if variant built elsewhere (e.g. fitted to monitoring data); the parent is unchanged. */
+export async function openVariant(v: Case): Promise<void> {
+  const { store, autosaver } = session;
+  if (!store || !autosaver) {
+    replaceCase(v);
+    return;
+  }
+  await autosaver.flush();
+  try {
+    const copy = await store.saveAsNew(v, v.name);
+    show(copy.case, copy.record.revision);
+    libraryChanged();
+    notify({ tone: 'info', text: `Opened “${copy.case.name}”, a what-if variant. The original is unchanged.`, timeoutMs: 6000 });
+  } catch (e) {
+    notify({ tone: 'error', text: `Could not store the variant: ${message(e)}` });
+  }
+}
+
 export async function deleteWithUndo(id: string): Promise<void> {
   const { store, autosaver } = need();
   const wasOpen = id === currentCase.peek().id;

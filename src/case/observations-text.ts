@@ -8,6 +8,7 @@ import { POINT_RATE_CAUTION } from '../core/trends/index';
 import type { Case } from './schema';
 import type { ObservationSummary } from './observations';
 import { resultText } from './monitoring';
+import { FIT_LABELS, type FitResult } from './fit';
 
 const YEAR = 365.25;
 
@@ -85,3 +86,19 @@ export function observationLines(s: ObservationSummary): string[] {
   );
   return lines;
 }
+
+/** The fit as sentences (command-line table and the app's monitoring panel). */
+export function fitLines(f: FitResult): string[] {
+  const unit: Record<string, string> = { sourceConcentration: 'mg/L', halfLife: 'd', longitudinalDispersivity: 'm', flowDirection: '° from north' };
+  const lines = f.values.map((v) => {
+    const iv = v.interval ? `, ${Math.round(f.confidence * 100)} % interval ${sig(v.interval[0])} to ${sig(v.interval[1])}` : ', no interval';
+    return `${FIT_LABELS[v.parameter]}: ${sig(v.value)} ${unit[v.parameter]} (case: ${sig(v.start)}${iv})`;
+  });
+  lines.push(
+    `Fitted to ${f.detected} detected results and ${f.nonDetects} below the reporting limit (least squares on ln concentration; non-detects as censored values). Typical misfit ×${Math.exp(f.rmsLn).toFixed(2)} (the case's inputs: ×${Math.exp(f.startRmsLn).toFixed(2)}).`,
+  );
+  lines.push(...f.warnings);
+  lines.push('Intervals are linearised and carry the scatter of the data only; fitted values describe this site\'s data under this model and become a what-if variant only when adopted.');
+  return lines;
+}
+

@@ -8,9 +8,9 @@ import type { PreparedCase } from '../case/prepare';
 import type { Cell } from '../case/export-csv';
 import { analyseObservations, type ObservationSummary } from '../case/observations';
 import { OBSERVATION_TABLE_HEADER, observationLines, observationTableRows } from '../case/observations-text';
+export { fitLines } from '../case/observations-text';
 import { resultMgL } from '../case/monitoring';
-import { FIT_LABELS, type FitResult } from '../case/fit';
-import { sig } from '../case/observations-text';
+import type { FitResult } from '../case/fit';
 
 export function observationSummary(c: Case, prepared: PreparedCase): ObservationSummary | null {
   return c.monitoring.results.length === 0 ? null : analyseObservations(c, prepared);
@@ -108,21 +108,6 @@ export function observationsCsvRows(s: ObservationSummary, width: number): Cell[
     rows.push(padRow(['biodegradation rate', 'per day (Buscheck & Alcantar)', s.biodegradationRate.rate, s.biodegradationRate.interval?.[0] ?? null, s.biodegradationRate.interval?.[1] ?? null]));
   rows.push(padRow(['model against measurements', s.comparison.words]));
   return rows;
-}
-
-/** The fit as sentences (table format). */
-export function fitLines(f: FitResult): string[] {
-  const unit: Record<string, string> = { sourceConcentration: 'mg/L', halfLife: 'd', longitudinalDispersivity: 'm', flowDirection: '° from north' };
-  const lines = f.values.map((v) => {
-    const iv = v.interval ? `, ${Math.round(f.confidence * 100)} % interval ${sig(v.interval[0])} to ${sig(v.interval[1])}` : ', no interval';
-    return `${FIT_LABELS[v.parameter]}: ${sig(v.value)} ${unit[v.parameter]} (case: ${sig(v.start)}${iv})`;
-  });
-  lines.push(
-    `Fitted to ${f.detected} detected results and ${f.nonDetects} below the reporting limit (least squares on ln concentration; non-detects as censored values). Typical misfit ×${Math.exp(f.rmsLn).toFixed(2)} (the case's inputs: ×${Math.exp(f.startRmsLn).toFixed(2)}).`,
-  );
-  lines.push(...f.warnings);
-  lines.push('Intervals are linearised and carry the scatter of the data only; fitted values describe this site\'s data under this model and become a what-if variant only when adopted (--variant).');
-  return lines;
 }
 
 export function fitJson(f: FitResult) {

@@ -17,6 +17,7 @@ import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
 import { UncertaintyPanel } from './panels/UncertaintyPanel';
 import { lazyPart } from './lazy';
+import { MonitoringPanel } from './panels/MonitoringPanel';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
 import { openDemoCase } from '../app/actions';
@@ -97,6 +98,7 @@ const PANELS: [string, () => preact.JSX.Element | null][] = [
   ['The receptors', ReceptorsPanel],
   ['The results', ResultsPanel],
   ['How sure it is', UncertaintyPanel],
+  ['What was measured', MonitoringPanel],
 ];
 
 /** Why no map can be framed on the case on screen (in words), or null. */

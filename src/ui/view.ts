@@ -13,7 +13,7 @@ export const selectedId = signal<string | null>(null);
 export const playTime = signal<number | null>(null);
 /** 'ok' tiles load; 'failed' none could load (offline, no signal) so the site grid shows; 'off' no tile URL */
 export const tileState = signal<'loading' | 'ok' | 'failed' | 'off'>('loading');
-export type SectionId = 'release' | 'flow' | 'aquifer' | 'risk' | 'results' | 'uncertainty';
+export type SectionId = 'release' | 'flow' | 'aquifer' | 'risk' | 'results' | 'uncertainty' | 'monitoring';
 /** which panel sections are open (several may be) */
 export const openSections = signal<Set<SectionId>>(new Set<SectionId>(['release', 'results']));
 

@@ -4,33 +4,12 @@
 // moderate findings are written to test-artifacts/axe-*.json to be read.
 import { describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import type { Page } from 'playwright-core';
 import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
 import { openDemo, openFiles, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+import { axe, type Finding } from './axe-helpers';
 
-const require = createRequire(import.meta.url);
-const axeSource: string = require('axe-core').source;
 const getBrowser = useBrowser();
 const PHONE = { width: 390, height: 844 };
-
-interface Finding {
-  id: string;
-  impact: string | null;
-  help: string;
-  nodes: { target: string[]; failureSummary?: string }[];
-}
-
-/** axe-core's findings on the page as it is now (Runtime.evaluate, so the app's CSP does not apply). */
-async function axe(page: Page): Promise<Finding[]> {
-  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(axeSource);
-  return page.evaluate(async () => {
-    const r = await (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Finding[] }> } }).axe.run(document, {
-      resultTypes: ['violations'],
-    });
-    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.map((n) => ({ target: n.target, failureSummary: n.failureSummary })) }));
-  });
-}
 
 const serious = (fs: Finding[]) => fs.filter((f) => f.impact === 'serious' || f.impact === 'critical');
 

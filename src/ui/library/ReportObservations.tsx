@@ -18,27 +18,7 @@ export function ReportObservations({ c, prepared }: { c: Case; prepared: Prepare
       {rows.length === 0 ? (
         <p>No results of {s.analyte} at the monitoring wells.</p>
       ) : (
-        <table class="dg-report-table">
-          <thead>
-            <tr>
-              {OBSERVATION_TABLE_HEADER.map((h) => (
-                <th scope="col" key={h}>
-                  {h}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r[0]}>
-                <th scope="row">{r[0]}</th>
-                {r.slice(1).map((cell, i) => (
-                  <td key={i}>{cell}</td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <WellTrendTable rows={rows} class="dg-report-table" />
       )}
       {observationLines(s).map((line, i) => (
         <p class="dg-report-note" key={i}>
@@ -46,5 +26,32 @@ export function ReportObservations({ c, prepared }: { c: Case; prepared: Prepare
         </p>
       ))}
     </section>
+  );
+}
+
+/** The per-well table (header from the shared wording); used by the report and the app's panel. */
+export function WellTrendTable({ rows, class: cls }: { rows: string[][]; class: string }) {
+  return (
+    <table class={cls}>
+      <thead>
+        <tr>
+          {OBSERVATION_TABLE_HEADER.map((h) => (
+            <th scope="col" key={h}>
+              {h}
+            </th>
+          ))}
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={r[0]}>
+            <th scope="row">{r[0]}</th>
+            {r.slice(1).map((cell, i) => (
+              <td key={i}>{cell}</td>
+            ))}
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }

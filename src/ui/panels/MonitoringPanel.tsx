@@ -1,0 +1,248 @@
+/**
+ * The site's monitoring data: release date, CSV import with a column-mapping step, per-well trend
+ * verdicts and rates, how far the model is from the measurements, and a fit whose values can be
+ * adopted as a what-if variant (never into the open case). The figures and their wording come from
+ * src/case (observations.ts, observations-text.ts, fit.ts), the same as the report and the CLI.
+ */
+import { useState } from 'preact/hooks';
+import { Section } from './Section';
+import { currentCase, updateCase } from '../state';
+import { analyseObservations } from '../../case/observations';
+import { fitLines, observationLines, observationTableRows } from '../../case/observations-text';
+import {
+  COLUMN_ROLES,
+  ROLE_LABELS,
+  applyImport,
+  guessMapping,
+  importObservations,
+  readObservationTable,
+  type ColumnMapping,
+  type DateOrder,
+  type ObservationTable,
+} from '../../case/observations-import';
+import { FIT_LABELS, FIT_PARAMETERS, adoptFitAsVariant, fitCase, type FitParameter, type FitResult } from '../../case/fit';
+import { openVariant } from '../../app/actions';
+import { newId } from '../../case/defaults';
+import { WellTrendTable } from '../library/ReportObservations';
+
+export function MonitoringPanel() {
+  const c = currentCase.value;
+  const m = c.monitoring;
+  const summary = m.results.length ? `${m.wells.length} monitoring wells, ${m.results.length} results` : 'no monitoring data yet';
+  return (
+    <Section id="monitoring" title="What was measured?" summary={summary}>
+      <label class="dg-field">
+        <span>Release began (the model's time zero)</span>
+        <input
+          type="date"
+          value={m.releaseDate ?? ''}
+          onChange={(e) => {
+            const v = (e.target as HTMLInputElement).value;
+            updateCase((d) => void (d.monitoring.releaseDate = /^\d{4}-\d{2}-\d{2}$/.test(v) ? v : null));
+          }}
+        />
+      </label>
+      <ImportStep />
+      {m.results.length > 0 && <Summary />}
+      {m.results.length > 0 && <FitStep />}
+    </Section>
+  );
+}
+
+function ImportStep() {
+  const [table, setTable] = useState<ObservationTable | null>(null);
+  const [mapping, setMapping] = useState<ColumnMapping | null>(null);
+  const [order, setOrder] = useState<DateOrder>('auto');
+  const [message, setMessage] = useState<string | null>(null);
+  const c = currentCase.value;
+  const onFile = async (input: HTMLInputElement) => {
+    const f = input.files?.[0];
+    input.value = '';
+    if (!f) return;
+    if (f.size > 5 * 1024 * 1024) {
+      setMessage(`The file is ${(f.size / 1024 / 1024).toFixed(1)} MB, larger than the 5.0 MB accepted for one import; split it.`);
+      return;
+    }
+    const t = readObservationTable(await f.text());
+    if (!t.ok) {
+      setMessage(`Not imported: ${t.problem}.`);
+      setTable(null);
+      return;
+    }
+    setMessage(null);
+    setTable(t.table);
+    setMapping(guessMapping(t.table.header));
+  };
+  const preview = table && mapping ? importObservations(table, mapping, c.monitoring, { dateOrder: order }) : null;
+  return (
+    <div class="dg-monitoring-import">
+      <label class="dg-field">
+        <span>Import sampling results (CSV)</span>
+        <input type="file" accept=".csv,text/csv,text/plain" data-testid="observations-file" onChange={(e) => onFile(e.target as HTMLInputElement)} />
+      </label>
+      {message && (
+        <p class="dg-field-error" role="alert">
+          {message}
+        </p>
+      )}
+      {table && mapping && preview && (
+        <fieldset class="dg-mapping" data-testid="observations-mapping">
+          <legend>Which column holds what</legend>
+          {COLUMN_ROLES.map((role) => (
+            <label class="dg-field" key={role}>
+              <span>{ROLE_LABELS[role]}</span>
+              <select
+                value={mapping[role] === null ? '' : String(mapping[role])}
+                onChange={(e) => {
+                  const v = (e.target as HTMLSelectElement).value;
+                  setMapping({ ...mapping, [role]: v === '' ? null : Number(v) });
+                }}
+              >
+                <option value="">— none —</option>
+                {table.header.map((h, i) => (
+                  <option value={String(i)} key={i}>
+                    {h || `column ${i + 1}`}
+                  </option>
+                ))}
+              </select>
+            </label>
+          ))}
+          <label class="dg-field">
+            <span>Dates like 03/04/2024</span>
+            <select value={order} onChange={(e) => setOrder((e.target as HTMLSelectElement).value as DateOrder)}>
+              <option value="auto">as the file shows</option>
+              <option value="dmy">day first</option>
+              <option value="mdy">month first</option>
+            </select>
+          </label>
+          {preview.fatal ? (
+            <p class="dg-field-error" role="alert">
+              {preview.fatal}
+            </p>
+          ) : (
+            <p class="dg-note" data-testid="observations-preview">
+              {preview.results.length} results ready{preview.newWells.length ? `, ${preview.newWells.length} new wells (place them on the map by their coordinates or edit later)` : ''}
+              {preview.problems.length ? `; ${preview.problems.length} rows will be skipped:` : '.'}
+            </p>
+          )}
+          {preview.problems.length > 0 && (
+            <ul class="dg-import-problems">
+              {preview.problems.slice(0, 20).map((p) => (
+                <li key={p.line}>
+                  line {p.line}: {p.message}
+                </li>
+              ))}
+              {preview.problems.length > 20 && <li>… and {preview.problems.length - 20} more</li>}
+            </ul>
+          )}
+          {preview.notes.map((n) => (
+            <p class="dg-note" key={n}>
+              {n}
+            </p>
+          ))}
+          <div class="dg-btn-row">
+            <button
+              type="button"
+              class="dg-on"
+              data-testid="observations-accept"
+              disabled={!!preview.fatal || preview.results.length === 0}
+              onClick={() => {
+                updateCase((d) => void (d.monitoring = applyImport(d.monitoring, preview)));
+                setTable(null);
+                setMessage(`Imported ${preview.results.length} results.`);
+              }}
+            >
+              Import {preview.results.length} results
+            </button>
+            <button type="button"  onClick={() => setTable(null)}>
+              Cancel
+            </button>
+          </div>
+        </fieldset>
+      )}
+    </div>
+  );
+}
+
+function Summary() {
+  const c = currentCase.value;
+  const s = analyseObservations(c);
+  const rows = observationTableRows(c, s);
+  return (
+    <div class="dg-monitoring-summary" data-testid="observations-summary">
+      <div class="dg-table-scroll" tabIndex={0} role="region" aria-label="Trend and rates per monitoring well">
+        <WellTrendTable rows={rows} class="dg-table" />
+      </div>
+      {observationLines(s).map((l, i) => (
+        <p class="dg-note" key={i}>
+          {l}
+        </p>
+      ))}
+    </div>
+  );
+}
+
+function FitStep() {
+  const c = currentCase.value;
+  const [chosen, setChosen] = useState<FitParameter[]>(['sourceConcentration', 'halfLife']);
+  const [fit, setFit] = useState<{ result: FitResult; caseStamp: string } | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const current = fit && fit.caseStamp === c.modified ? fit.result : null;
+  return (
+    <fieldset class="dg-fit" data-testid="fit">
+      <legend>Fit the model to the measurements</legend>
+      {FIT_PARAMETERS.map((p) => (
+        <label class="dg-check" key={p}>
+          <input
+            type="checkbox"
+            checked={chosen.includes(p)}
+            onChange={(e) => setChosen((e.target as HTMLInputElement).checked ? [...chosen, p] : chosen.filter((x) => x !== p))}
+          />{' '}
+          {FIT_LABELS[p]}
+        </label>
+      ))}
+      <div class="dg-btn-row">
+        <button
+          type="button"
+          
+          data-testid="fit-run"
+          disabled={chosen.length === 0}
+          onClick={() => {
+            try {
+              setFit({ result: fitCase(c, chosen), caseStamp: c.modified });
+              setError(null);
+            } catch (e) {
+              setError(e instanceof Error ? e.message : String(e));
+            }
+          }}
+        >
+          Fit
+        </button>
+        {current && (
+          <button
+            type="button"
+            class="dg-on"
+            data-testid="fit-adopt"
+            onClick={() => void openVariant(adoptFitAsVariant(c, current, newId(), new Date().toISOString()))}
+          >
+            Adopt as a what-if variant
+          </button>
+        )}
+      </div>
+      {error && (
+        <p class="dg-field-error" role="alert">
+          {error}
+        </p>
+      )}
+      {current && (
+        <div data-testid="fit-result">
+          {fitLines(current).map((l, i) => (
+            <p class="dg-note" key={i}>
+              {l}
+            </p>
+          ))}
+        </div>
+      )}
+    </fieldset>
+  );
+}
