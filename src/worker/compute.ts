@@ -37,7 +37,7 @@ export function evaluateCase(c: Case): Evaluation {
       curveAlternate: otherApplies ? Array.from(breakthroughCurve(p.model, receptor, curveTimes, other)) : null,
     };
   });
-  const profile = centrelineProfile(p, s.plumeLength.steady, otherApplies ? other : null);
+  const profile = centrelineProfile(p, s.plumeLength.atViewTime, otherApplies ? other : null);
   const t2 = now();
   const dr = p.derived.dispersivityRelation;
   return {
@@ -75,10 +75,17 @@ export function evaluateCase(c: Case): Evaluation {
   };
 }
 
-/** Centreline (y = 0, map depth) concentrations at the view time out past the plume and receptors. */
-function centrelineProfile(p: PreparedCase, steadyLength: number | null, other: 'domenico' | 'exact' | null): Evaluation['profile'] {
-  const far = Math.max(...p.receptors.map((r) => r.x).filter((x) => x > 0), 0);
-  const x1 = Math.max(1.2 * (steadyLength ?? 0), 1.1 * far, 10 * p.model.width, 10);
+/**
+ * Centreline (y = 0, map depth) concentrations at the view time, out to half as far again as the
+ * plume at the limit at that time, and to the receptors within four times that distance (a
+ * receptor farther out would squeeze the plume against the axis; the chart lists it at its end).
+ * With no plume above the limit: out to the farthest receptor, or ten source widths.
+ */
+function centrelineProfile(p: PreparedCase, viewLength: number | null, other: 'domenico' | 'exact' | null): Evaluation['profile'] {
+  const xs0 = p.receptors.map((r) => r.x).filter((x) => x > 0);
+  const near = viewLength === null ? xs0 : xs0.filter((x) => x <= 4 * viewLength);
+  const far = Math.max(...near, 0);
+  const x1 = viewLength !== null ? Math.max(1.5 * viewLength, 1.1 * far, 10) : Math.max(1.1 * far, 10 * p.model.width, 10);
   const n = 120;
   const xs: number[] = [];
   for (let k = 1; k <= n; k++) xs.push((x1 * k) / n);

@@ -57,8 +57,12 @@ function Frame(props: {
         </text>
         <text transform={`translate(13 ${(M.t + H - M.b) / 2}) rotate(-90)`} text-anchor="middle" class="dg-chart-label">
           {props.yLabel}
-          {sy.log ? ' (log scale)' : ''}
         </text>
+        {sy.log && (
+          <text x={M.l + 4} y={M.t + 11} class="dg-chart-tick" data-testid="log-scale-note">
+            log scale
+          </text>
+        )}
         {props.children}
       </svg>
       {props.legend && (
@@ -149,6 +153,46 @@ export function BreakthroughChart(props: {
   );
 }
 
+/** Approximate width of a receptor label, chart units (10 px DejaVu Sans averages under 6.2 px a character). */
+const labelWidth = (s: string) => 6.2 * s.length + 4;
+const LABEL_ROWS = 3;
+
+/**
+ * Receptor labels along the profile's distance axis, in rows so that none overprints another:
+ * each goes into the lowest row where it clears the labels already there (left to right), cut
+ * short when no row has room; receptors past the axis are listed at its right end with their
+ * distance (→ name, 866 m).
+ */
+export function receptorMarks(rs: { name: string; x: number }[], xMax: number, unit: string) {
+  const sx = linearScale(0, xMax, M.l, W - M.r);
+  const rowEnd: number[] = Array(LABEL_ROWS).fill(-Infinity);
+  const out: { name: string; x: number; label: string; row: number; anchor: 'start' | 'middle' | 'end'; beyond: boolean }[] = [];
+  let beyondRow = 0;
+  for (const r of [...rs].filter((r) => r.x > 0).sort((a, b) => a.x - b.x)) {
+    if (r.x > xMax) {
+      if (beyondRow < LABEL_ROWS) out.push({ ...r, label: `→ ${r.name}, ${Number(r.x.toPrecision(3))} ${UNITS[unit]?.label ?? unit}`, row: LABEL_ROWS - 1 - beyondRow++, anchor: 'end', beyond: true });
+      continue;
+    }
+    const px = sx(r.x);
+    let label = r.name;
+    let row = rowEnd.findIndex((end) => end + 4 <= px - labelWidth(label) / 2);
+    if (row < 0) {
+      // no row with room for the whole name: the row that ends first, the name cut to fit
+      row = rowEnd.indexOf(Math.min(...rowEnd));
+      const room = Math.max(0, 2 * (px - rowEnd[row] - 4));
+      const chars = Math.max(1, Math.floor((room - 4) / 6.2) - 1);
+      label = chars < r.name.length ? `${r.name.slice(0, chars)}…` : r.name;
+    }
+    const w = labelWidth(label);
+    // keep the label inside the plot: anchored at its start near the left edge, at its end near the right
+    const anchor = px - w / 2 < M.l ? 'start' : px + w / 2 > W - M.r ? 'end' : 'middle';
+    const right = anchor === 'start' ? px + w : anchor === 'end' ? px : px + w / 2;
+    rowEnd[row] = right;
+    out.push({ ...r, label, row, anchor, beyond: false });
+  }
+  return out;
+}
+
 export function ProfileChart(props: {
   xs: number[];
   values: number[];
@@ -184,16 +228,20 @@ export function ProfileChart(props: {
       <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
       {alt && <path d={pathOf(xs, alt, sx, sy)} class="dg-chart-alt" />}
       <path d={pathOf(xs, vs, sx, sy)} class="dg-chart-line" />
-      {props.receptors
-        .filter((r) => r.x > 0 && toX(r.x) <= sx.domain[1])
-        .map((r) => (
+      {receptorMarks(props.receptors.map((r) => ({ name: r.name, x: toX(r.x) })), sx.domain[1], lu).map((r) =>
+        r.beyond ? (
+          <text class="dg-chart-receptor dg-chart-beyond" key={r.name + r.x} x={W - M.r - 2} y={H - M.b - 13 - r.row * 12} text-anchor="end">
+            {r.label}
+          </text>
+        ) : (
           <g class="dg-chart-receptor" key={r.name + r.x}>
-            <line x1={sx(toX(r.x))} x2={sx(toX(r.x))} y1={H - M.b} y2={H - M.b - 10} />
-            <text x={sx(toX(r.x))} y={H - M.b - 13} text-anchor="middle">
-              {r.name}
+            <line x1={sx(r.x)} x2={sx(r.x)} y1={H - M.b} y2={H - M.b - 10} />
+            <text x={sx(r.x)} y={H - M.b - 13 - r.row * 12} text-anchor={r.anchor}>
+              {r.label}
             </text>
           </g>
-        ))}
+        ),
+      )}
     </Frame>
   );
 }
