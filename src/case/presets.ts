@@ -163,7 +163,8 @@ export function provenanceLabel(p: Sourced): string {
     case 'seen':
       return '';
     case 'recalled, to verify':
-      return 'recalled from memory, to verify against the publication';
+      // not confirmed against the publication in this project (issue 13 item 12): say how it is known
+      return 'as commonly cited, attributed to this source; not confirmed against the publication';
     case 'common practice':
       return 'common practice (rule of thumb)';
   }

@@ -276,7 +276,7 @@ describe('warnings', () => {
     const w = prepareCase(c).warnings;
     const byCode = Object.fromEntries(w.map((x) => [x.code, x]));
     expect(byCode['pumping-not-represented'].field).toBe('site.receptors[0].pumping');
-    expect(byCode['preset-value-unverified'].message).toMatch(/recalled from memory, to verify/);
+    expect(byCode['preset-value-unverified'].message).toMatch(/as commonly cited/);
     expect(byCode['outside-usual-range'].message).toMatch(/aquifer\.hydraulicConductivity = 5000 m\/d .*Bouwer 1978/);
   });
 

@@ -90,10 +90,10 @@ describe('contaminant presets', () => {
       for (const v of [p.koc, p.kd, p.halfLife, ...p.limits]) {
         if (!v) continue;
         if (v.provenance === 'seen') expect(provenanceLabel(v)).toBe('');
-        else expect(provenanceLabel(v)).toMatch(v.provenance === 'common practice' ? /common practice/ : /recalled from memory, to verify/);
+        else expect(provenanceLabel(v)).toMatch(v.provenance === 'common practice' ? /common practice/ : /as commonly cited/);
       }
     }
-    expect(citeValue(contaminantPreset('mtbe')!.koc!, 'L/kg')).toMatch(/^11 L\/kg \(US EPA 1996.*; recalled from memory, to verify against the publication\)$/);
+    expect(citeValue(contaminantPreset('mtbe')!.koc!, 'L/kg')).toMatch(/^11 L\/kg \(US EPA 1996.*; as commonly cited, attributed to this source; not confirmed against the publication\)$/);
   });
 });
 

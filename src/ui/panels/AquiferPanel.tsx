@@ -154,14 +154,14 @@ export function AquiferPanel() {
               field="aquifer.dispersivity.transverseRatio"
               value={disp.transverseRatio}
               onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.transverseRatio = v))}
-              help="0.1 from Gelhar's high-reliability data; ASTM E1739 uses 1/3 (recalled, to verify)."
+              help="0.1 from Gelhar's high-reliability data; ASTM E1739 uses 1/3, as commonly cited."
             />
             <NumberField
               label="αV / αL"
               field="aquifer.dispersivity.verticalRatio"
               value={disp.verticalRatio}
               onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.verticalRatio = v))}
-              help="Vertical is typically ~10× smaller than horizontal transverse (Gelhar et al. 1992); ASTM E1739 uses 1/20 (recalled)."
+              help="Vertical is typically ~10× smaller than horizontal transverse (Gelhar et al. 1992); ASTM E1739 uses 1/20, as commonly cited."
             />
             {r && dv && (
               <p class="dg-derived" data-testid="dispersivity-derived">

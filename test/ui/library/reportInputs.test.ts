@@ -27,7 +27,7 @@ describe('inputRows', () => {
     c.contaminant.sorption.koc.value = 80;
     const r = inputRows(c, prepareCase(c));
     expect(r.find((x) => x.input.startsWith('Koc'))?.source).toBe('entered for this site');
-    expect(r.find((x) => x.input.startsWith('Biodegradation'))?.source).toMatch(/recalled from memory, to verify/);
+    expect(r.find((x) => x.input.startsWith('Biodegradation'))?.source).toMatch(/as commonly cited/);
     if (c.aquifer.bulkDensity === null) expect(r.find((x) => x.input.startsWith('Bulk density'))?.source).toMatch(/common practice/);
   });
 
