@@ -89,7 +89,7 @@ export function domenico(p: PatchInput): number {
   return clamp01(relativeAt(m, 'domenico', requireFinite('x', p.x), requireFinite('y', p.y), pointDepth(p.z), requireTime('t', p.t)));
 }
 
-/** Exact rectangular-source C/C0 (see solutions/patchSource.ts); relative accuracy 1e-6 by default. */
+/** Exact rectangular-source C/C0 (see solutions/patchSource.ts); by default within 1e-6 relative (+1e-18) of the true value, so 1e-6 relative for every value ≥ 1e-12. */
 export function patchSourceExact(p: PatchInput, opts?: ExactOptions): number {
   const m = contractModel(p, 'exact');
   return clamp01(relativeAt(m, 'exact', requireFinite('x', p.x), requireFinite('y', p.y), pointDepth(p.z), requireTime('t', p.t), opts));

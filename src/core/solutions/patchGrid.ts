@@ -20,15 +20,15 @@
  *
  * Window (truncation, bounded): in the Gaussian variable w = (x − uτ)/(2√(Dxτ)) the measure
  * g_x dτ is (2/√π)e^{−w²}·x/(x + uτ) dw ≤ (2/√π)e^{−w²} dw and 0 ≤ Y, Z, e^{−γ(t−τ)} ≤ 1, so
- * leaving out |w| > W_WIN = 5.5 loses at most erfc(5.5) ≈ 7.4e-15 (×2, both ends) of C/C0 per column
+ * leaving out |w| > W_WIN = 6.5 loses at most erfc(6.5) ≈ 3.8e-20 (×2, both ends) of C/C0 per column
  * (before the column's scale). At a finite horizon the top of the s-axis is cut where the remaining
- * time t·exp(−e^s) carries at most (2/√π)·(x + ut)/(4√(Dx t))·exp(−e^s) ≤ 1e-18; both bounds are
+ * time t·exp(−e^s) carries at most (2/√π)·(x + ut)/(4√(Dx t))·exp(−e^s) ≤ 3e-20; both bounds are
  * added to the column's error estimate.
  *
  * Accuracy (stated): nested trapezoidal sums, spacing halved per column (each level adds only the
  * new midpoints) from a start of at least MIN_NODES nodes in the window, until
  *   max over y |T_h − T_2h| ≤ relTol · (largest C/C0 in the column) + absTol
- * (relTol = 1e-6, absTol = 1e-13 by default, as for the point method). For a geometrically
+ * (relTol = 1e-6, absTol = 1e-18 by default, EXACT_TOLERANCES, as for the point method). For a geometrically
  * convergent rule the error of T_h is far below |T_h − T_2h|, which is therefore a conservative
  * estimate. The spacing never goes below the grid's finest level, set from the narrowest
  * first-passage peak: in s it has a standard deviation of about √(2Dx/(u·x)) (the inverse
@@ -39,8 +39,8 @@ import { lateralLattice } from '../lattice';
 import { exactColumn, exactTolerances, tauOf, type ExactOptions, type PatchParams } from './patchSource';
 import { uMinusV } from './oneD';
 
-const W_WIN = 5.5;
-const ERFC_W_WIN = 7.357847917974398e-15; // erfc(5.5)
+const W_WIN = 6.5;
+const ERFC_W_WIN = 3.8421483271206475e-20; // erfc(6.5)
 const MIN_NODES = 16;
 const INV_TWO_SQRT_PI = 0.28209479177387814; // 1/(2√π)
 const TWO_OVER_SQRT_PI = 1.1283791670955126;
@@ -127,7 +127,7 @@ function columnWindows(xs: ArrayLike<number>, t: number, p: PatchParams, logScal
       tauHi = t;
       // the remaining time t·exp(−e^s) carries ≤ coef·exp(−e^s): its w-length times the weight's peak
       const coef = (TWO_OVER_SQRT_PI * (x + u * t)) / (4 * sqrtDx * Math.sqrt(t));
-      const E = Math.max(40, Math.log(Math.max(coef, 1)) + 41.5);
+      const E = Math.max(45, Math.log(Math.max(coef, 1)) + 45);
       sHi = Math.log(E);
       trunc += coef * Math.exp(-E);
     } else {

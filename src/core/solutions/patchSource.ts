@@ -29,8 +29,12 @@
  * fixed rule; the tests check this engine against independent quadratures and particle walks.)
  *
  * Stated accuracy: error estimate ≤ relTol × (largest C/C0 in the column) + absTol, with
- * relTol = 1e-6 and absTol = 1e-13 by default. Cells far below the column's largest value carry
- * the same absolute, not relative, accuracy.
+ * relTol = 1e-6 and absTol = 1e-18 by default (EXACT_TOLERANCES). A point value is a column of one,
+ * so it is within 1e-6 of itself (+1e-18): 1e-6 relative for every value ≥ 1e-12, the advancing
+ * front included (test/core/exact-front.test.ts checks 40-digit mpmath values there). Cells of a
+ * longer column far below its largest value carry the same absolute, not relative, accuracy.
+ * (absTol was 1e-13 until issue 12: values below 1e-7 then carried only 1e-13 absolute, up to
+ * 1e-2 relative at 1e-12.)
  */
 import { depthFactor, erfRatioSafe, type DepthSpan } from './spread';
 import { erfDiff } from '../special/erf';
@@ -62,7 +66,7 @@ export interface ExactOptions {
 
 /** The exact solution's default error control (the stated accuracy above), shared by the point,
  * series and grid methods: relTol, absTol in C/C0, and the per-column panel budget. */
-export const EXACT_TOLERANCES = Object.freeze({ relTol: 1e-6, absTol: 1e-13, maxPanels: 500 });
+export const EXACT_TOLERANCES = Object.freeze({ relTol: 1e-6, absTol: 1e-18, maxPanels: 500 });
 
 /** opts with every tolerance filled in from EXACT_TOLERANCES. */
 export function exactTolerances(opts: ExactOptions = {}): Required<ExactOptions> {
