@@ -6,8 +6,10 @@
 
 export const SCREENING_CAUTION =
   'Screening-level estimates only. These figures assume a homogeneous aquifer, uniform steady ' +
-  'groundwater flow and contaminant in the dissolved phase only; no pumping is represented, ' +
-  'so a pumping well may draw the plume towards it faster than shown. They are not a site ' +
+  'groundwater flow and contaminant in the dissolved phase only; the analytical figures represent ' +
+  'no pumping, so a pumping well may draw the plume towards it faster than they show (where a ' +
+  'case gives pumping rates and the saturated thickness, capture zones and particle figures ' +
+  'model the wells, under the further assumptions listed with them). They are not a site ' +
   'investigation and must not be the sole basis for a decision about a drinking-water supply. ' +
   'Local regulators and licensed hydrogeologists decide, and the limits that apply at your ' +
   'site under local law govern over any example limit shown here.';
@@ -67,6 +69,29 @@ export const ASSUMPTIONS: readonly Assumption[] = Object.freeze([
   {
     id: 'receptor',
     text: 'A receptor concentration is the average over its screen interval below the water table; a pumping well would mix in water from beyond that interval and its capture is not represented.',
+  },
+]);
+
+/**
+ * What the pumping-well figures (capture zones, source capture, travel times, particle figures)
+ * assume on top of the above; shown with those figures wherever they appear.
+ */
+export const WELL_FIELD_ASSUMPTIONS: readonly Assumption[] = Object.freeze([
+  {
+    id: 'wells-steady',
+    text: 'Pumping wells and boundaries: the flow is steady (every well has pumped at its stated rate long enough for the drawdown to settle) and two-dimensional, in a homogeneous aquifer of constant saturated thickness (confined, or unconfined with the drawdown small against the thickness).',
+  },
+  {
+    id: 'wells-penetrating',
+    text: 'Wells are fully penetrating: each draws evenly over the whole saturated thickness, so its water and the particle figures are depth averages, diluted by clean water drawn from depths the plume has not reached.',
+  },
+  {
+    id: 'wells-boundaries',
+    text: 'A stream, lake shore or barrier is idealised as a straight, infinitely long, fully penetrating line (image wells; Ferris et al. 1962): a constant-head line supplies whatever water the wells draw from it, without a clogging bed.',
+  },
+  {
+    id: 'wells-particles',
+    text: 'Particle figures carry a statistical error (given beside each) and come from a source releasing its mass flux v·C0 across the source plane, which near the source and the front differs from the held source concentration of the analytical solutions by a few per cent.',
   },
 ]);
 

@@ -139,11 +139,18 @@ export function prepareReceptors(c: Case, sf: SiteFrame, sourceEN: [number, numb
     const { x, y } = toFlow(sourceEN, planeAzimuthDeg, en);
     const zTop = readQuantity(r.screenTop, rule(`${f}.screenTop`, nonNegative, DEPTH_RANGE));
     const zBottom = readQuantity(r.screenBottom, rule(`${f}.screenBottom`, (z) => Number.isFinite(z) && z >= zTop, `a depth ≥ the screen top (${zTop} m)`));
-    if (r.pumping)
+    const modelled = r.pumping && r.pumpingRate !== null && c.aquifer.saturatedThickness != null;
+    if (r.pumping && !modelled)
       warnings.push({
         code: 'pumping-not-represented',
-        message: `${r.name || r.id} is marked as pumping, but pumping is not represented: its capture would draw the plume towards it, so arrival may be earlier and concentrations higher than shown.`,
-        field: `${f}.pumping`,
+        message: `${r.name || r.id} is marked as pumping, but ${r.pumpingRate === null ? 'its pumping rate' : "the aquifer's saturated thickness"} is not given, so pumping is not represented: its capture would draw the plume towards it, so arrival may be earlier and concentrations higher than shown.`,
+        field: r.pumpingRate === null ? `${f}.pumpingRate` : 'aquifer.saturatedThickness',
+      });
+    else if (modelled)
+      warnings.push({
+        code: 'pumping-analytical-only',
+        message: `${r.name || r.id} pumps: its capture zone, whether it captures the source, and the particle figures account for the pumping; the analytical (uniform-flow) figures for it do not, so they may show a later arrival and a different concentration than the well's water will have.`,
+        field: `${f}.pumpingRate`,
       });
     return { id: r.id, name: r.name, kind: r.kind, x, y, zTop, zBottom, en, distance: Math.hypot(en[0] - sourceEN[0], en[1] - sourceEN[1]), pumping: r.pumping };
   });

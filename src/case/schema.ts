@@ -209,8 +209,29 @@ export const uncertaintySettings = z.object({
 export type UncertaintySettings = z.infer<typeof uncertaintySettings>;
 export const DEFAULT_UNCERTAINTY: UncertaintySettings = { runs: 2000, seed: 1, inputs: {}, headFit: false };
 
+/**
+ * A straight boundary of the aquifer drawn on the map (version 3; the image-well method,
+ * src/core/flow): a stream or lake shore held at constant head, or an impermeable boundary. The
+ * line through its two points is taken as infinitely long; the aquifer is the side holding the source.
+ */
+export const boundaryLine = z.object({
+  id,
+  name,
+  kind: z.enum(['constant-head', 'no-flow']),
+  points: z.tuple([position, position]),
+});
+export type BoundaryLine = z.infer<typeof boundaryLine>;
+
 export const caseSchemaV3 = caseSchemaV2.extend({
   version: z.literal(CASE_VERSION),
+  site: caseSchemaV2.shape.site.extend({
+    /** straight aquifer boundaries (version 3; absent: none) */
+    boundaries: z.array(boundaryLine).max(4).optional(),
+  }),
+  aquifer: caseSchemaV2.shape.aquifer.extend({
+    /** saturated thickness B (version 3; absent or null: not given, so pumping wells are not modelled) */
+    saturatedThickness: quantity('length').nullable().optional(),
+  }),
   uncertainty: uncertaintySettings.default(DEFAULT_UNCERTAINTY),
   /** monitoring wells and sampling results (monitoring.ts); default: none */
   monitoring: monitoringSchema.default(DEFAULT_MONITORING),

@@ -8,6 +8,7 @@ import type { Case } from './schema';
 import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
 import { evaluateReceptor, plumeLength, type ReceptorResult, type Warning } from '../core';
 import { SCREENING_CAUTION } from './caution';
+import { prepareCaseWells, wellCaptures, type CaseWells, type WellCapture } from './wells';
 
 export interface ScreenedReceptor {
   readonly receptor: PreparedReceptor;
@@ -22,6 +23,9 @@ export interface ScreeningResult {
   readonly plumeLength: { atViewTime: number | null; steady: number | null };
   readonly warnings: Warning[];
   readonly caution: string;
+  /** the steady well field (pumping wells with rates, boundary lines) and each well's capture of the source */
+  readonly wells: CaseWells;
+  readonly captures: WellCapture[];
 }
 
 export function screenCase(c: Case): ScreeningResult {
@@ -35,7 +39,10 @@ export function screenCase(c: Case): ScreeningResult {
   });
   const steady = plumeLength(model, limit, depth, Infinity);
   const atViewTime = viewTime === Infinity ? steady : plumeLength(model, limit, depth, viewTime);
-  return { prepared, results, plumeLength: { atViewTime, steady }, warnings: dedupe(warnings), caution: SCREENING_CAUTION };
+  const wells = prepareCaseWells(c, prepared);
+  warnings.push(...wells.warnings);
+  const captures = wellCaptures(prepared, wells);
+  return { prepared, results, plumeLength: { atViewTime, steady }, warnings: dedupe(warnings), caution: SCREENING_CAUTION, wells, captures };
 }
 
 /** One warning per code and field (the model-level and receptor-level checks overlap). */

@@ -4,6 +4,7 @@
  *
  *   npm run screen -- <case.json> [--format table|json|csv] [--runs N] [--seed S]
  *                    [--observations results.csv] [--fit parameters] [--variant out.json]
+ *                    [--method analytical|particles] [--particles N]
  * A case with monitoring results adds the observation summary (model against data, trend per
  * well, attenuation rates; src/cli/observations.ts) to every format.
  *
@@ -17,7 +18,8 @@
 import { readFileSync, statSync } from 'node:fs';
 import { parseCaseFile, DEFAULT_MAX_BYTES } from '../case/io';
 import { screenCase, type ScreeningResult } from '../case/screen';
-import { ASSUMPTIONS, SCREENING_CAUTION } from '../case/caution';
+import { ASSUMPTIONS, SCREENING_CAUTION, WELL_FIELD_ASSUMPTIONS } from '../case/caution';
+import { DEFAULT_PARTICLES, runCaseParticles, type CaseParticles } from '../case/particles';
 import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
@@ -39,7 +41,8 @@ const HELP = `Downgradient screening from the command line.
 
 Usage:
   npm run screen -- <case.json> [--format table|json|csv] [--runs N] [--seed S]
-  node dist-cli/screen.mjs <case.json> [--format table|json|csv] [--runs N] [--seed S]
+                    [--method analytical|particles] [--particles N]
+  node dist-cli/screen.mjs <case.json> [same options]
 
 Reads a case file (current version 2, or the hand-written compact version 1 described in
 src/case/v1.ts), evaluates every receptor against the case's limit over its horizon and prints:
@@ -69,6 +72,17 @@ Monitoring options:
                                non-detects censored) and print the values with 95 % intervals
   --variant out.json           with --fit: write the case with the fitted values as a what-if
                                variant (new id, this case as parent); the case file is not changed
+Pumping wells and boundaries (case version 3): a pumping receptor with a rate, in an aquifer
+  with a saturated thickness, is an extraction well in steady two-dimensional flow with the
+  case's straight boundary lines (image wells). Per pumping well: whether the source lies in its
+  capture zone, and the advective travel time of the contaminant from the source (days in json
+  and csv, years in the table; null when not captured).
+
+Particles (--method particles, --particles N from 100 to 5000000, default ${DEFAULT_PARTICLES};
+  --seed S then seeds the walk, and a Monte Carlo run follows only with --runs): a random-walk
+  particle simulation in the same flow, beside the analytical figures. Per receptor: the
+  concentration at the horizon with its standard error and the first time the estimate reaches
+  the limit; for a pumping well, the concentration of the water it pumps.
 
 Formats:
   table  (default) readable text; times in years, lengths in m, concentrations in mg/L
@@ -91,10 +105,12 @@ interface Args {
   fit: FitParameter[] | null;
   variant: string | null;
   dateOrder: 'dmy' | 'mdy' | null;
+  method: 'analytical' | 'particles';
+  particles: number | null;
 }
 
 function parseArgs(argv: string[]): Args | string {
-  const a: Args = { file: null, format: 'table', help: false, runs: null, seed: null, observations: null, fit: null, variant: null, dateOrder: null };
+  const a: Args = { file: null, format: 'table', help: false, runs: null, seed: null, observations: null, fit: null, variant: null, dateOrder: null, method: 'analytical', particles: null };
   for (let i = 0; i < argv.length; i++) {
     const s = argv[i];
     if (s === '--help' || s === '-h') a.help = true;
@@ -102,8 +118,12 @@ function parseArgs(argv: string[]): Args | string {
       const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
       if (v !== 'table' && v !== 'json' && v !== 'csv') return `--format must be table, json or csv (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
       a.format = v;
-    } else if (s === '--runs' || s.startsWith('--runs=') || s === '--seed' || s.startsWith('--seed=')) {
-      const name = s.startsWith('--runs') ? 'runs' : 'seed';
+    } else if (s === '--method' || s.startsWith('--method=')) {
+      const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
+      if (v !== 'analytical' && v !== 'particles') return `--method must be analytical or particles (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
+      a.method = v;
+    } else if (s === '--runs' || s.startsWith('--runs=') || s === '--seed' || s.startsWith('--seed=') || s === '--particles' || s.startsWith('--particles=')) {
+      const name = s.startsWith('--runs') ? 'runs' : s.startsWith('--seed') ? 'seed' : 'particles';
       const v = s.includes('=') ? s.slice(s.indexOf('=') + 1) : argv[++i];
       const n = v === undefined || v.trim() === '' ? Number.NaN : Number(v);
       if (!Number.isFinite(n)) return `--${name} must be a number (got ${v === undefined ? 'nothing' : JSON.stringify(v)})`;
@@ -224,7 +244,7 @@ function uncertaintyTable(u: UncertaintyResult, limit: number): string[] {
   return L;
 }
 
-function formatTable(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null, fit: FitResult | null = null): string {
+function formatTable(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null, fit: FitResult | null = null, pt: CaseParticles | null = null): string {
   const p = s.prepared;
   const d = p.derived;
   const m = p.model;
@@ -302,6 +322,34 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
       }
     }
   }
+  if (s.captures.length) {
+    L.push('');
+    L.push(`Pumping wells (steady flow with ${s.wells.boundaries.length ? `${s.wells.boundaries.length} boundary line(s), ` : ''}saturated thickness ${sig(s.wells.thickness ?? 0)} m)`);
+    const head = ['  well', 'rate (m³/d)', 'captures the source', 'share of source width', 'travel time from source', 'J&T width far upgradient (m)'];
+    const rows = s.captures.map((w) => [
+      '  ' + (s.results[w.receptorIndex].receptor.name || w.receptorId),
+      sig(w.rate),
+      w.capturesSource ? 'YES' : 'no',
+      `${sig(100 * w.sourceShare, 3)} %`,
+      w.travelTimeFromSource === null ? '–' : `${years(w.travelTimeFromSource)} yr (water ${years(w.waterTravelTime as number)} yr)`,
+      w.singleWell ? sig(w.singleWell.widthFarUpgradient) : '–',
+    ]);
+    L.push(...pad([head, ...rows]));
+    L.push('  (travel time: advective, contaminant = water × R; J&T: Javandel & Tsang 1986 for the well alone in the regional flow)');
+  }
+  if (pt) {
+    L.push('');
+    L.push(`Particles: ${pt.particles} particles, seed ${pt.seed} (random walk; method "particles", beside the analytical figures above)`);
+    const head = ['  receptor', 'C at horizon (mg/L) ± 1 SE', 'arrival at limit', 'estimator'];
+    const rows = pt.receptors.map((x, i) => [
+      '  ' + (s.results[i].receptor.name || s.results[i].receptor.id),
+      `${conc(x.concentrationAtHorizon, p.limit)} ± ${sig(x.standardError)}`,
+      x.arrival === null ? 'not within horizon' : `${years(x.arrival)} yr`,
+      x.estimator,
+    ]);
+    L.push(...pad([head, ...rows]));
+    L.push(`  mass: released ${sig(pt.mass.released)}, captured by wells ${sig(pt.mass.captured)}, to boundaries ${sig(pt.mass.outflow)}, decayed ${sig(pt.mass.decayed)}, in the aquifer ${sig(pt.mass.inAquifer)} (mg/L·m³ = g)`);
+  }
   if (u) {
     L.push('');
     L.push(...uncertaintyTable(u, p.limit));
@@ -326,6 +374,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   L.push('');
   L.push('Assumptions behind these figures');
   for (const a of ASSUMPTIONS) L.push(...wrap(`- ${a.text}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
+  if (s.wells.field || pt) for (const a of WELL_FIELD_ASSUMPTIONS) L.push(...wrap(`- ${a.text}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
   return L.join('\n') + '\n';
 }
 
@@ -347,7 +396,25 @@ function receptorUncertaintyJson(u: UncertaintyResult, j: number) {
   };
 }
 
-function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null, fit: FitResult | null = null): string {
+function particleJson(pt: CaseParticles, j: number) {
+  const x = pt.receptors[j];
+  return { method: x.method, concentrationAtHorizon: x.concentrationAtHorizon, standardError: x.standardError, arrival: x.arrival, estimator: x.estimator };
+}
+
+function captureJson(s: ScreeningResult, j: number) {
+  const w = s.captures.find((q) => q.receptorIndex === j);
+  if (!w) return {};
+  return {
+    pumpingRate: w.rate,
+    capturesSource: w.capturesSource,
+    travelTimeFromSource: w.travelTimeFromSource,
+    waterTravelTimeFromSource: w.waterTravelTime,
+    sourceShareCaptured: w.sourceShare,
+    singleWellCapture: w.singleWell,
+  };
+}
+
+function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyResult | null, fit: FitResult | null = null, pt: CaseParticles | null = null): string {
   const p = s.prepared;
   const out = {
     case: { id: c.id, name: c.name, file: source, contaminant: c.contaminant.name, limitNote: c.contaminant.limitNote },
@@ -377,6 +444,9 @@ function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyR
       status: x.status,
       alternate: x.alternate,
       othersDiffer: x.alternate?.showBoth ?? false,
+      method: 'analytical',
+      ...captureJson(s, s.results.findIndex((q) => q.receptor === r)),
+      ...(pt ? { particles: particleJson(pt, s.results.findIndex((q) => q.receptor === r)) } : {}),
       ...(u ? { uncertainty: receptorUncertaintyJson(u, s.results.indexOf(s.results.find((q) => q.receptor === r)!)) } : {}),
     })),
     ...(u
@@ -398,21 +468,33 @@ function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyR
       const obs = observationSummary(c, p);
       return obs ? { observations: { ...observationsJson(obs), ...(fit ? { fit: fitJson(fit) } : {}) } } : {};
     })(),
-    warnings: s.warnings,
+    ...(s.wells.field
+      ? {
+          wellField: {
+            saturatedThickness: s.wells.thickness,
+            darcyFlux: s.wells.field.darcyFlux,
+            boundaries: s.wells.boundaries.map((b) => ({ id: b.id, name: b.name, kind: b.kind })),
+          },
+        }
+      : {}),
+    ...(pt ? { particles: { particles: pt.particles, seed: pt.seed, mass: pt.mass, steps: pt.steps, units: { mass: 'mg/L·m3 (= g)' } } } : {}),
+    warnings: [...s.warnings, ...(pt?.warnings ?? [])],
     caution: s.caution,
-    assumptions: ASSUMPTIONS,
+    assumptions: s.wells.field || pt ? [...ASSUMPTIONS, ...WELL_FIELD_ASSUMPTIONS] : ASSUMPTIONS,
   };
   return JSON.stringify(out, null, 2) + '\n';
 }
 
 /** One row per receptor (RFC 4180 via the app's CSV writer, numbers unrounded in internal units,
  * units in the column names), then the caution as a final record, as in the app's CSV exports. */
-function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null): string {
+function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null, pt: CaseParticles | null = null): string {
   const head: Cell[] = [
     'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
     'other_solution', 'other_status', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
     'solutions_differ_in',
+    'pumping_rate_m3_per_d', 'captures_source', 'travel_time_from_source_d',
+    ...(pt ? ['particles_n', 'particles_seed', 'particles_c_horizon_mg_per_L', 'particles_standard_error_mg_per_L', 'particles_arrival_d', 'particles_estimator'] : []),
     ...(u ? UNCERTAINTY_COLUMNS : []),
   ];
   const rows: Cell[][] = s.results.map(({ receptor: r, result: x }) => {
@@ -422,6 +504,8 @@ function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null): st
       x.steady, x.status, s.prepared.limit, s.prepared.horizon,
       a?.solution ?? null, a?.status ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
       a ? a.differing.join(' ') : null,
+      ...wellCells(s, s.results.findIndex((q) => q.receptor === r)),
+      ...(pt ? particleCells(pt, s.results.findIndex((q) => q.receptor === r)) : []),
       ...(u ? uncertaintyCells(u, s.results.findIndex((q) => q.receptor === r)) : []),
     ];
   });
@@ -431,6 +515,16 @@ function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null): st
   const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];
   const obs = observationSummary(c, s.prepared);
   return csvRecords([head, ...rows, ...inputs, ...(obs ? observationsCsvRows(obs, head.length) : []), caution]);
+}
+
+function wellCells(s: ScreeningResult, j: number): Cell[] {
+  const w = s.captures.find((q) => q.receptorIndex === j);
+  return w ? [w.rate, w.capturesSource ? 'true' : 'false', w.travelTimeFromSource] : [null, null, null];
+}
+
+function particleCells(pt: CaseParticles, j: number): Cell[] {
+  const x = pt.receptors[j];
+  return [pt.particles, pt.seed, x.concentrationAtHorizon, x.standardError, x.arrival, x.estimator];
 }
 
 
@@ -492,9 +586,12 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   let fit: FitResult | null = null;
   let result: ScreeningResult;
   let uncertainty: UncertaintyResult | null = null;
+  let particles: CaseParticles | null = null;
   try {
     result = screenCase(c);
-    if (args.runs !== null || args.seed !== null) uncertainty = runUncertainty(c, { runs: args.runs ?? undefined, seed: args.seed ?? undefined });
+    const particleRun = args.method === 'particles' || args.particles !== null;
+    if (particleRun) particles = runCaseParticles(c, result.prepared, result.wells, { particles: args.particles ?? undefined, seed: args.seed ?? undefined });
+    if (args.runs !== null || (!particleRun && args.seed !== null)) uncertainty = runUncertainty(c, { runs: args.runs ?? undefined, seed: args.seed ?? undefined });
     if (args.fit) fit = fitCase(c, args.fit);
   } catch (e) {
     if (e instanceof ValidationError) {
@@ -506,7 +603,13 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   }
   const version = (JSON.parse(text.replace(/^\uFEFF/, '')) as { version?: number }).version;
   const source = `${args.file} (version ${version}${version !== c.version ? `, read as version ${c.version}` : ''})`;
-  out(args.format === 'json' ? formatJson(c, result, args.file, uncertainty, fit) : args.format === 'csv' ? formatCsv(c, result, uncertainty) : formatTable(c, result, source, uncertainty, fit));
+  out(
+    args.format === 'json'
+      ? formatJson(c, result, args.file, uncertainty, fit, particles)
+      : args.format === 'csv'
+        ? formatCsv(c, result, uncertainty, particles)
+        : formatTable(c, result, source, uncertainty, fit, particles),
+  );
   if (fit && args.variant) {
     const now = new Date().toISOString();
     const variant = adoptFitAsVariant(c, fit, `${c.id}-fit-${now.replace(/\D/g, '').slice(0, 14)}`.slice(0, 64), now);

@@ -375,7 +375,7 @@ export function drawdown(f: FlowField, conductivity: number, x: number, y: numbe
  *   along it (more than 20° off): uniform regional flow cannot meet that boundary condition, so the
  *   picture is exact for the wells' part only.
  */
-export function flowWarnings(f: FlowField): Warning[] {
+export function flowWarnings(f: FlowField, unit = ''): Warning[] {
   const out: Warning[] = [];
   const stag = (w: FlowWell) => (f.q0 > 0 ? Math.abs(w.rate) / (2 * Math.PI * f.q0) : Infinity);
   const name = (j: number) => (f.wells[j].label ? `Well ${j + 1} (${f.wells[j].label})` : `Well ${j + 1}`);
@@ -387,7 +387,7 @@ export function flowWarnings(f: FlowField): Warning[] {
       if (d < near)
         out.push({
           code: 'well-near-boundary',
-          message: `${name(j)} is ${d.toPrecision(3)} from boundary line ${i + 1} (${l.kind === 'constant-head' ? 'constant head' : 'impermeable'}): the boundary, idealised as a straight fully penetrating line, shapes its capture zone; a real stream bed or barrier may behave differently${l.kind === 'no-flow' ? ', and the steady state takes long to reach' : ''}.`,
+          message: `${name(j)} is ${Number(d.toPrecision(3))}${unit} from boundary line ${i + 1} (${l.kind === 'constant-head' ? 'constant head' : 'impermeable'}): the boundary, idealised as a straight fully penetrating line, shapes its capture zone; a real stream bed or barrier may behave differently${l.kind === 'no-flow' ? ', and the steady state takes long to reach' : ''}.`,
           field: `wells[${j}]`,
         });
     });
@@ -401,7 +401,7 @@ export function flowWarnings(f: FlowField): Warning[] {
       if (d < Math.max(stag(A), stag(B), 5))
         out.push({
           code: 'wells-close',
-          message: `${name(a)} and ${name(b)} are ${d.toPrecision(3)} apart: their drawdown cones and capture zones merge, and the steady picture holds only after both have pumped for long.`,
+          message: `${name(a)} and ${name(b)} are ${Number(d.toPrecision(3))}${unit} apart: their drawdown cones and capture zones merge, and the steady picture holds only after both have pumped for long.`,
           field: `wells[${b}]`,
         });
     }
