@@ -144,7 +144,7 @@ export function prepareReceptors(c: Case, sf: SiteFrame, sourceEN: [number, numb
       warnings.push({
         code: 'pumping-not-represented',
         message: `${r.name || r.id} is marked as pumping, but ${r.pumpingRate === null ? 'its pumping rate' : "the aquifer's saturated thickness"} is not given, so pumping is not represented: its capture would draw the plume towards it, so arrival may be earlier and concentrations higher than shown.`,
-        field: r.pumpingRate === null ? `${f}.pumpingRate` : 'aquifer.saturatedThickness',
+        field: `${f}.pumping`,
       });
     else if (modelled)
       warnings.push({

