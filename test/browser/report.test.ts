@@ -71,7 +71,8 @@ describe('printable report', () => {
     await waitSaved(page);
     await openDemo(page, 'depot-benzene-monitoring.json');
     await openFiles(page);
-    expect(await page.getByTestId('export-observations').count()).toBe(1);
+    // the Files tab renders after the click: wait for the button rather than count at once
+    await page.getByTestId('export-observations').waitFor({ timeout: 15_000 });
     await page.getByTestId('open-report').click();
     const section = page.getByTestId('report-observations');
     await section.waitFor({ timeout: 30_000 });
