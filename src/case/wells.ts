@@ -174,9 +174,9 @@ export const TRAVEL_TIME_MARKS_YEARS = [1, 5, 10, 25] as const;
 
 export interface MapCaptureZone {
   readonly receptorId: string;
-  /** the traced zone's outline (map positions) */
+  /** the traced zone's outline (map positions; core sweptOutline, as far as 4 × 25 years of water travel) */
   readonly envelope: Position[];
-  /** time-of-travel outlines for water and for the contaminant (× R), each at 1, 5, 10 and 25 years */
+  /** time-of-travel outlines (sweptOutline) for water and for the contaminant (× R), each at 1, 5, 10 and 25 years */
   readonly water: { years: number; ring: Position[] }[];
   readonly contaminant: { years: number; ring: Position[] }[];
   readonly fromBoundary: number[];
@@ -197,9 +197,9 @@ export function mapCaptureZones(p: PreparedCase, w: CaseWells): MapCaptureZone[]
     const solute = captureZone(f, j, { times: days, retardation: p.model.R, maxTime: 4 * days[days.length - 1] });
     return {
       receptorId: p.receptors[w.receptorOf[j]].id,
-      envelope: ring(water.envelope),
-      water: water.isochrones.map((iso, k) => ({ years: TRAVEL_TIME_MARKS_YEARS[k], ring: ring(iso.polygon) })),
-      contaminant: solute.isochrones.map((iso, k) => ({ years: TRAVEL_TIME_MARKS_YEARS[k], ring: ring(iso.polygon) })),
+      envelope: ring(water.outline),
+      water: water.isochrones.map((iso, k) => ({ years: TRAVEL_TIME_MARKS_YEARS[k], ring: ring(iso.outline) })),
+      contaminant: solute.isochrones.map((iso, k) => ({ years: TRAVEL_TIME_MARKS_YEARS[k], ring: ring(iso.outline) })),
       fromBoundary: water.fromBoundary,
     };
   });

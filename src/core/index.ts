@@ -75,6 +75,7 @@ export {
   type BoundaryKind,
   type FlowField,
 } from './flow/field';
+export { confinedHead, unconfinedHead, dewatered, type HeadReference } from './flow/heads';
 export {
   traceStreamline,
   stagnationPoints,
@@ -82,6 +83,7 @@ export {
   captureZone,
   sourceCapture,
   positionAt,
+  sweptOutline,
   type Streamline,
   type CaptureZone,
   type Isochrone,

@@ -11,6 +11,7 @@ import { parseCaseFile } from '../../src/case/io';
 import { migrateCase } from '../../src/case/migrate';
 import { screenCase } from '../../src/case/screen';
 import { runCaseParticles } from '../../src/case/particles';
+import { mapCaptureZones } from '../../src/case/wells';
 import { run } from '../../src/cli/screen';
 import type { Case } from '../../src/case/schema';
 
@@ -114,5 +115,71 @@ describe('command line: --method particles', () => {
     let err = '';
     expect(run(['cases/riverside-supply-well.json', '--method', 'fast'], () => {}, (s) => (err += s))).toBe(2);
     expect(err).toMatch(/--method must be analytical or particles/);
+  });
+});
+
+describe('mapCaptureZones: the capture zone drawn on the map against Javandel & Tsang (1986)', () => {
+  // one well pumping Q in uniform flow, no boundary: stagnation point x_s = Q/(2πBq) downgradient,
+  // capture width Q/(2Bq) through the well and Q/(Bq) far upgradient (Javandel & Tsang 1986,
+  // Ground Water 24(5); restated in docs/field-values.md); the exact dividing streamline
+  // y = (Q/(2πBq))·θ, θ the polar angle about the well from the downgradient direction (same paper).
+  const c = demo();
+  c.site.boundaries = [];
+  c.site.receptors[0].position = [350, 0];
+  c.site.flow = { method: 'direction', azimuthDeg: 90, gradient: 0.003 };
+  const s = screenCase(c);
+  const zone = mapCaptureZones(s.prepared, s.wells)[0];
+  const Q = 800;
+  const B = 15;
+  const q = 40 * 0.003;
+  const W = Q / (B * q);
+  const xs = Q / (2 * Math.PI * B * q);
+  // the outline in the flow frame relative to the well
+  const pts = zone.envelope.map((pos) => {
+    const f = s.prepared.fromMap(pos);
+    return { x: f.x - 350, y: f.y };
+  });
+  /** the outline's extent across the flow at distance x from the well (crossings of the vertical line) */
+  const across = (x: number) => {
+    const ys: number[] = [];
+    for (let i = 0; i < pts.length; i++) {
+      const a = pts[i];
+      const b = pts[(i + 1) % pts.length];
+      if ((a.x - x) * (b.x - x) <= 0 && a.x !== b.x) ys.push(a.y + ((x - a.x) / (b.x - a.x)) * (b.y - a.y));
+    }
+    return Math.max(...ys) - Math.min(...ys);
+  };
+  const spacing = W / 72; // each of the 72 traced streamlines carries Q/72
+
+  it('the tip of the zone lies at the stagnation point Q/(2πBq) downgradient, on the axis (1e-6 relative)', () => {
+    const tip = pts.reduce((a, b) => (b.x > a.x ? b : a));
+    expect(Math.abs(tip.x - xs) / xs).toBeLessThan(1e-6);
+    expect(Math.abs(tip.y) / xs).toBeLessThan(1e-6);
+  });
+
+  it('width across the well line Q/(2Bq) (within 2 streamline spacings)', () => {
+    expect(Math.abs(across(0) - W / 2)).toBeLessThan(2 * spacing);
+  });
+
+  it('width upgradient: the exact dividing streamline at 5, 25 and 45 x_s (2 spacings), approaching Q/(Bq)', () => {
+    for (const k of [5, 25, 45]) {
+      const x = -k * xs;
+      // y = (Q/(2πBq))·θ with θ = atan2(y, x): fixed-point iteration (a contraction here)
+      let y = W / 2;
+      for (let i = 0; i < 200; i++) y = (Q / (2 * Math.PI * B * q)) * Math.atan2(y, x);
+      expect(Math.abs(across(x) - 2 * y)).toBeLessThan(2 * spacing);
+    }
+    // far upgradient the width tends to Q/(Bq) as W·(1 − x_s/|x|) (the first term of the expansion of
+    // the dividing streamline in x_s/|x|, derived here): at 45 x_s within 2 spacings of that, and within
+    // 4 % of W itself (1/45 = 2.2 % for the finite distance, 2.8 % for the fan's spacing)
+    const w45 = across(-45 * xs);
+    expect(Math.abs(w45 - W * (1 - 1 / 45))).toBeLessThan(2 * spacing);
+    expect(Math.abs(w45 - W) / W).toBeLessThan(1 / 45 + (2 * spacing) / W);
+  });
+
+  it('time-of-travel marks: each outline lies inside the next, the contaminant zone inside the water zone (R > 1)', () => {
+    const extent = (ring: { 0: number; 1: number }[]) => Math.min(...ring.map((p) => s.prepared.fromMap(p as [number, number]).x));
+    for (let k = 1; k < zone.water.length; k++) expect(extent(zone.water[k].ring)).toBeLessThan(extent(zone.water[k - 1].ring));
+    for (let k = 0; k < zone.water.length; k++) expect(extent(zone.contaminant[k].ring)).toBeGreaterThan(extent(zone.water[k].ring));
   });
 });

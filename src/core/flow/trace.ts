@@ -295,8 +295,10 @@ export function dividingStreamlines(f: FlowField, p: StagnationPoint, opts: Omit
 export interface Isochrone {
   /** travel time to the well (T; water time times R for a sorbing solute) */
   readonly time: number;
-  /** closed polygon around the well, x and y interleaved */
+  /** each streamline's position at that time, in the fan's angle order, x and y interleaved */
   readonly polygon: Float64Array;
+  /** the outline of the ground from which water reaches the well within that time (sweptOutline) */
+  readonly outline: Float64Array;
 }
 
 export interface CaptureZone {
@@ -305,6 +307,8 @@ export interface CaptureZone {
   readonly streamlines: Streamline[];
   /** the steady capture zone as far as traced: the streamline end points, in angle order */
   readonly envelope: Float64Array;
+  /** the outline of the capture zone as far as traced (sweptOutline at the longest time traced) */
+  readonly outline: Float64Array;
   /** time-of-travel zones (time in the solute's time when a retardation factor is given) */
   readonly isochrones: Isochrone[];
   /** share of the well's water that enters the aquifer across each boundary line (constant head) */
@@ -358,6 +362,11 @@ export function captureZone(f: FlowField, j: number, opts: CaptureOptions = {}):
     if (s.end === 'boundary' && f.lines[s.endIndex].kind === 'constant-head') counts[s.endIndex]++;
     else if (s.end === 'far' || s.end === 'time' || s.end === 'steps') regional++;
   }
+  // the stagnation point between two streamlines that split around it (within their distance apart)
+  const tip = (p: { x: number; y: number }, q: { x: number; y: number }): StagnationPoint | null => {
+    const z = newtonZero(f, (p.x + q.x) / 2, (p.y + q.y) / 2);
+    return z && insideAquifer(f, z.x, z.y) && Math.hypot(z.x - p.x, z.y - p.y) + Math.hypot(z.x - q.x, z.y - q.y) <= 3 * Math.hypot(p.x - q.x, p.y - q.y) ? z : null;
+  };
   const envelope = new Float64Array(2 * M);
   streamlines.forEach((s, k) => {
     envelope[2 * k] = s.x[s.x.length - 1];
@@ -370,9 +379,9 @@ export function captureZone(f: FlowField, j: number, opts: CaptureOptions = {}):
       poly[2 * k] = p.x;
       poly[2 * k + 1] = p.y;
     });
-    return { time: T, polygon: poly };
+    return { time: T, polygon: poly, outline: sweptOutline(streamlines, waterMarks[i], tip) };
   });
-  return { well: j, streamlines, envelope, isochrones, fromBoundary: counts.map((c) => c / M), fromRegional: regional / M };
+  return { well: j, streamlines, envelope, outline: sweptOutline(streamlines, Infinity, tip), isochrones, fromBoundary: counts.map((c) => c / M), fromRegional: regional / M };
 }
 
 export interface SourceCapture {
@@ -392,4 +401,80 @@ export function sourceCapture(f: FlowField, x: number, y: number, opts: Omit<Tra
   const s = traceStreamline(f, x, y, { ...opts, direction: 'forward' });
   if (s.end === 'well') return { well: s.endIndex, travelTime: s.t[s.t.length - 1], streamline: s };
   return { well: -1, travelTime: null, streamline: s };
+}
+
+/** Adjacent streamlines whose ends lie this many times the median spacing apart split at a stagnation point. */
+const SPLIT_FACTOR = 4;
+
+/**
+ * The outline of the ground swept by a fan of streamlines traced backward from a well (in angle
+ * order) within water travel time T (Infinity: as far as traced): the region from which water
+ * reaches the well within T. Where two neighbouring streamlines stay together, the outline joins
+ * their positions at T; where they split around a stagnation point (their positions at T lie more
+ * than SPLIT_FACTOR times the median spacing apart), it runs back along the first of them to its
+ * slowest point (the one nearest the stagnation point), through the stagnation point itself when
+ * `tip` finds it (captureZone: Newton on the complex discharge from between the two slowest
+ * points), and out along the second from its own slowest point, so the outline follows the
+ * dividing streamline into the stagnation point instead of cutting across the zone. Exact to
+ * within the fan's spacing (each streamline carries Q/M) and, beside the stagnation point, the
+ * chord from it to where the two straddling streamlines pass it. x and y interleaved, not closed
+ * (the last point is not the first).
+ */
+export function sweptOutline(
+  streamlines: readonly Streamline[],
+  T: number,
+  tip?: (a: { x: number; y: number }, b: { x: number; y: number }) => StagnationPoint | null,
+): Float64Array {
+  const M = streamlines.length;
+  const ends = streamlines.map((s) => positionAt(s, T));
+  const gaps = ends.map((e, k) => Math.hypot(ends[(k + 1) % M].x - e.x, ends[(k + 1) % M].y - e.y));
+  const median = [...gaps].sort((a, b) => a - b)[Math.floor(M / 2)];
+  const out: number[] = [];
+  for (let k = 0; k < M; k++) {
+    out.push(ends[k].x, ends[k].y);
+    const next = (k + 1) % M;
+    if (!(gaps[k] > SPLIT_FACTOR * median) || M < 3) continue;
+    const a = truncated(streamlines[k], T);
+    const b = truncated(streamlines[next], T);
+    const ia = slowest(a);
+    const ib = slowest(b);
+    for (let i = a.x.length - 2; i >= ia; i--) out.push(a.x[i], a.y[i]);
+    const z = tip?.({ x: a.x[ia], y: a.y[ia] }, { x: b.x[ib], y: b.y[ib] });
+    if (z) out.push(z.x, z.y);
+    for (let j = ib; j < b.x.length - 1; j++) out.push(b.x[j], b.y[j]);
+  }
+  return Float64Array.from(out);
+}
+
+/** Index of the point after the slowest stretch of a traced path (distance per travel time). */
+function slowest(p: { x: number[]; y: number[]; t: number[] }): number {
+  let best = Infinity;
+  let at = p.x.length - 1;
+  for (let i = 1; i < p.x.length; i++) {
+    const dt = p.t[i] - p.t[i - 1];
+    if (!(dt > 0)) continue;
+    const v = Math.hypot(p.x[i] - p.x[i - 1], p.y[i] - p.y[i - 1]) / dt;
+    if (v < best) {
+      best = v;
+      at = i;
+    }
+  }
+  return at;
+}
+
+/** The streamline's points up to water time T (its position at T last). */
+function truncated(s: Streamline, T: number): { x: number[]; y: number[]; t: number[] } {
+  const x: number[] = [];
+  const y: number[] = [];
+  const t: number[] = [];
+  for (let i = 0; i < s.t.length && s.t[i] < T; i++) {
+    x.push(s.x[i]);
+    y.push(s.y[i]);
+    t.push(s.t[i]);
+  }
+  const e = positionAt(s, T);
+  x.push(e.x);
+  y.push(e.y);
+  t.push(Math.min(T, s.t[s.t.length - 1]));
+  return { x, y, t };
 }
