@@ -25,7 +25,8 @@
  * into a reused buffer, while numpy, whose arrays are freed at once and reused, was unaffected).
  * The header line "allocator" says which settings a run had.
  * Options: --no-numpy (JS figures only), --python <command>
- * (python3 by default), --json <file> (also write every figure as JSON).
+ * (python3 by default), --json <file> (also write every figure as JSON), --only montecarlo (the
+ * Monte Carlo section alone, with its numpy peer: `npm run bench:engine -- --only montecarlo`).
  * Nothing here asserts on time; tests never do.
  */
 import { cpus, loadavg } from 'node:os';
@@ -96,6 +97,11 @@ async function main(): Promise<void> {
   console.log(
     `scenario (invented): v = ${V} m/d, R = ${R}, αx/αy/αz = ${AX}/${AY}/${AZ} m, half-life 730 d, source ${WIDTH} m × ${THICKNESS} m, z = ${Z} m, t = ${T} d\n`,
   );
+
+  if (argValue('--only') === 'montecarlo') {
+    console.log(targetTable(await measureMonteCarlo({ withNumpy, python: argValue('--python') ?? 'python3' })));
+    return;
+  }
 
   // ---- inputs, all built before any clock starts
   const base = { z: Z, t: T, v: V, ax: AX, ay: AY, az: AZ, width: WIDTH, thickness: THICKNESS, R, decay: DECAY };

@@ -158,7 +158,7 @@ export function prepareReceptors(c: Case, sf: SiteFrame, sourceEN: [number, numb
 }
 
 /** The distance to the farthest downgradient receptor (x > 0), the scale of an estimated dispersivity; null when none lies downgradient. */
-export function receptorReach(receptors: readonly PreparedReceptor[]): number | null {
+export function receptorReach(receptors: readonly { readonly x: number }[]): number | null {
   const downgradient = receptors.filter((r) => r.x > 0).map((r) => r.x);
   return downgradient.length ? Math.max(...downgradient) : null;
 }

@@ -265,21 +265,27 @@ export function dispersivities(
   };
 }
 
-/** Physical inputs → the engine model and the derived parameters (not yet validated as a model). */
+/**
+ * Physical inputs → the engine model and the derived parameters (not yet validated as a model).
+ * `dispersivityFactor` scales all three dispersivities, given or estimated (a realisation's
+ * sampled factor; published field dispersivities scatter over orders of magnitude at one scale).
+ */
 export function derivePhysics(
   p: PhysicalInputs,
   reach: number | null,
   horizon: number,
   solution: SolutionKind,
+  dispersivityFactor = 1,
 ): { model: ScreeningModel; derived: DerivedPhysics; warnings: Warning[] } {
   const sd = sorptionAndDecay(p);
   const v = seepageVelocity(p.hydraulicConductivity, p.gradient, p.effectivePorosity);
   const disp = dispersivities(p.dispersivity, reach, v / sd.R, horizon);
+  const f = dispersivityFactor;
   const model: ScreeningModel = {
     v,
-    ax: disp.ax,
-    ay: disp.ay,
-    az: disp.az,
+    ax: disp.ax * f,
+    ay: disp.ay * f,
+    az: disp.az * f,
     diffusion: p.diffusion,
     R: sd.R,
     decay: sd.decay,
@@ -298,9 +304,9 @@ export function derivePhysics(
     kd: sd.kd,
     bulkDensity: sd.bulkDensity,
     bulkDensityEstimated: p.bulkDensity === null,
-    ax: disp.ax,
-    ay: disp.ay,
-    az: disp.az,
+    ax: model.ax,
+    ay: model.ay,
+    az: model.az,
     decay: sd.decay,
     sourceDecay: sd.sourceDecay,
     diffusion: p.diffusion,
@@ -341,19 +347,44 @@ export interface PhysicsBasis {
   readonly model: ScreeningModel;
 }
 
+/** What a Monte Carlo realisation or a sensitivity run may change besides the physical inputs. */
+export interface ModelVariation {
+  /** a factor > 0 on the three dispersivities, given or estimated (absent: 1) */
+  readonly dispersivityFactor?: number;
+  /**
+   * the scale distance of an estimated dispersivity when the receptors have moved in the flow
+   * frame (a turned flow direction), m; null: none lies downgradient (absent: the prepared case's)
+   */
+  readonly receptorReach?: number | null;
+  /**
+   * true: every override is known to lie inside its rule's range (a Monte Carlo plan checks each
+   * distribution's support against the physical range once), so only the rule across inputs
+   * (effective ≤ total porosity) and the engine's own limits are checked per call
+   */
+  readonly rangesChecked?: boolean;
+}
+
+export const DISPERSIVITY_FACTOR_RULE: Rule = rule('aquifer.dispersivity', positive, 'a factor > 0 on the dispersivities');
+
 /**
  * The engine model of a prepared case with some physical inputs replaced (internal units): the
- * seam for Monte Carlo realisations and sensitivity runs. Geometry (frame, flow direction, source
- * plane, receptors) is the prepared case's; everything physical is derived again exactly as
- * prepareCase derives it, so `modelFor(p, {})` equals `p.model`. Each replaced value is checked
- * against the case file's rule and a ValidationError names its case field. An estimated
- * dispersivity keeps its scale distance (the receptors), so it changes only with the relation,
- * the ratios, or, when no receptor lies downgradient, the retarded velocity.
+ * seam for Monte Carlo realisations and sensitivity runs. Geometry (frame, source plane,
+ * receptors) is the prepared case's; everything physical is derived again exactly as prepareCase
+ * derives it (a bulk density estimated from the total porosity follows a changed porosity), so
+ * `modelFor(p, {})` equals `p.model`. Each replaced value is checked against the case file's rule
+ * and a ValidationError names its case field: effective above total porosity is refused here
+ * whichever of the two was replaced. An estimated dispersivity keeps its scale distance (the
+ * receptors) unless `variation.receptorReach` gives the new one; when none lies downgradient it
+ * follows the realisation's retarded velocity, as prepareCase does.
  */
-export function modelFor(p: PhysicsBasis, overrides: Partial<PhysicalInputs> = {}): ScreeningModel {
+export function modelFor(p: PhysicsBasis, overrides: Partial<PhysicalInputs> = {}, variation: ModelVariation = {}): ScreeningModel {
   const inputs: PhysicalInputs = { ...p.inputs, ...overrides };
-  checkPhysicalInputs(inputs);
-  const { model } = derivePhysics(inputs, p.receptorReach, p.horizon, p.model.solution);
+  if (!variation.rangesChecked) checkPhysicalInputs(inputs);
+  else if (overrides.totalPorosity !== undefined || overrides.effectivePorosity !== undefined) checkPorosities(inputs.totalPorosity, inputs.effectivePorosity);
+  const factor = variation.dispersivityFactor ?? 1;
+  if (factor !== 1) checkRule(DISPERSIVITY_FACTOR_RULE, factor);
+  const reach = variation.receptorReach === undefined ? p.receptorReach : variation.receptorReach;
+  const { model } = derivePhysics(inputs, reach, p.horizon, p.model.solution, factor);
   validateAtCase(model, inputs.sourceHalfLife);
   return model;
 }

@@ -176,6 +176,8 @@ export const UNCERTAIN_INPUTS = [
   'sourceWidth',
   'sourceThickness',
   'releaseDuration',
+  // appended, so the Latin hypercube columns of the inputs above (and so every stored run) stay as they were
+  'totalPorosity',
 ] as const;
 export type UncertainInput = (typeof UNCERTAIN_INPUTS)[number];
 

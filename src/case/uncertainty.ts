@@ -17,8 +17,8 @@
  * Mapping: the case-to-engine seam's `modelFor(prepared, overrides)` (physics.ts) derives each
  * realisation's model from the sampled physical inputs exactly as prepareCase does, checking each
  * against the case file's rule; the dispersivity factor then scales αL, αT and αV; the flow
- * direction rotates the receptors about the source and gives an estimated dispersivity its new
- * scale distance (a traced footprint keeps the width it has across the base direction).
+ * direction turns the geometry as prepareCase would (a traced footprint's source plane, the
+ * receptors in the flow frame, the scale distance of an estimated dispersivity).
  * Flow from four or more head readings (the head-fit option): the plane's slope (a, b) is sampled
  * from the least-squares covariance of the fit (core/uncertainty/planeFit.ts) through two more
  * Latin hypercube columns, giving each realisation's gradient and direction.
@@ -26,16 +26,11 @@
 import type { Case, UncertainInput, UncertainValue } from './schema';
 import { UNCERTAIN_INPUTS } from './schema';
 import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
-import { modelFor, type PhysicalInputs, type PhysicsBasis } from './physics';
+import { modelFor, type PhysicalInputs } from './physics';
+import { prepareFrame, prepareSourcePlane, receptorReach, type SourcePlane } from './geometry';
 import { unitDef, type Dimension } from '../core/units';
 import type { ScreeningModel } from '../core/model';
-import {
-  ValidationError,
-  firstTimeAtLimit,
-  peakConcentration,
-  screenAverage,
-  validateModel,
-} from '../core';
+import { ValidationError, screenReceptorsInto, type Receptor } from '../core';
 import {
   LatinHypercube,
   checkRuns,
@@ -53,8 +48,7 @@ import {
   type Sampler,
 } from '../core/uncertainty';
 import { checkSeed } from '../core/random';
-import { toFlow } from '../geo/flowFrame';
-import { normalizeDeg } from '../geo/angles';
+import { normalizeDeg, sinCosDeg } from '../geo/angles';
 
 export interface InputDefinition {
   /** in words, as a case officer reads it */
@@ -82,6 +76,12 @@ export const INPUT_DEFINITIONS: Record<UncertainInput, InputDefinition> = {
     measure: 'water levels measured on one day in at least three surveyed wells around the release',
   },
   effectivePorosity: { label: 'effective porosity', field: 'aquifer.effectivePorosity', dimension: null, measure: 'grain-size or core analysis of the aquifer material' },
+  totalPorosity: {
+    label: 'total porosity',
+    field: 'aquifer.totalPorosity',
+    dimension: null,
+    measure: 'bulk density and grain density of undisturbed core samples (the porosity follows from both)',
+  },
   fractionOrganicCarbon: {
     label: 'fraction of organic carbon (foc)',
     field: 'aquifer.fractionOrganicCarbon',
@@ -120,7 +120,10 @@ function physicalRange(input: UncertainInput, c: Case): PhysicalRange {
     case 'flowDirection':
       return { min: -Infinity, max: Infinity, minOpen: true, maxOpen: true };
     case 'effectivePorosity':
-      return { min: 0, max: c.aquifer.totalPorosity, minOpen: true, maxOpen: false };
+      // at most the total porosity; when that varies too, each realisation is checked (modelFor)
+      return c.uncertainty.inputs.totalPorosity ? { min: 0, max: 1, minOpen: true, maxOpen: true } : { min: 0, max: c.aquifer.totalPorosity, minOpen: true, maxOpen: false };
+    case 'totalPorosity':
+      return { min: 0, max: 1, minOpen: true, maxOpen: true };
     case 'fractionOrganicCarbon':
       return { min: 0, max: 1, minOpen: false, maxOpen: false };
     case 'koc':
@@ -178,6 +181,8 @@ export interface UncertaintyPlan {
   readonly headPlane: PlaneSlopeCovariance | null;
   /** sampled columns of the Latin hypercube: one per input, two for the head plane */
   readonly columns: number;
+  /** a traced footprint: its source plane (centre and width) for a flow direction of the datum plane (geometry.ts); null: a point release */
+  readonly sourcePlaneFor: ((planeAzimuthDeg: number) => SourcePlane) | null;
 }
 
 /** The Latin hypercube of a plan (each worker builds its own; the same numbers everywhere). */
@@ -250,7 +255,12 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
   }
   if (!inputs.length && !headPlane)
     throw new ValidationError('uncertainty.inputs', 'none', 'at least one uncertain input', 'no input has a distribution: give at least one uncertain input a distribution to run a Monte Carlo screening');
-  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0) };
+  let sourcePlaneFor: UncertaintyPlan['sourcePlaneFor'] = null;
+  if (c.site.source.footprint) {
+    const sf = prepareFrame(c);
+    sourcePlaneFor = (az) => prepareSourcePlane(c, sf, az);
+  }
+  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0), sourcePlaneFor };
 }
 
 /** Internal-unit values of one realisation's inputs (by input name). */
@@ -275,26 +285,42 @@ export function realisationValues(plan: UncertaintyPlan, lhs: LatinHypercube, i:
 
 interface RealisationGeometry {
   readonly model: ScreeningModel;
-  readonly receptors: readonly { x: number; y: number; zTop: number; zBottom: number }[];
+  readonly receptors: readonly Receptor[];
 }
 
-/** The engine model and receptor positions of one realisation; throws ValidationError when the engine refuses it. */
+/**
+ * The engine model and receptor positions of one realisation, through the case-to-engine seam
+ * (physics.ts modelFor): the sampled physical inputs, the dispersivity factor and, for a turned
+ * flow direction, the receptors' new positions in the flow frame and the new scale distance of an
+ * estimated dispersivity. Each sampled value lies inside its physical range (the plan checked every
+ * distribution's support once), so only what depends on several inputs at once is checked here:
+ * effective ≤ total porosity and the engine's own limits. Throws ValidationError (on the case
+ * field) when the realisation is physically invalid; runRealisations counts and reports those.
+ */
 export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): RealisationGeometry {
   const { prepared } = plan;
-  const d = prepared.derived;
-  let receptors: RealisationGeometry['receptors'] = prepared.receptors;
-  let basis: PhysicsBasis = prepared;
-  if (v.flowDirection !== undefined) {
-    // the receptors move in the flow frame; an estimated dispersivity re-scales with their reach
-    const plane = normalizeDeg(v.flowDirection + (d.planeAzimuthDeg - d.azimuthDeg));
-    receptors = prepared.receptors.map((r) => ({ ...toFlow(prepared.sourceEN, plane, r.en), zTop: r.zTop, zBottom: r.zBottom }));
-    const downgradient = receptors.filter((r) => r.x > 0);
-    basis = { ...prepared, receptorReach: downgradient.length ? Math.max(...downgradient.map((r) => r.x)) : null };
-  }
+  let receptors: readonly Receptor[] = prepared.receptors;
+  let reach: number | null | undefined;
   const o: { -readonly [K in keyof PhysicalInputs]?: PhysicalInputs[K] } = {};
+  if (v.flowDirection !== undefined) {
+    // the geometry of the turned flow, as prepareCase derives it: a traced footprint's source
+    // plane (centre and width across the new direction), the receptors in the new flow frame, and
+    // the scale distance of an estimated dispersivity
+    const d = prepared.derived;
+    const planeAzimuthDeg = v.flowDirection + (d.planeAzimuthDeg - d.azimuthDeg);
+    let sourceEN = prepared.sourceEN;
+    if (plan.sourcePlaneFor) {
+      const plane = plan.sourcePlaneFor(planeAzimuthDeg);
+      sourceEN = plane.sourceEN;
+      o.width = plane.width;
+    }
+    receptors = receptorsInFlowFrame(prepared.receptors, sourceEN, planeAzimuthDeg);
+    reach = receptorReach(receptors);
+  }
   if (v.hydraulicConductivity !== undefined) o.hydraulicConductivity = v.hydraulicConductivity;
   if (v.gradient !== undefined) o.gradient = v.gradient;
   if (v.effectivePorosity !== undefined) o.effectivePorosity = v.effectivePorosity;
+  if (v.totalPorosity !== undefined) o.totalPorosity = v.totalPorosity;
   if (v.fractionOrganicCarbon !== undefined) o.fractionOrganicCarbon = v.fractionOrganicCarbon;
   if (v.koc !== undefined) o.sorption = { mode: 'koc', koc: v.koc };
   if (v.kd !== undefined) o.sorption = { mode: 'kd', kd: v.kd };
@@ -304,13 +330,22 @@ export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): R
   if (v.sourceWidth !== undefined) o.width = v.sourceWidth;
   if (v.sourceThickness !== undefined) o.thickness = v.sourceThickness;
   if (v.releaseDuration !== undefined) o.duration = v.releaseDuration;
-  let model = modelFor(basis, o);
-  const f = v.dispersivityFactor;
-  if (f !== undefined) {
-    model = { ...model, ax: model.ax * f, ay: model.ay * f, az: model.az * f };
-    validateModel(model);
-  }
+  const model = modelFor(prepared, o, { dispersivityFactor: v.dispersivityFactor, receptorReach: reach, rangesChecked: true });
   return { model, receptors };
+}
+
+/**
+ * Receptors in the flow frame about `sourceEN` for flow towards `planeAzimuthDeg` (datum plane):
+ * the rotation of geo/flowFrame.ts toFlow, its sine and cosine once for all receptors.
+ */
+function receptorsInFlowFrame(receptors: readonly PreparedReceptor[], sourceEN: readonly [number, number], planeAzimuthDeg: number): Receptor[] {
+  const [s, c] = sinCosDeg(planeAzimuthDeg);
+  const [e0, n0] = sourceEN;
+  return receptors.map((r) => {
+    const de = r.en[0] - e0;
+    const dn = r.en[1] - n0;
+    return { x: de * s + dn * c, y: -de * c + dn * s, zTop: r.zTop, zBottom: r.zBottom };
+  });
 }
 
 /** Per-realisation results of realisations [from, to), receptor-major: index (i − from)·receptors + r. */
@@ -335,9 +370,7 @@ export interface RealisationBlock {
 export function runRealisations(plan: UncertaintyPlan, from: number, to: number, lhs = designOf(plan)): RealisationBlock {
   const nr = plan.prepared.receptors.length;
   const count = to - from;
-  const arrival = new Float64Array(count * nr);
-  const atHorizon = new Float64Array(count * nr);
-  const peak = new Float64Array(count * nr);
+  const out = { arrival: new Float64Array(count * nr), atHorizon: new Float64Array(count * nr), peak: new Float64Array(count * nr) };
   const refusals: RealisationBlock['refusals'] = [];
   let refusedCount = 0;
   const { limit, horizon } = plan.prepared;
@@ -345,27 +378,17 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     const row = (i - from) * nr;
     try {
       const { model, receptors } = realisationModel(plan, realisationValues(plan, lhs, i));
-      // a continuous, constant source rises monotonically at a fixed point: its peak within the
-      // horizon is the value at the horizon (as peakConcentration finds it), computed once here
-      const rising = model.duration === Infinity && model.sourceDecay === 0;
-      receptors.forEach((r, j) => {
-        const ch = screenAverage(model, r, horizon);
-        const pk = rising ? ch : peakConcentration(model, r, horizon).c;
-        const t = pk >= limit ? firstTimeAtLimit(model, r, limit, horizon) : null;
-        arrival[row + j] = t ?? Infinity;
-        atHorizon[row + j] = ch;
-        peak[row + j] = pk;
-      });
+      screenReceptorsInto(model, receptors, limit, horizon, out, row);
     } catch (e) {
       if (!(e instanceof ValidationError)) throw e;
       refusedCount++;
       if (refusals.length < 5) refusals.push({ realisation: i, message: e.message });
-      arrival.fill(Number.NaN, row, row + nr);
-      atHorizon.fill(Number.NaN, row, row + nr);
-      peak.fill(Number.NaN, row, row + nr);
+      out.arrival.fill(Number.NaN, row, row + nr);
+      out.atHorizon.fill(Number.NaN, row, row + nr);
+      out.peak.fill(Number.NaN, row, row + nr);
     }
   }
-  return { from, to, receptors: nr, arrival, atHorizon, peak, refusals, refusedCount, evaluated: count };
+  return { from, to, receptors: nr, ...out, refusals, refusedCount, evaluated: count };
 }
 
 /**

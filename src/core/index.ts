@@ -34,6 +34,8 @@ export {
   breakthroughCurve,
   firstTimeAtLimit,
   peakConcentration,
+  screenReceptorsInto,
+  type ReceptorFiguresInto,
   plumeLength,
   concentrationGrid,
   evaluateReceptor,

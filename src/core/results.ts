@@ -12,10 +12,10 @@
  * a rise shorter than the sample spacing could be missed there, which the result notes.
  */
 import type { ScreeningModel, SolutionKind } from './model';
-import { relativeAt, relativeGrid, relativeSeries, kinetics } from './transport';
+import { relativeAt, relativeCurve, relativeGrid, relativeSeries, kinetics } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
 import { domenicoAdmits, validateModel } from './validateModel';
-import { ValidationError, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
+import { ValidationError, inWorkingRange, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
 
 export interface Receptor {
   /** what warnings call it (the receptor's name); they say "this point" without one */
@@ -34,6 +34,9 @@ export interface PointLike {
 }
 
 function checkReceptor(r: Receptor, field = 'receptor'): void {
+  // the common case first, without building field names (this runs per receptor and realisation)
+  const fine = (v: unknown): boolean => typeof v === 'number' && Number.isFinite(v) && inWorkingRange(v);
+  if (fine(r?.x) && fine(r.y) && fine(r.zTop) && r.zTop >= 0 && fine(r.zBottom) && r.zBottom >= r.zTop) return;
   requireFinite(`${field}.x`, r?.x);
   requireFinite(`${field}.y`, r?.y);
   requireNonNegative(`${field}.zTop`, r.zTop);
@@ -49,6 +52,12 @@ function mgPerL(m: ScreeningModel, relative: number): number {
 
 function cAt(m: ScreeningModel, kind: SolutionKind, r: Receptor, t: number, opts?: ExactOptions): number {
   return mgPerL(m, relativeAt(m, kind, r.x, r.y, r, t, opts));
+}
+
+/** Concentration (mg/L) at a receptor as a function of time, its time-independent parts worked out once (transport.ts relativeCurve). */
+function concentrationCurve(m: ScreeningModel, kind: SolutionKind, r: Receptor): (t: number) => number {
+  const rel = relativeCurve(m, kind, r.x, r.y, r);
+  return (t) => mgPerL(m, rel(t));
 }
 
 /** Concentration (mg/L) at a point; t = Infinity for steady state. */
@@ -154,12 +163,35 @@ export function firstTimeAtLimit(
 ): number | null {
   validateModel(m);
   checkReceptor(r);
+  checkLimitAndHorizon(limit, horizon);
+  return arrivalOn(concentrationCurve(m, kind, r), kinetics(m).continuousConstant, limit, horizon);
+}
+
+/** Peak concentration (mg/L) within [0, horizon] and its time. */
+export function peakConcentration(
+  m: ScreeningModel,
+  r: Receptor,
+  horizon: number,
+  kind: SolutionKind = m.solution,
+): { c: number; t: number } {
+  validateModel(m);
+  checkReceptor(r);
+  requirePositive('horizon', horizon);
+  if (!Number.isFinite(horizon)) throw new ValidationError('horizon', horizon, 'a finite number > 0');
+  return peakOn(concentrationCurve(m, kind, r), kinetics(m).continuousConstant, horizon);
+}
+
+function checkLimitAndHorizon(limit: number, horizon: number): void {
   requirePositive('limit', limit);
   requirePositive('horizon', horizon);
   if (!Number.isFinite(horizon)) throw new ValidationError('horizon', horizon, 'a finite number > 0');
-  const f = (t: number) => cAt(m, kind, r, t) - limit;
+}
+
+/** The first crossing of `limit` by the curve c(t) within (0, horizon] (see the header), or null. */
+function arrivalOn(c: (t: number) => number, continuousConstant: boolean, limit: number, horizon: number): number | null {
+  const f = (t: number) => c(t) - limit;
   const tol = Math.max(1e-6 * horizon, 1e-6);
-  if (kinetics(m).continuousConstant) {
+  if (continuousConstant) {
     const fH = f(horizon);
     if (fH < 0) return null;
     return brentRoot(f, 0, horizon, -limit, fH, tol);
@@ -176,19 +208,9 @@ export function firstTimeAtLimit(
   return null;
 }
 
-/** Peak concentration (mg/L) within [0, horizon] and its time. */
-export function peakConcentration(
-  m: ScreeningModel,
-  r: Receptor,
-  horizon: number,
-  kind: SolutionKind = m.solution,
-): { c: number; t: number } {
-  validateModel(m);
-  checkReceptor(r);
-  requirePositive('horizon', horizon);
-  if (!Number.isFinite(horizon)) throw new ValidationError('horizon', horizon, 'a finite number > 0');
-  const c = (t: number) => cAt(m, kind, r, t);
-  if (kinetics(m).continuousConstant) return { c: c(horizon), t: horizon };
+/** The largest value of the curve c(t) on [0, horizon] and its time (see the header). */
+function peakOn(c: (t: number) => number, continuousConstant: boolean, horizon: number): { c: number; t: number } {
+  if (continuousConstant) return { c: c(horizon), t: horizon };
   const ts = sampleTimes(horizon);
   let best = 0;
   let bestC = -1;
@@ -226,6 +248,40 @@ export function peakConcentration(
   const tm = f1 > f2 ? x1 : x2;
   const cm = Math.max(f1, f2);
   return cm >= bestC ? { c: cm, t: tm } : { c: bestC, t: ts[best] };
+}
+
+/** Where screenReceptorsInto writes: index offset + j for receptor j. */
+export interface ReceptorFiguresInto {
+  /** first time at the limit within the horizon, d (Infinity: not within it) */
+  readonly arrival: Float64Array;
+  /** concentration at the horizon, mg/L */
+  readonly atHorizon: Float64Array;
+  /** peak within the horizon, mg/L */
+  readonly peak: Float64Array;
+}
+
+/**
+ * The three figures of a probabilistic screening at each receptor (concentration at the horizon,
+ * peak within it, first arrival at the limit: the values screenAverage, peakConcentration and
+ * firstTimeAtLimit give), with the model validated once for all receptors and each receptor's
+ * time-independent factors worked out once: a Monte Carlo realisation's inner loop. The arrival is
+ * searched only where the peak reaches the limit. Throws ValidationError like those functions.
+ */
+export function screenReceptorsInto(m: ScreeningModel, receptors: readonly Receptor[], limit: number, horizon: number, out: ReceptorFiguresInto, offset: number): void {
+  validateModel(m);
+  checkLimitAndHorizon(limit, horizon);
+  const continuousConstant = kinetics(m).continuousConstant;
+  for (let j = 0; j < receptors.length; j++) {
+    const r = receptors[j];
+    checkReceptor(r);
+    const c = concentrationCurve(m, m.solution, r);
+    const atHorizon = c(horizon);
+    // a continuous, constant source rises monotonically at a fixed point: its peak is the value at the horizon
+    const peak = continuousConstant ? atHorizon : peakOn(c, false, horizon).c;
+    out.atHorizon[offset + j] = atHorizon;
+    out.peak[offset + j] = peak;
+    out.arrival[offset + j] = peak >= limit ? (arrivalOn(c, continuousConstant, limit, horizon) ?? Infinity) : Infinity;
+  }
 }
 
 /**

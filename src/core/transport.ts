@@ -13,7 +13,7 @@
  */
 import type { DepthSpan } from './solutions/spread';
 import { depthFactor, spreadFactor } from './solutions/spread';
-import { domenicoGridInto, domenicoPoint, isSymmetric, type DomenicoParams } from './solutions/domenico';
+import { domenicoGridInto, domenicoPointInTime, isSymmetric, type DomenicoParams } from './solutions/domenico';
 import { exactColumn, exactSeries, type ExactOptions, type PatchParams } from './solutions/patchSource';
 import { exactGridShared } from './solutions/patchGrid';
 import type { ScreeningModel, SolutionKind } from './model';
@@ -161,16 +161,32 @@ export function relativeAt(
   t: number,
   opts?: ExactOptions,
 ): number {
+  return relativeCurve(m, kind, x, y, depth, opts)(t);
+}
+
+/**
+ * C/C0 at one point or screen as a function of time, for searches over time (first arrival at a
+ * limit, the peak): the model's kinetics are worked out once, and for Domenico the lateral and
+ * vertical factors too (they do not depend on time). Each value is the one relativeAt gives.
+ */
+export function relativeCurve(m: ScreeningModel, kind: SolutionKind, x: number, y: number, depth: DepthSpan, opts?: ExactOptions): (t: number) => number {
+  const k = kinetics(m);
   if (kind === 'domenico') {
-    const k = kinetics(m);
-    if (x < 0) return 0;
-    if (t === Infinity) return k.continuousConstant ? domenicoPoint(x, y, depth, Infinity, k.dom, 0) : 0;
-    let c = domenicoPoint(x, y, depth, t, k.dom, -k.gamma * t);
-    if (k.duration < t && c > 0) c = Math.max(0, c - domenicoPoint(x, y, depth, t - k.duration, k.dom, -k.gamma * t));
-    return c;
+    if (x < 0) return () => 0;
+    const point = domenicoPointInTime(x, y, depth, k.dom);
+    return (t) => {
+      if (t === Infinity) return k.continuousConstant ? point(Infinity, 0) : 0;
+      let c = point(t, -k.gamma * t);
+      if (k.duration < t && c > 0) c = Math.max(0, c - point(t - k.duration, -k.gamma * t));
+      return c;
+    };
   }
-  relativeGrid(m, kind, [x], [y], depth, t, one, opts);
-  return one[0];
+  const xs = [x];
+  const ys = [y];
+  return (t) => {
+    relativeGrid(m, kind, xs, ys, depth, t, one, opts);
+    return one[0];
+  };
 }
 
 /**

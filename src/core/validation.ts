@@ -44,7 +44,7 @@ export const WORKING_MAX = 1e30;
 export const WORKING_MIN = 1e-30;
 const RANGE_NOTE = `(magnitude between ${WORKING_MIN} and ${WORKING_MAX}, or 0)`;
 
-function inWorkingRange(v: number): boolean {
+export function inWorkingRange(v: number): boolean {
   const a = Math.abs(v);
   return a === 0 || (a >= WORKING_MIN && a <= WORKING_MAX);
 }

@@ -82,6 +82,43 @@ describe('modelFor: the seam for re-evaluating a prepared case', () => {
   });
 });
 
+describe('modelFor: what a Monte Carlo realisation varies besides the physical inputs', () => {
+  test('a dispersivity factor scales the three dispersivities, given or estimated; a factor ≤ 0 is refused', () => {
+    const p = prepareCase(base());
+    const m = modelFor(p, {}, { dispersivityFactor: 3 });
+    expect([m.ax, m.ay, m.az]).toEqual([3 * p.model.ax, 3 * p.model.ay, 3 * p.model.az]);
+    const g = modelFor(p, { dispersivity: { mode: 'given', longitudinal: 4, transverse: 0.4, vertical: 0.04 } }, { dispersivityFactor: 0.5 });
+    expect([g.ax, g.ay, g.az]).toEqual([2, 0.2, 0.02]);
+    expect(errorOf(() => modelFor(p, {}, { dispersivityFactor: 0 })).field).toBe('aquifer.dispersivity');
+  });
+
+  test('a new scale distance for an estimated dispersivity (receptors moved by a turned flow)', () => {
+    const c = base();
+    c.aquifer.dispersivity = { mode: 'estimate', relation: 'tenth-of-distance', transverseRatio: 0.1, verticalRatio: 0.01 };
+    const p = prepareCase(c);
+    // αL = L/10 (common practice, after Pickens & Grisak 1981): the receptor 100 m out gives 10 m, a reach of 250 m gives 25 m
+    close(p.model.ax, 10);
+    close(modelFor(p, {}, { receptorReach: 250 }).ax, 25);
+    // none downgradient: the retarded advective travel distance over the horizon, as prepareCase does
+    const none = modelFor(p, {}, { receptorReach: null });
+    close(none.ax, Math.max((p.model.v / p.model.R) * p.horizon, 1) / 10);
+  });
+
+  test('a changed total porosity re-estimates the bulk density; effective above total is refused whichever changed', () => {
+    const c = base();
+    c.aquifer.bulkDensity = null;
+    c.contaminant.sorption = { mode: 'kd', kd: { value: 0.5, unit: 'L/kg' } };
+    const p = prepareCase(c);
+    // R = 1 + ρb·Kd/n with ρb = 2.65(1 − n) (quartz grains, common practice): n = 0.35 → 1 + 2.65·0.65·0.5/0.35
+    close(modelFor(p, { totalPorosity: 0.35 }, { rangesChecked: true }).R, 1 + (2.65 * 0.65 * 0.5) / 0.35);
+    // the case's effective porosity is 0.25: a total porosity of 0.2 leaves it above
+    expect(errorOf(() => modelFor(p, { totalPorosity: 0.2 }, { rangesChecked: true })).field).toBe('aquifer.effectivePorosity');
+    expect(errorOf(() => modelFor(p, { effectivePorosity: 0.32 }, { rangesChecked: true })).field).toBe('aquifer.effectivePorosity');
+    // with the ranges already checked, a single-input rule is not checked again, but the engine's limits still are
+    expect(() => modelFor(p, { hydraulicConductivity: -1 }, { rangesChecked: true })).toThrow(ValidationError);
+  });
+});
+
 describe('derivation steps', () => {
   const inputs = (): PhysicalInputs => prepareCase(base()).inputs;
 

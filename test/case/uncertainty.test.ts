@@ -30,6 +30,7 @@ import {
   type UncertaintyPlan,
 } from '../../src/case/uncertainty';
 import { peakConcentration } from '../../src/core';
+import { prepareCase } from '../../src/case/prepare';
 
 const load = (f: string): Case => migrateCase(JSON.parse(readFileSync(`cases/${f}`, 'utf8')));
 /** a demo case, with the limit replaced where given (the nitrate demo's wells stay below 10 mg/L with Domenico at any K) */
@@ -173,6 +174,50 @@ describe('a run is the same however it is split', () => {
     const rows = [...blocks[0].arrival.filter((_t, k) => k % 2 === 0), ...blocks[2].arrival.filter((_t, k) => k % 2 === 0)];
     expect(partial.receptors[0].pExceed).toBe(rows.filter(Number.isFinite).length / 120);
     expect(one.receptors[0].drivers.map((d) => d.input)).toContain('hydraulicConductivity');
+  });
+});
+
+describe('each realisation goes through the case-to-engine seam', () => {
+  it('a turned flow direction gives the model and receptor positions prepareCase gives the case turned that way', () => {
+    const c = load('fuel-release-farm-well.json');
+    if (c.site.flow.method !== 'direction') throw new Error('the fuel demo gives its flow as a direction');
+    const u: Case = { ...c, uncertainty: { runs: 10, seed: 1, headFit: false, inputs: { flowDirection: { kind: 'normal', mean: c.site.flow.azimuthDeg, sd: 20 } } } };
+    const plan = planUncertainty(u);
+    for (const turn of [-35, 12, 70]) {
+      const az = c.site.flow.azimuthDeg + turn;
+      const turned = prepareCase({ ...c, site: { ...c.site, flow: { ...c.site.flow, azimuthDeg: az } } });
+      const r = realisationModel(plan, { flowDirection: az });
+      expect(r.model, `turn ${turn}°`).toEqual(turned.model);
+      r.receptors.forEach((p, j) => {
+        expect(p.x).toBeCloseTo(turned.receptors[j].x, 9);
+        expect(p.y).toBeCloseTo(turned.receptors[j].y, 9);
+      });
+    }
+  });
+
+  it('realisations with the effective porosity above the total porosity are refused, counted and reported', () => {
+    const c = load('fuel-release-farm-well.json');
+    const u: Case = {
+      ...c,
+      uncertainty: {
+        runs: 400,
+        seed: 3,
+        headFit: false,
+        inputs: { totalPorosity: { kind: 'uniform', low: 0.2, high: 0.4 }, effectivePorosity: { kind: 'uniform', low: 0.15, high: 0.35 } },
+      },
+    };
+    const plan = planUncertainty(u);
+    const lhs = designOf(plan);
+    let invalid = 0;
+    for (let i = 0; i < plan.runs; i++) {
+      const v = realisationValues(plan, lhs, i);
+      if (v.effectivePorosity! > v.totalPorosity!) invalid++;
+    }
+    expect(invalid).toBeGreaterThan(0);
+    const res = runUncertainty(u);
+    expect(res.refusedCount).toBe(invalid);
+    expect(res.refusals[0].message).toMatch(/aquifer\.effectivePorosity/);
+    expect(res.receptors[0].evaluated).toBe(plan.runs - invalid);
   });
 });
 

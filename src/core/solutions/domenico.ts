@@ -65,9 +65,21 @@ export function domenicoZTerm(x: number, depth: DepthSpan, p: DomenicoParams): n
 
 /** C/C0 at one point (x ≥ 0; upgradient points are the caller's business). */
 export function domenicoPoint(x: number, y: number, depth: DepthSpan, t: number, p: DomenicoParams, logScale = 0): number {
-  const X = domenicoXTerm(x, t, p, logScale);
-  if (X === 0) return 0;
-  return X * domenicoYTerm(x, y, p) * domenicoZTerm(x, depth, p);
+  return domenicoPointInTime(x, y, depth, p)(t, logScale);
+}
+
+/**
+ * C/C0 at one point as a function of time (and log scale): the lateral and vertical factors do
+ * not depend on t, so a breakthrough, an arrival search or a peak search computes them once and
+ * one erfc-type x-term per time.
+ */
+export function domenicoPointInTime(x: number, y: number, depth: DepthSpan, p: DomenicoParams): (t: number, logScale: number) => number {
+  const Y = domenicoYTerm(x, y, p);
+  const Z = domenicoZTerm(x, depth, p);
+  return (t, logScale) => {
+    const X = domenicoXTerm(x, t, p, logScale);
+    return X === 0 ? 0 : X * Y * Z;
+  };
 }
 
 /** True when ys is exactly symmetric about zero (ys[j] = −ys[n−1−j]). */
