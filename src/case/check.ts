@@ -4,7 +4,7 @@
  * (`prepareCase`, the same preparation the screen, the workers and the command line run).
  *
  * `placementProblem` is the part the map needs before it can draw anything at all: the site datum
- * and every position (release, outline, receptors, water-level wells) placed in the site's frame.
+ * and every position (release, outline, receptors, water-level wells, monitoring wells) placed in the site's frame.
  * A case that fails it can still be stored and repaired, but no map can be framed on it, so the
  * start-up does not open it unasked and the map shows the problem instead of drawing.
  */
@@ -34,7 +34,18 @@ export function casePositions(c: Case): [string, Position][] {
   site.source.footprint?.forEach((p, i) => out.push([`site.source.footprint[${i}]`, p]));
   site.receptors.forEach((r, i) => out.push([`site.receptors[${i}].position`, r.position]));
   if (site.flow.method === 'heads') site.flow.readings.forEach((r, i) => out.push([`site.flow.readings[${i}].position`, r.position]));
+  c.monitoring.wells.forEach((w, i) => w.position && out.push([`monitoring.wells[${i}].position`, w.position]));
   return out;
+}
+
+/** Why a position typed for a point cannot be placed in the case's frame (with the accepted range), or null. */
+export function positionProblem(c: Case, p: Position): string | null {
+  try {
+    makeLocalFrame(c.site.frame, c.site.datum).toEN(p);
+    return null;
+  } catch (e) {
+    return `${reason(e)}; accepted: ${positionRange(c.site.frame)}`;
+  }
 }
 
 /** The first position (or the datum) that cannot be placed on the site's map, or null. */

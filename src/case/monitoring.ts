@@ -105,3 +105,59 @@ export function analytesOf(m: Monitoring): string[] {
   for (const r of m.results) if (!out.some((a) => sameAnalyte(a, r.analyte))) out.push(r.analyte);
   return out;
 }
+
+/**
+ * A new monitoring well at a map position (null: not placed yet), named MW-n with the lowest n
+ * not in use, screened from the water table to 3 m below it (a neutral start, common practice for
+ * a shallow well screened across the water table; the user replaces it with the well's own log).
+ */
+export function newMonitoringWell(m: Monitoring, position: [number, number] | null, id: string): MonitoringWell {
+  const names = new Set(m.wells.map((w) => w.name.trim().toLowerCase()));
+  let n = 1;
+  while (names.has(`mw-${n}`)) n++;
+  return { id, name: `MW-${n}`, position, screenTop: { value: 0, unit: 'm' }, screenBottom: { value: 3, unit: 'm' } };
+}
+
+/** A result typed by hand, as the user wrote it. */
+export interface ResultDraft {
+  readonly date: string;
+  /** the value as typed ('12.5', '1e-3'; a leading '<' marks a non-detect too) */
+  readonly value: string;
+  readonly nonDetect: boolean;
+  readonly unit: string;
+  readonly analyte: string;
+}
+
+/** The largest concentration accepted by hand, mg/L (pure benzene's solubility is ~1,800 mg/L; 1e6 mg/L is a litre of pure substance). */
+export const MAX_RESULT_MGL = 1e6;
+
+/**
+ * Check a result typed by hand for well `wellId`: either the result to store or a message naming
+ * the field and what is accepted. Nothing is stored until it passes; an identical result already
+ * stored (same well, date, analyte) is refused with the one stored shown.
+ */
+export function checkResultDraft(m: Monitoring, wellId: string, d: ResultDraft): { ok: true; result: SamplingResult } | { ok: false; field: keyof ResultDraft; message: string } {
+  if (!m.wells.some((w) => w.id === wellId)) return { ok: false, field: 'date', message: 'Choose the monitoring well first.' };
+  if (!ISO_DATE.test(d.date) || dayNumber(d.date) === null) return { ok: false, field: 'date', message: 'Sampling date: enter a calendar date (YYYY-MM-DD).' };
+  const analyte = d.analyte.trim();
+  if (analyte === '' || analyte.length > 100) return { ok: false, field: 'analyte', message: 'Analyte: enter its name (1 to 100 characters), e.g. benzene.' };
+  if (UNITS[d.unit]?.dimension !== 'concentration') return { ok: false, field: 'unit', message: 'Unit: choose a concentration unit (mg/L, µg/L, g/L).' };
+  let text = d.value.trim().replace(/\s/g, '').replace(',', '.');
+  let nonDetect = d.nonDetect;
+  if (text.startsWith('<')) {
+    nonDetect = true;
+    text = text.slice(1);
+  }
+  const ok = /^[+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(text);
+  const value = ok ? Number(text) : NaN;
+  const label = nonDetect ? 'Reporting limit' : 'Measured value';
+  if (!Number.isFinite(value) || value < 0)
+    return { ok: false, field: 'value', message: `${label}: enter a number ≥ 0 (e.g. 12.5 or 1e-3; for a result below the reporting limit tick “below the limit” and enter the limit).` };
+  if (nonDetect && value === 0) return { ok: false, field: 'value', message: 'Reporting limit: enter the limit the laboratory reported (> 0); a non-detect is kept as “< limit”.' };
+  if (toInternal(value, d.unit) > MAX_RESULT_MGL)
+    return { ok: false, field: 'value', message: `${label}: at most ${MAX_RESULT_MGL} mg/L (${value} ${UNITS[d.unit].label} is more than pure substance); check the unit.` };
+  if (m.results.length >= MAX_RESULTS) return { ok: false, field: 'date', message: `A case holds at most ${MAX_RESULTS} results.` };
+  const same = m.results.find((r) => r.wellId === wellId && r.date === d.date && sameAnalyte(r.analyte, analyte));
+  if (same) return { ok: false, field: 'date', message: `Sampling date: ${d.date} already has a ${analyte} result at this well (${resultText(same)}); delete that one first to replace it.` };
+  return { ok: true, result: { wellId, date: d.date, analyte, value, unit: d.unit, nonDetect } };
+}

@@ -18,7 +18,7 @@
  *   otherwise.
  */
 import type { Warning } from '../core/validation';
-import { screenAverage } from '../core/results';
+import { breakthroughCurve, screenAverage } from '../core/results';
 import { toInternal } from '../core/units';
 import {
   analyseTrend,
@@ -71,6 +71,12 @@ export interface ModelComparison {
   readonly withinTen: number;
   /** median of log10(measured/modelled) over detected results (positive: the model is low) */
   readonly medianLog10Ratio: number | null;
+  /** mean of log10(measured/modelled) over detected results: the bias, 10^mean the geometric-mean ratio */
+  readonly meanLog10Ratio: number | null;
+  /** root-mean-square of log10(measured/modelled): the typical misfit, a factor of 10^rms either way */
+  readonly rmsLog10Ratio: number | null;
+  /** of the detected results, within a factor of two of the model */
+  readonly withinTwo: number;
   /** detected where the model gives (practically) nothing, < 1e-12 mg/L */
   readonly modelNothing: number;
   readonly nonDetects: number;
@@ -117,6 +123,9 @@ export function compareWithModel(wells: readonly WellObservations[]): ModelCompa
   const n = logs.length;
   const median = n === 0 ? null : n % 2 ? logs[(n - 1) / 2] : 0.5 * (logs[n / 2 - 1] + logs[n / 2]);
   const withinTen = logs.filter((l) => Math.abs(l) <= 1).length;
+  const withinTwo = logs.filter((l) => Math.abs(l) <= Math.log10(2)).length;
+  const mean = n === 0 ? null : logs.reduce((a, l) => a + l, 0) / n;
+  const rms = n === 0 ? null : Math.sqrt(logs.reduce((a, l) => a + l * l, 0) / n);
   const parts: string[] = [];
   if (n + modelNothing === 0 && nonDetects === 0) parts.push('No result can be compared with the model yet (place the monitoring wells on the map).');
   else {
@@ -128,7 +137,7 @@ export function compareWithModel(wells: readonly WellObservations[]): ModelCompa
     if (nonDetects > 0)
       parts.push(`${nonDetects} result${nonDetects === 1 ? ' was' : 's were'} below the reporting limit; at ${ndAbove} of them the model is above that limit.`);
   }
-  return { detected: n, withinTen, medianLog10Ratio: median, modelNothing, nonDetects, nonDetectsModelAbove: ndAbove, words: parts.join(' ') };
+  return { detected: n, withinTen, withinTwo, medianLog10Ratio: median, meanLog10Ratio: mean, rmsLog10Ratio: rms, modelNothing, nonDetects, nonDetectsModelAbove: ndAbove, words: parts.join(' ') };
 }
 
 function geometricMean(values: number[]): number {
@@ -253,4 +262,48 @@ export function analyseObservations(c: Case, prepared?: PreparedCase): Observati
     comparison: compareWithModel(wells),
     warnings,
   };
+}
+
+/** A modelled breakthrough curve at a monitoring well's screen, to draw its measured series on. */
+export interface WellCurve {
+  /** days since the release began (or, without a release date, days since the first result's date) */
+  readonly times: number[];
+  /** modelled mg/L at the screen (the steady state, flat, when there is no release date) */
+  readonly values: number[];
+  /** the case's other solution at the same times, when it applies to the case (else null) */
+  readonly alternate: number[] | null;
+  /** the measured series on the same time axis */
+  readonly points: { t: number; mgL: number; nonDetect: boolean; date: string }[];
+  /** day number of t = 0 (the release date, or the first result's date) */
+  readonly origin: number;
+  /** whether t counts from the release (false: from the first result, model at steady state) */
+  readonly sinceRelease: boolean;
+}
+
+/**
+ * The model at a placed monitoring well over the span of its results: 120 times from the release to
+ * a fifth past the last result (at least a year), so the measured series fills the chart. Null
+ * when the well is not placed, has no results of the compared analyte, or the case cannot be
+ * prepared.
+ */
+export function wellCurve(c: Case, prep: PreparedCase, well: WellObservations, alternateKind: 'domenico' | 'exact' | null = null): WellCurve | null {
+  if (!well.placed || well.x === null || well.y === null || well.series.length === 0) return null;
+  const release = c.monitoring.releaseDate ? dayNumber(c.monitoring.releaseDate) : null;
+  const days = well.series.map((p) => dayNumber(p.date)!);
+  const origin = release ?? Math.min(...days);
+  const last = Math.max(...days) - origin;
+  const tEnd = Math.max(365.25, 1.2 * last);
+  const times = Array.from({ length: 120 }, (_, k) => (tEnd * (k + 1)) / 120);
+  const screen = { x: well.x, y: well.y, zTop: well.zTop, zBottom: Math.max(well.zTop, well.zBottom) };
+  let values: number[];
+  let alternate: number[] | null = null;
+  if (release !== null) {
+    values = Array.from(breakthroughCurve(prep.model, screen, times));
+    if (alternateKind && alternateKind !== prep.model.solution) alternate = Array.from(breakthroughCurve(prep.model, screen, times, alternateKind));
+  } else {
+    const steady = screenAverage(prep.model, screen, Infinity);
+    values = times.map(() => steady);
+  }
+  const points = well.series.map((p) => ({ t: dayNumber(p.date)! - origin, mgL: p.mgL, nonDetect: p.nonDetect, date: p.date }));
+  return { times, values, alternate, points, origin, sinceRelease: release !== null };
 }

@@ -4,10 +4,10 @@
  */
 import { signal } from '@preact/signals';
 
-export type MapTool = 'move' | 'trace-footprint' | 'place-source' | 'add-receptor' | 'add-head';
+export type MapTool = 'move' | 'trace-footprint' | 'place-source' | 'add-receptor' | 'add-head' | 'add-monitoring';
 
 export const mapTool = signal<MapTool>('move');
-/** id of the selected receptor or head reading */
+/** id of the selected receptor, head reading or monitoring well */
 export const selectedId = signal<string | null>(null);
 /** while the plume animation plays: the time shown, d; null when not playing */
 export const playTime = signal<number | null>(null);

@@ -7,17 +7,18 @@ import type { ComponentChildren } from 'preact';
 import { concentrationScale, linearScale, type Scale } from './axes';
 import { fromInternal, UNITS } from '../../core/units';
 
-const W = 360;
-const H = 210;
-const M = { l: 58, r: 12, t: 12, b: 42 };
+/** The chart's drawing box (viewBox units) and margins, shared with charts/MonitoringCharts.tsx. */
+export const W = 360;
+export const H = 210;
+export const M = { l: 58, r: 12, t: 12, b: 42 };
 
-function pathOf(xs: number[], ys: number[], sx: (v: number) => number, sy: Scale): string {
+export function pathOf(xs: number[], ys: number[], sx: (v: number) => number, sy: Scale): string {
   let d = '';
   for (let k = 0; k < xs.length; k++) d += `${k ? 'L' : 'M'}${sx(xs[k]).toFixed(1)} ${sy(ys[k]).toFixed(1)}`;
   return d;
 }
 
-function Frame(props: {
+export function Frame(props: {
   title: string;
   xLabel: string;
   yLabel: string;
@@ -27,6 +28,8 @@ function Frame(props: {
   testid?: string;
   /** names of the solid and dashed curves, shown under the chart */
   legend?: { main: string; alt: string | null };
+  /** more entries of the key (drawn overlays), after the limit */
+  keyExtra?: ComponentChildren;
 }) {
   const { sx, sy } = props;
   return (
@@ -77,14 +80,14 @@ function Frame(props: {
             </>
           )}{' '}
           <span class="dg-key-line dg-key-limit" aria-hidden="true" />
-          limit
+          limit{props.keyExtra}
         </p>
       )}
     </figure>
   );
 }
 
-function LimitLine({ sy, limit, label }: { sy: Scale; limit: number; label: string }) {
+export function LimitLine({ sy, limit, label }: { sy: Scale; limit: number; label: string }) {
   const y = sy(limit);
   return (
     <g class="dg-chart-limit">
@@ -96,13 +99,13 @@ function LimitLine({ sy, limit, label }: { sy: Scale; limit: number; label: stri
   );
 }
 
-function solutionKey(solution: string, withAlt: boolean): { main: string; alt: string | null } {
+export function solutionKey(solution: string, withAlt: boolean): { main: string; alt: string | null } {
   const name = (s: string) => (s === 'domenico' ? 'Domenico (approximate)' : 'exact solution');
   return { main: name(solution), alt: withAlt ? name(solution === 'domenico' ? 'exact' : 'domenico') : null };
 }
 
 /** Time axis unit: years when the horizon is longer than two years, else days. */
-function timeUnit(horizon: number): 'yr' | 'd' {
+export function timeUnit(horizon: number): 'yr' | 'd' {
   return horizon > 2 * 365.25 ? 'yr' : 'd';
 }
 

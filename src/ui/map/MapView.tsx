@@ -89,10 +89,15 @@ const TOOLS: { id: MapTool; label: string; hint: string }[] = [
   { id: 'add-head', label: '+ Water level', hint: 'Tap each monitoring well (three or more) and enter its water level' },
 ];
 
+/** Tools started from a panel rather than the tool bar (the bar keeps one row on a tablet), with their hints. */
+const PANEL_TOOL_HINTS: Partial<Record<MapTool, string>> = {
+  'add-monitoring': 'Tap the map where the monitoring well is; then enter its results in “What was measured?”',
+};
+
 /** What the active tool does, over the top of the map (so the map keeps its size: a tap lands where the finger is). */
 function ToolHint() {
   const tool = mapTool.value;
-  const hint = TOOLS.find((t) => t.id === tool)?.hint ?? '';
+  const hint = TOOLS.find((t) => t.id === tool)?.hint ?? PANEL_TOOL_HINTS[tool] ?? '';
   return tool !== 'move' ? (
     <p class="dg-tool-hint" role="status" data-testid="tool-hint">
       {hint}

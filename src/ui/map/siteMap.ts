@@ -4,7 +4,8 @@
  * both become Leaflet's LatLng(y, x) — the local frame uses Leaflet's plain CRS, one unit a metre.
  *
  * Gestures by tool: move (pan; drag marks), trace-footprint (finger traces the release outline),
- * place-source (tap puts the release point), add-receptor and add-head (tap adds a point).
+ * place-source (tap puts the release point), add-receptor, add-head and add-monitoring (tap adds a
+ * point; the monitoring wells are their own layer, monitoringLayer.ts).
  * The flow arrow's round handle turns the flow direction when the flow is given by direction.
  */
 import * as L from 'leaflet';
@@ -17,6 +18,7 @@ import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
+import { MonitoringLayer } from './monitoringLayer';
 import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource, setFootprint } from '../frame';
@@ -64,6 +66,7 @@ export class SiteMap {
   private flowHandle: L.Marker;
   private receptors = new Map<string, L.Marker>();
   private heads = new Map<string, L.Marker>();
+  private monitoring: MonitoringLayer | null = null;
   /** the plume's band paths by band index (see syncPlume) */
   private bands: L.Polygon[] = [];
   private plumeDrawn: PlumeLayer | null = null;
@@ -123,6 +126,10 @@ export class SiteMap {
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
     this.disposers.push(effect(() => guarded('marks', () => this.syncCase(currentCase.value, selectedId.value, currentResults.value))));
     this.disposers.push(effect(() => guarded('plume', () => this.syncPlume(currentPlume.value))));
+    this.monitoring = new MonitoringLayer(this.map, (moved) => {
+      this.placeLabels();
+      if (this.synced && moved.length && !this.innerView().contains(L.latLngBounds(moved))) this.bringIntoView(L.latLngBounds(moved));
+    });
     this.disposers.push(effect(() => (playTime.value === null ? guarded('frame', () => this.framePlume()) : undefined)));
     this.disposers.push(
       effect(() => {
@@ -167,6 +174,7 @@ export class SiteMap {
 
   destroy(): void {
     for (const d of this.disposers) d();
+    this.monitoring?.destroy();
     registerMapElement(null);
     this.map.remove();
   }
@@ -174,7 +182,7 @@ export class SiteMap {
   // ---- framing ---------------------------------------------------------------------------
   /**
    * The map frames the case by itself (on opening: the release, the receptors, the water-level
-   * wells and the limit contour at the view time; again when the plume or a point set from the
+   * and monitoring wells and the limit contour at the view time; again when the plume or a point set from the
    * panel leaves the view) until the user pans or zooms. After that it leaves the view alone, but
    * a point placed outside it still comes into view (the view grows just enough). The frame
    * button hands the framing back to the map.
@@ -189,6 +197,7 @@ export class SiteMap {
   private frameTargets(c: Case, plume: PlumeLayer | null): L.LatLngBounds {
     const pts = [c.site.source.position, ...c.site.receptors.map((r) => r.position)];
     if (c.site.flow.method === 'heads') pts.push(...c.site.flow.readings.map((r) => r.position));
+    for (const w of c.monitoring.wells) if (w.position) pts.push(w.position);
     if (c.site.source.footprint) pts.push(...c.site.source.footprint);
     const b = L.latLngBounds(pts.map(toLatLng));
     const limitBand = plume ? bandBounds(plume, 0) : null;
@@ -268,7 +277,7 @@ export class SiteMap {
       this.labelsQueued = false;
       const width = this.map.getSize().x;
       if (!width) return;
-      for (const m of [...this.receptors.values(), ...this.heads.values()]) {
+      for (const m of [...this.receptors.values(), ...this.heads.values(), ...(this.monitoring?.marks.values() ?? [])]) {
         const el = m.getElement();
         const label = el?.querySelector<HTMLElement>('.dg-mark-label');
         if (!el || !label) continue;

@@ -65,6 +65,20 @@ export function headIcon(label: string, selected: boolean): L.DivIcon {
   return icon(svg, `dg-mark-head${selected ? ' dg-selected' : ''}`, label, label);
 }
 
+/**
+ * A monitoring (sampling) well: a sample vial seen side-on, with its fill line — observed, not
+ * protected, so it reads apart from the receptors (ring, drop, square, flag, diamond) and from the
+ * water-level triangle.
+ */
+export function monitoringIcon(name: string, label: string, selected: boolean): L.DivIcon {
+  const vial = 'M-7 -12H7V4A7 7 0 0 1 -7 4Z';
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">
+    <path d="${vial}" fill="var(--mark-monitor)" ${halo}/>
+    <path d="${vial}" fill="none" stroke="var(--mark-ink)" stroke-width="2" stroke-linejoin="round"/>
+    <path d="M-7 -3H7" stroke="var(--mark-ink)" stroke-width="2"/></svg>`;
+  return icon(svg, `dg-mark-monitor${selected ? ' dg-selected' : ''}`, `Monitoring well ${name}${label === name ? '' : `, ${label}`}`, label);
+}
+
 /** The flow handle at the arrow's tip: a round grip. */
 export function flowHandleIcon(): L.DivIcon {
   const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">

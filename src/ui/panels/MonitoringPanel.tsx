@@ -4,7 +4,7 @@
  * adopted as a what-if variant (never into the open case). The figures and their wording come from
  * src/case (observations.ts, observations-text.ts, fit.ts), the same as the report and the CLI.
  */
-import { useState } from 'preact/hooks';
+import { useMemo, useState } from 'preact/hooks';
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
 import { analyseObservations } from '../../case/observations';
@@ -24,11 +24,18 @@ import { FIT_LABELS, FIT_PARAMETERS, adoptFitAsVariant, fitCase, type FitParamet
 import { openVariant } from '../../app/actions';
 import { newId } from '../../case/defaults';
 import { WellTrendTable } from '../library/ReportObservations';
+import { MonitoringWells } from './MonitoringWells';
+import { lazyPart } from '../lazy';
+import type { Case } from '../../case/schema';
+import type { ObservationSummary } from '../../case/observations';
+
+const ModelScatter = lazyPart(() => import('../charts/MonitoringCharts').then((m) => m.ModelScatter), 'chart');
 
 export function MonitoringPanel() {
   const c = currentCase.value;
   const m = c.monitoring;
-  const summary = m.results.length ? `${m.wells.length} monitoring wells, ${m.results.length} results` : 'no monitoring data yet';
+  const summary = m.results.length || m.wells.length ? `${m.wells.length} monitoring well${m.wells.length === 1 ? '' : 's'}, ${m.results.length} result${m.results.length === 1 ? '' : 's'}` : 'no monitoring data yet';
+  const analysis = useMemo(() => (m.wells.length || m.results.length ? analyseObservations(c) : null), [c]);
   return (
     <Section id="monitoring" title="What was measured?" summary={summary}>
       <label class="dg-field">
@@ -42,8 +49,9 @@ export function MonitoringPanel() {
           }}
         />
       </label>
+      <MonitoringWells summary={analysis} />
       <ImportStep />
-      {m.results.length > 0 && <Summary />}
+      {m.results.length > 0 && analysis && <Summary c={c} s={analysis} />}
       {m.results.length > 0 && <FitStep />}
     </Section>
   );
@@ -164,15 +172,14 @@ function ImportStep() {
   );
 }
 
-function Summary() {
-  const c = currentCase.value;
-  const s = analyseObservations(c);
+function Summary({ c, s }: { c: Case; s: ObservationSummary }) {
   const rows = observationTableRows(c, s);
   return (
     <div class="dg-monitoring-summary" data-testid="observations-summary">
       <div class="dg-table-scroll" tabIndex={0} role="region" aria-label="Trend and rates per monitoring well">
         <WellTrendTable rows={rows} class="dg-table" />
       </div>
+      <ModelScatter c={c} summary={s} />
       {observationLines(s).map((l, i) => (
         <p class="dg-note" key={i}>
           {l}
