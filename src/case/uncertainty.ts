@@ -48,6 +48,7 @@ import {
   type Sampler,
 } from '../core/uncertainty';
 import { checkSeed } from '../core/random';
+import { SCREENING_CAUTION } from './caution';
 import { normalizeDeg, sinCosDeg } from '../geo/angles';
 
 export interface InputDefinition {
@@ -468,6 +469,18 @@ export interface UncertaintyResult {
 export const UNCERTAINTY_CAUTION =
   'The probabilities are conditional on the chosen distributions and on the model’s assumptions; inputs are sampled independently (correlation between inputs is not represented). They are not a site-specific risk figure.';
 
+/**
+ * The caution wherever probabilistic results appear: the screening caution, then what the
+ * probabilistic figures are (seeded, how many realisations, with their Monte Carlo standard error,
+ * the distributions being the user's assumptions), then UNCERTAINTY_CAUTION.
+ */
+export function probabilisticCaution(runs: number, seed: number): string {
+  return (
+    `${SCREENING_CAUTION} The probabilistic figures come from ${runs} Monte Carlo realisations (Latin hypercube, seed ${seed}: the same case, seed and run count give the same figures), ` +
+    `each probability with its Monte Carlo standard error; the distributions are the user’s assumptions, not measurements. ${UNCERTAINTY_CAUTION}`
+  );
+}
+
 const Q = [0.05, 0.5, 0.95];
 function pct(values: Float64Array): Percentiles {
   const [p5, p50, p95] = percentiles(values, Q);
@@ -530,7 +543,7 @@ export function summariseRun(plan: UncertaintyPlan, block: RealisationBlock, lhs
     inputs: plan.inputs.map((p) => ({ input: p.input, label: p.definition.label, unit: p.unit, distribution: p.distribution })),
     headPlane: plan.headPlane,
     receptors,
-    caution: UNCERTAINTY_CAUTION,
+    caution: probabilisticCaution(plan.runs, plan.seed),
   };
 }
 

@@ -27,6 +27,9 @@ export interface HeadPoint {
 }
 
 export interface HeadPlaneFit {
+  /** the fitted slope of h = a·x + b·y + c: a = ∂h/∂x (east), b = ∂h/∂y (north) */
+  a: number;
+  b: number;
   gradient: number;
   azimuthDeg: number;
   /** observed − fitted head at each point, m (all 0 for three points) */
@@ -148,7 +151,7 @@ export function fitHeadPlane(points: HeadPoint[]): HeadPlaneFit {
   } else {
     warnings.push({ code: 'heads-flat', message: 'The heads define a flat water table: no flow direction.', field: 'headReadings' });
   }
-  return { gradient, azimuthDeg, residuals, rms, warnings };
+  return { a, b, gradient, azimuthDeg, residuals, rms, warnings };
 }
 
 /** The contract form: { gradient, azimuthDeg } only. */

@@ -12,7 +12,7 @@
  * a rise shorter than the sample spacing could be missed there, which the result notes.
  */
 import type { ScreeningModel, SolutionKind } from './model';
-import { relativeAt, relativeCurve, relativeGrid, relativeSeries, kinetics } from './transport';
+import { relativeAt, relativeCurve, relativeGrid, relativeSeries, kinetics, type Kinetics } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
 import { domenicoAdmits, validateModel } from './validateModel';
 import { ValidationError, inWorkingRange, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
@@ -55,8 +55,8 @@ function cAt(m: ScreeningModel, kind: SolutionKind, r: Receptor, t: number, opts
 }
 
 /** Concentration (mg/L) at a receptor as a function of time, its time-independent parts worked out once (transport.ts relativeCurve). */
-function concentrationCurve(m: ScreeningModel, kind: SolutionKind, r: Receptor): (t: number) => number {
-  const rel = relativeCurve(m, kind, r.x, r.y, r);
+function concentrationCurve(m: ScreeningModel, kind: SolutionKind, r: Receptor, k?: Kinetics): (t: number) => number {
+  const rel = relativeCurve(m, kind, r.x, r.y, r, undefined, k);
   return (t) => mgPerL(m, rel(t));
 }
 
@@ -270,11 +270,12 @@ export interface ReceptorFiguresInto {
 export function screenReceptorsInto(m: ScreeningModel, receptors: readonly Receptor[], limit: number, horizon: number, out: ReceptorFiguresInto, offset: number): void {
   validateModel(m);
   checkLimitAndHorizon(limit, horizon);
-  const continuousConstant = kinetics(m).continuousConstant;
+  const k = kinetics(m);
+  const continuousConstant = k.continuousConstant;
   for (let j = 0; j < receptors.length; j++) {
     const r = receptors[j];
     checkReceptor(r);
-    const c = concentrationCurve(m, m.solution, r);
+    const c = concentrationCurve(m, m.solution, r, k);
     const atHorizon = c(horizon);
     // a continuous, constant source rises monotonically at a fixed point: its peak is the value at the horizon
     const peak = continuousConstant ? atHorizon : peakOn(c, false, horizon).c;

@@ -169,8 +169,15 @@ export function relativeAt(
  * limit, the peak): the model's kinetics are worked out once, and for Domenico the lateral and
  * vertical factors too (they do not depend on time). Each value is the one relativeAt gives.
  */
-export function relativeCurve(m: ScreeningModel, kind: SolutionKind, x: number, y: number, depth: DepthSpan, opts?: ExactOptions): (t: number) => number {
-  const k = kinetics(m);
+export function relativeCurve(
+  m: ScreeningModel,
+  kind: SolutionKind,
+  x: number,
+  y: number,
+  depth: DepthSpan,
+  opts?: ExactOptions,
+  k: Kinetics = kinetics(m),
+): (t: number) => number {
   if (kind === 'domenico') {
     if (x < 0) return () => 0;
     const point = domenicoPointInTime(x, y, depth, k.dom);

@@ -238,7 +238,9 @@ describe('npm run screen -- case.json --runs N --seed S', () => {
     expect(village.pExceed).toBe(0);
     expect(village.arrival).toEqual({ p5: null, p50: null, p95: null });
     expect(json.uncertainty.inputs.map((i: { input: string }) => i.input)).toEqual(['hydraulicConductivity', 'effectivePorosity', 'dispersivityFactor', 'sourceConcentration']);
-    expect(json.uncertainty.caution).toBe(UNCERTAINTY_CAUTION);
+    expect(json.uncertainty.caution).toContain(UNCERTAINTY_CAUTION);
+    expect(json.uncertainty.caution).toContain(SCREENING_CAUTION);
+    expect(json.uncertainty.caution).toContain('400 Monte Carlo realisations (Latin hypercube, seed 17');
   });
 
   test('the seed and run count reproduce a run; the case file\'s seed is used when only --runs is given', () => {

@@ -14,7 +14,7 @@
  * degrees of freedom), so the spread is understated, and the result says so.
  */
 import { ValidationError } from '../validation';
-import type { HeadPoint } from '../headPlane';
+import { fitHeadPlane, headPlaneCovariance, type HeadPoint } from '../headPlane';
 
 export interface PlaneSlopeCovariance {
   readonly a: number;
@@ -31,40 +31,11 @@ export interface PlaneSlopeCovariance {
 export function planeSlopeCovariance(points: readonly HeadPoint[]): PlaneSlopeCovariance {
   const n = points.length;
   if (n < 4) throw new ValidationError('headReadings', n, 'at least 4 head readings', 'the uncertainty of a fitted plane needs at least 4 head readings (3 fix the plane exactly)');
-  let mx = 0;
-  let my = 0;
-  let mh = 0;
-  for (const p of points) {
-    mx += p.x / n;
-    my += p.y / n;
-    mh += p.head / n;
-  }
-  let sxx = 0;
-  let sxy = 0;
-  let syy = 0;
-  let sxh = 0;
-  let syh = 0;
-  for (const p of points) {
-    const dx = p.x - mx;
-    const dy = p.y - my;
-    const dh = p.head - mh;
-    sxx += dx * dx;
-    sxy += dx * dy;
-    syy += dy * dy;
-    sxh += dx * dh;
-    syh += dy * dh;
-  }
-  const det = sxx * syy - sxy * sxy;
-  if (!(det > 1e-18 * (sxx + syy) * (sxx + syy))) throw new ValidationError('headReadings', 'collinear wells', 'wells not all on one line');
-  const a = (sxh * syy - syh * sxy) / det;
-  const b = (syh * sxx - sxh * sxy) / det;
-  let ssr = 0;
-  for (const p of points) {
-    const r = p.head - (mh + a * (p.x - mx) + b * (p.y - my));
-    ssr += r * r;
-  }
-  const s2 = ssr / (n - 3);
-  return { a, b, caa: (s2 * syy) / det, cab: (-s2 * sxy) / det, cbb: (s2 * sxx) / det, dof: n - 3, s: Math.sqrt(s2) };
+  // the fit and its covariance σ²·S⁻¹ are the head plane's own (headPlane.ts), with σ² estimated by s²
+  const fit = fitHeadPlane([...points]);
+  const s2 = fit.residuals.reduce((sum, r) => sum + r * r, 0) / (n - 3);
+  const [[caa, cab], [, cbb]] = headPlaneCovariance([...points], Math.sqrt(s2));
+  return { a: fit.a, b: fit.b, caa, cab, cbb, dof: n - 3, s: Math.sqrt(s2) };
 }
 
 /** (a, b) from two standard normal deviates through the Cholesky factor of the covariance. */

@@ -6,7 +6,8 @@
  */
 import type { Case } from '../../case/schema';
 import { UNCERTAIN_INPUTS } from '../../case/schema';
-import { describeDistribution, driverSentence, INPUT_DEFINITIONS, UNCERTAINTY_CAUTION } from '../../case/uncertainty';
+import { driverSentence, probabilisticCaution } from '../../case/uncertainty';
+import { runLine, UncertainInputsList } from '../uncertainInputs';
 import { caseKeyOf, uncertaintyRun } from '../uncertaintyRun';
 import { arrivalPercentiles, intervalText, pc, peakPercentiles } from '../uncertaintyFormat';
 
@@ -20,23 +21,11 @@ export function ReportUncertainty({ c }: { c: Case }) {
     <section class="dg-report-section" data-testid="report-uncertainty">
       <h2>How sure it is (Monte Carlo)</h2>
       <p>Uncertain inputs, sampled independently (correlation between inputs is not represented):</p>
-      <ul>
-        {inputs.map((k) => {
-          const d = c.uncertainty.inputs[k]!;
-          return (
-            <li key={k}>
-              {INPUT_DEFINITIONS[k].label}: {describeDistribution(d, d.unit ?? undefined, k)}
-              {d.note ? ` (${d.note})` : ''}
-            </li>
-          );
-        })}
-        {c.uncertainty.headFit && <li>flow direction and gradient: from the least-squares covariance of the plane fitted to the head readings</li>}
-      </ul>
+      <UncertainInputsList c={c} />
       {r ? (
         <>
           <p>
-            {r.runs} realisations, seed {r.seed}, Latin hypercube sampling; {r.solution === 'exact' ? 'exact rectangular-source solution' : 'Domenico (1987)'}
-            {r.refusedCount ? `; ${r.refusedCount} realisations refused by the engine and left out` : ''}. Reproduce with{' '}
+            {runLine(r)}. Reproduce with{' '}
             <code>
               npm run screen -- case.json --runs {r.runs} --seed {r.seed}
             </code>
@@ -73,7 +62,7 @@ export function ReportUncertainty({ c }: { c: Case }) {
           on the command line: <code>npm run screen -- case.json --runs {c.uncertainty.runs} --seed {c.uncertainty.seed}</code>.
         </p>
       )}
-      <p>{UNCERTAINTY_CAUTION}</p>
+      <p>{probabilisticCaution(r?.runs ?? c.uncertainty.runs, r?.seed ?? c.uncertainty.seed)}</p>
     </section>
   );
 }

@@ -10,7 +10,8 @@
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
 import { arrivalPercentiles, intervalText, pc, peakPercentiles } from '../uncertaintyFormat';
-import { describeDistribution, driverSentence, INPUT_DEFINITIONS, UNCERTAINTY_CAUTION, type ReceptorUncertainty } from '../../case/uncertainty';
+import { driverSentence, probabilisticCaution, type ReceptorUncertainty } from '../../case/uncertainty';
+import { runLine, UncertainInputsList } from '../uncertainInputs';
 import { UNCERTAIN_INPUTS } from '../../case/schema';
 import { cancelUncertainty, caseKeyOf, startUncertainty, uncertaintyRun } from '../uncertaintyRun';
 import { MAX_RUNS } from '../../core/uncertainty';
@@ -38,22 +39,7 @@ export function UncertaintyPanel() {
       ) : (
         <>
           <p class="dg-note">Uncertain inputs (sampled independently; correlation between inputs is not represented):</p>
-          <ul class="dg-mc-inputs">
-            {inputs.map((k) => {
-              const d = c.uncertainty.inputs[k]!;
-              return (
-                <li key={k}>
-                  <strong>{INPUT_DEFINITIONS[k].label}</strong>: {describeDistribution(d, d.unit ?? undefined, k)}
-                  {d.note ? <span class="dg-note"> — {d.note}</span> : null}
-                </li>
-              );
-            })}
-            {c.uncertainty.headFit && (
-              <li>
-                <strong>flow direction and gradient</strong>: from the head readings' plane fit (least-squares covariance; understated with few readings)
-              </li>
-            )}
-          </ul>
+          <UncertainInputsList c={c} />
           <div class="dg-btn-row dg-mc-controls">
             <label>
               Realisations{' '}
@@ -116,11 +102,7 @@ export function UncertaintyPanel() {
                   Out of date: the case changed since this run. Run again for figures that match the inputs.
                 </p>
               )}
-              <p class="dg-note">
-                {r.done} realisations{r.done < r.runs ? ` of ${r.runs} (partial)` : ''}, seed {r.seed}, Latin hypercube;{' '}
-                {r.solution === 'exact' ? 'exact rectangular-source solution' : 'Domenico (1987)'}
-                {r.refusedCount ? `; ${r.refusedCount} realisations refused by the engine and left out` : ''}.
-              </p>
+              <p class="dg-note">{runLine(r)}.</p>
               <div class="dg-table-wrap">
                 <table class="dg-table">
                   <caption>Probability of reaching the limit within the horizon, and percentiles over the realisations</caption>
@@ -156,7 +138,7 @@ export function UncertaintyPanel() {
               ))}
             </div>
           )}
-          <p class="dg-caution">{UNCERTAINTY_CAUTION}</p>
+          <p class="dg-caution">{probabilisticCaution(r?.runs ?? c.uncertainty.runs, r?.seed ?? c.uncertainty.seed)}</p>
         </>
       )}
     </Section>
