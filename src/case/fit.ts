@@ -24,10 +24,11 @@ import { screenAverage } from '../core/results';
 import { fromInternal, toInternal } from '../core/units';
 import { levenbergMarquardt } from '../core/fit/levenbergMarquardt';
 import { ValidationError } from '../core/validation';
-import { normalCdf } from '../core/uncertainty/normal';
+import { normalCdf, normalQuantile } from '../core/uncertainty/normal';
 
 const normalPdf = (z: number) => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
-import type { Case } from './schema';
+import type { Case, UncertainInput, UncertainValue } from './schema';
+import type { ObservationSummary } from './observations';
 import { prepareCase, type PreparedCase } from './prepare';
 import { comparedAnalyte, dayNumber, resultMgL, wellSeries } from './monitoring';
 
@@ -135,7 +136,17 @@ export function modelledAt(model: ScreeningModel, obs: readonly FitObservation[]
   });
 }
 
-export function fitCase(c: Case, chosen: readonly FitParameter[], confidence = 0.95): FitResult {
+/** How far a fit has gone: least-squares round (the hinge start, then up to 8 EM rounds) and model evaluations. */
+export interface FitProgress {
+  readonly round: number;
+  readonly maxRounds: number;
+  readonly evaluations: number;
+}
+
+/** Rounds of least squares at most: the hinge start and 8 EM rounds. */
+export const FIT_MAX_ROUNDS = 9;
+
+export function fitCase(c: Case, chosen: readonly FitParameter[], confidence = 0.95, onProgress?: (p: FitProgress) => void): FitResult {
   if (chosen.length === 0) throw new ValidationError('fit.parameters', chosen, 'at least one parameter to fit');
   const p = prepareCase(c);
   const obs = fitObservations(c, p);
@@ -158,7 +169,11 @@ export function fitCase(c: Case, chosen: readonly FitParameter[], confidence = 0
   const lnObs = obs.map((o) => Math.log(o.mgL));
   // ystar[i]: the expected ln concentration of a non-detect given it lies below its limit (EM step)
   let ystar: (number | null)[] = obs.map(() => null);
+  let lsRound = 1;
+  let evaluations = 0;
   const residuals = (theta: readonly number[]): number[] => {
+    evaluations++;
+    onProgress?.({ round: lsRound, maxRounds: FIT_MAX_ROUNDS, evaluations });
     const lm = lnModel(theta);
     return obs.map((o, i) => {
       if (!o.nonDetect) return lnObs[i] - lm[i];
@@ -181,11 +196,12 @@ export function fitCase(c: Case, chosen: readonly FitParameter[], confidence = 0
   // 2) censored-normal (Tobit) likelihood by EM (Dempster, Laird & Rubin 1977): replace each
   //    non-detect by E[ln C | ln C < ln L] = μ − σ·φ(a)/Φ(a), a = (ln L − μ)/σ, refit, repeat
   const nd = obs.some((o) => o.nonDetect);
-  for (let round = 0; nd && round < 8; round++) {
+  for (let em = 0; nd && em < FIT_MAX_ROUNDS - 1; em++) {
+    lsRound = em + 2;
     const mu = lnModel(fit.theta);
     const det = obs.map((o, i) => (o.nonDetect ? null : lnObs[i] - mu[i])).filter((v): v is number => v !== null);
     let sigma2 = det.reduce((a, v) => a + v * v, 0) / Math.max(1, det.length);
-    if (round > 0) {
+    if (em > 0) {
       // M-step variance including the censored values' conditional second moments
       let sum = det.reduce((a, v) => a + v * v, 0);
       obs.forEach((o, i) => {
@@ -259,11 +275,59 @@ function round(v: number, digits = 4): number {
   return Number(v.toPrecision(digits));
 }
 
+/** `v` (an edited copy of `c`) made a what-if variant of `c`: a new id, `c` as its parent, a name and a note that say where it came from. */
+function markVariant(v: Case, c: Case, newId: string, now: string, suffix: string, note: string[]): Case {
+  v.id = newId;
+  v.parentId = c.id;
+  v.name = `${c.name} — ${suffix}`.slice(0, 200);
+  v.created = now;
+  v.modified = now;
+  v.notes = (note.join('\n') + (c.notes ? `\n\n${c.notes}` : '')).slice(0, 20000);
+  return v;
+}
+
+/** The percentile a `confidence` interval's ends stand at (2.5 for 95 %). */
+const endPercentile = (confidence: number) => round(50 * (1 - confidence), 6);
+
+/**
+ * The fitted values' intervals as distributions of the uncertain inputs (src/case/uncertainty.ts
+ * reads them), centred on the fitted values, in the units the case uses: the positive parameters,
+ * fitted as logarithms, as log-normal distributions whose 2.5th and 97.5th percentiles are the
+ * interval's ends (for a 95 % interval); the longitudinal dispersivity as the dispersivity factor
+ * about the fitted value (αT and αV follow in proportion); the flow direction as a normal
+ * distribution with sd = half the interval / z(97.5 %). Values without an interval are left out.
+ * The linearised intervals carry the data's scatter only (fitLines says so), so these spreads are a
+ * lower bound on the uncertainty of each input.
+ */
+export function fitDistributions(c: Case, fit: FitResult): Partial<Record<UncertainInput, UncertainValue>> {
+  const out: Partial<Record<UncertainInput, UncertainValue>> = {};
+  const pct = endPercentile(fit.confidence);
+  const note = () => `fitted to the monitoring data: ${round(fit.confidence * 100, 3)} % interval of the fit (the data's scatter only)`;
+  for (const f of fit.values) {
+    if (!f.interval) continue;
+    const [lo, hi] = f.interval;
+    if (f.parameter === 'sourceConcentration' || f.parameter === 'halfLife') {
+      if (!(lo > 0 && hi > lo)) continue;
+      const unit = f.parameter === 'sourceConcentration' ? c.source.concentration.unit : (c.contaminant.halfLife?.unit ?? 'yr');
+      out[f.parameter] = { kind: 'lognormal-range', low: round(fromInternal(lo, unit)), high: round(fromInternal(hi, unit)), percentile: pct, unit, note: note() };
+    } else if (f.parameter === 'longitudinalDispersivity') {
+      if (!(lo > 0 && hi > lo)) continue;
+      out.dispersivityFactor = { kind: 'lognormal-range', low: round(lo / f.value), high: round(hi / f.value), percentile: pct, note: note() };
+    } else {
+      const z = normalQuantile(1 - pct / 100);
+      out.flowDirection = { kind: 'normal', mean: round(((f.value % 360) + 360) % 360, 5), sd: round((hi - lo) / (2 * z)), note: note() };
+    }
+  }
+  return out;
+}
+
 /**
  * The case with the fitted values, as a what-if variant: a new id, the case as parent, a name and
- * note that say what was fitted. Values are written in the units the case already uses.
+ * note that say what was fitted. Values are written in the units the case already uses. With
+ * `withIntervals`, the fitted values' intervals also become the variant's uncertain inputs
+ * (fitDistributions), replacing any the case gave those inputs, and the note says so.
  */
-export function adoptFitAsVariant(c: Case, fit: FitResult, newId: string, now: string): Case {
+export function adoptFitAsVariant(c: Case, fit: FitResult, newId: string, now: string, withIntervals = false): Case {
   const v: Case = structuredClone(c);
   const p = prepareCase(c);
   const lines: string[] = [];
@@ -287,16 +351,52 @@ export function adoptFitAsVariant(c: Case, fit: FitResult, newId: string, now: s
     const iv = f.interval ? `, ${Math.round(fit.confidence * 100)} % interval ${round(f.interval[0], 3)} to ${round(f.interval[1], 3)}` : '';
     lines.push(`${FIT_LABELS[f.parameter]}: ${round(f.start, 4)} → ${round(f.value, 4)} (internal units: mg/L, d, m, degrees${iv})`);
   }
-  v.id = newId;
-  v.parentId = c.id;
-  v.name = `${c.name} — fitted to monitoring data`.slice(0, 200);
-  v.created = now;
-  v.modified = now;
-  v.notes = (
+  if (withIntervals) {
+    const dist = fitDistributions(c, fit);
+    const names = Object.keys(dist) as UncertainInput[];
+    for (const k of names) v.uncertainty.inputs[k] = dist[k];
+    if (names.length) lines.push(`Uncertain inputs from the fit's intervals (a lower bound on their uncertainty): ${names.join(', ')}.`);
+  }
+  return markVariant(v, c, newId, now, 'fitted to monitoring data', [
     `Fitted to ${fit.detected} detected results and ${fit.nonDetects} below the reporting limit on ${now.slice(0, 10)} ` +
-    `(least squares on ln concentration; typical misfit ×${Math.exp(fit.rmsLn).toFixed(2)}, was ×${Math.exp(fit.startRmsLn).toFixed(2)}).\n` +
-    lines.join('\n') +
-    (c.notes ? `\n\n${c.notes}` : '')
-  ).slice(0, 20000);
+      `(least squares on ln concentration; typical misfit ×${Math.exp(fit.rmsLn).toFixed(2)}, was ×${Math.exp(fit.startRmsLn).toFixed(2)}).`,
+    ...lines,
+  ]);
+}
+
+/**
+ * The case with the biodegradation rate of Buscheck & Alcantar (1995) as its half-life, as a
+ * what-if variant (the summary's `adoptableHalfLife`, which already allows for decay acting on the
+ * dissolved phase only), written in the unit of the case's half-life field (years when it has
+ * none). With `withInterval`, the rate's interval becomes the half-life's uncertain input (a
+ * log-normal whose end percentiles are the interval's, when both ends are positive rates). The note
+ * carries the caution: the bulk attenuation rate itself is not a biodegradation rate, and the
+ * method assumes a steady plume, a centreline transect and a constant source.
+ */
+export function adoptBiodegradationAsVariant(c: Case, s: ObservationSummary, newId: string, now: string, withInterval = false): Case {
+  const b = s.biodegradationRate;
+  if (!b || s.adoptableHalfLife === null)
+    throw new ValidationError('monitoring.results', null, 'a positive biodegradation rate from at least two centreline wells', s.ratesNote ?? 'no biodegradation rate could be formed');
+  const unit = c.contaminant.halfLife?.unit ?? 'yr';
+  const v = markVariant(structuredClone(c), c, newId, now, 'biodegradation rate from monitoring data', [
+    `Half-life from the biodegradation rate of Buscheck & Alcantar (1995), as set out by Newell et al. (2002), on ${now.slice(0, 10)}: ` +
+      `λ = ${round(b.rate, 3)} /d` +
+      (b.interval ? ` (${Math.round(b.confidence * 100)} % interval ${round(b.interval[0], 3)} to ${round(b.interval[1], 3)} /d)` : '') +
+      ` from ${s.bulkRate?.used ?? 0} centreline wells; the case's half-life was ${c.contaminant.halfLife ? `${c.contaminant.halfLife.value} ${c.contaminant.halfLife.unit}` : 'none (no decay)'}.`,
+    'Caution: the bulk attenuation rate along the centreline is not a biodegradation rate (it includes dispersion); the biodegradation rate derived from it assumes a steady plume and a constant source, and may overestimate degradation for a source narrow against the plume (Newell et al. 2002). Use it as a what-if, not as a site value, until the data support it.',
+  ]);
+  v.contaminant.halfLife = { value: round(fromInternal(s.adoptableHalfLife, unit)), unit };
+  if (withInterval && b.interval && b.interval[0] > 0) {
+    const k = s.adoptableHalfLife * b.rate; // ln 2 (or ln 2 / R for dissolved-only decay): t½ = k / λ
+    v.uncertainty.inputs.halfLife = {
+      kind: 'lognormal-range',
+      low: round(fromInternal(k / b.interval[1], unit)),
+      high: round(fromInternal(k / b.interval[0], unit)),
+      percentile: endPercentile(b.confidence),
+      unit,
+      note: `from the Buscheck & Alcantar rate's ${Math.round(b.confidence * 100)} % interval (monitoring data)`,
+    };
+    v.notes = `${v.notes.split('\n')[0]}\nThe half-life is also an uncertain input from the rate's interval.\n${v.notes.split('\n').slice(1).join('\n')}`.slice(0, 20000);
+  }
   return v;
 }

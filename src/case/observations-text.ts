@@ -1,6 +1,7 @@
 /**
  * The observation summary in words and table rows, shared by the command line and the printed
- * report (one wording for both). Concentrations in the case's limit unit; Sen's slope in that unit
+ * report (one wording for both). Numbers through src/case/numbers.ts (formatSig: 3 significant digits,
+ * 2 for p-values). Concentrations in the case's limit unit; Sen's slope in that unit
  * per year; rates per day with the half-life they correspond to.
  */
 import { fromInternal, UNITS } from '../core/units';
@@ -8,25 +9,21 @@ import { POINT_RATE_CAUTION } from '../core/trends/index';
 import type { Case } from './schema';
 import type { ObservationSummary } from './observations';
 import { resultText } from './monitoring';
+import { formatSig } from './numbers';
 import { FIT_LABELS, type FitResult } from './fit';
 
 const YEAR = 365.25;
 
-export function sig(v: number, digits = 3): string {
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  return a >= 1e-3 && a < 1e6 ? String(Number(v.toPrecision(digits))) : v.toExponential(digits - 1);
-}
 
 function halfLifeText(rate: number): string {
   if (!(rate > 0)) return 'no decline';
   const d = Math.LN2 / rate;
-  return d < YEAR ? `half-life ${sig(d)} d` : `half-life ${sig(d / YEAR)} yr`;
+  return d < YEAR ? `half-life ${formatSig(d, 3)} d` : `half-life ${formatSig(d / YEAR, 3)} yr`;
 }
 
 export function rateText(rate: number, interval: readonly [number, number] | null, confidence: number): string {
-  const ci = interval ? ` (${Math.round(confidence * 100)} % interval ${sig(interval[0])} to ${sig(interval[1])})` : ' (no interval)';
-  return `${sig(rate)} /d${ci}, ${halfLifeText(rate)}`;
+  const ci = interval ? ` (${Math.round(confidence * 100)} % interval ${formatSig(interval[0], 3)} to ${formatSig(interval[1], 3)})` : ' (no interval)';
+  return `${formatSig(rate, 3)} /d${ci}, ${halfLifeText(rate)}`;
 }
 
 export const OBSERVATION_TABLE_HEADER = ['well', 'rounds', 'latest', 'trend', 'S', 'p', "Sen's slope", 'point decay rate'];
@@ -46,8 +43,8 @@ export function observationTableRows(c: Case, s: ObservationSummary): string[][]
         w.latest ? `${resultText(w.latest)} (${w.latest.date})` : '—',
         w.trend.verdict,
         mk ? String(mk.s) : '—',
-        mk ? sig(mk.p, 2) + (mk.pMethod === 'exact' ? ' (exact)' : '') : '—',
-        sen ? `${sig(fromInternal(sen.slope, unit) * YEAR)} ${label}/yr` : '—',
+        mk ? formatSig(mk.p, 2) + (mk.pMethod === 'exact' ? ' (exact)' : '') : '—',
+        sen ? `${formatSig(fromInternal(sen.slope, unit) * YEAR, 3)} ${label}/yr` : '—',
         w.pointRate ? rateText(w.pointRate.rate, w.pointRate.interval, w.pointRate.confidence) : (w.pointRateNote ?? '—'),
       ];
     });
@@ -67,7 +64,7 @@ export function observationLines(s: ObservationSummary): string[] {
     const b = s.biodegradationRate;
     lines.push(
       `Biodegradation rate (Buscheck & Alcantar 1995, per Newell et al. 2002): ${rateText(b.rate, b.interval, b.confidence)}` +
-        (s.adoptableHalfLife ? `; as the case's half-life ${sig(s.adoptableHalfLife / YEAR)} yr.` : '.'),
+        (s.adoptableHalfLife ? `; as the case's half-life ${formatSig(s.adoptableHalfLife / YEAR, 3)} yr.` : '.'),
     );
   }
   if (s.ratesNote) lines.push(s.ratesNote);
@@ -91,8 +88,8 @@ export function observationLines(s: ObservationSummary): string[] {
 export function fitLines(f: FitResult): string[] {
   const unit: Record<string, string> = { sourceConcentration: 'mg/L', halfLife: 'd', longitudinalDispersivity: 'm', flowDirection: '° from north' };
   const lines = f.values.map((v) => {
-    const iv = v.interval ? `, ${Math.round(f.confidence * 100)} % interval ${sig(v.interval[0])} to ${sig(v.interval[1])}` : ', no interval';
-    return `${FIT_LABELS[v.parameter]}: ${sig(v.value)} ${unit[v.parameter]} (case: ${sig(v.start)}${iv})`;
+    const iv = v.interval ? `, ${Math.round(f.confidence * 100)} % interval ${formatSig(v.interval[0], 3)} to ${formatSig(v.interval[1], 3)}` : ', no interval';
+    return `${FIT_LABELS[v.parameter]}: ${formatSig(v.value, 3)} ${unit[v.parameter]} (case: ${formatSig(v.start, 3)}${iv})`;
   });
   lines.push(
     `Fitted to ${f.detected} detected results and ${f.nonDetects} below the reporting limit (least squares on ln concentration; non-detects as censored values). Typical misfit ×${Math.exp(f.rmsLn).toFixed(2)} (the case's inputs: ×${Math.exp(f.startRmsLn).toFixed(2)}).`,

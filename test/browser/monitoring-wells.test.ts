@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
-import { openDemo, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+import { openDemo, storedCases, useBrowser, waitSaved, watchedPage } from './offline-helpers';
 import { axe } from './axe-helpers';
 
 const getBrowser = useBrowser();
@@ -78,7 +78,7 @@ describe('monitoring wells in the app', () => {
     // hand entry: text in the value is refused naming the field, and nothing is stored
     const before = (await monitoring(page)).results.length;
     const entry = detail.getByTestId('result-entry');
-    await entry.locator('[data-entry=date]').fill('2025-03-04');
+    await entry.locator('[data-entry=date]').fill('2023-11-20');
     await entry.locator('[data-entry=value]').fill('twelve');
     await entry.locator('[data-action=add-result]').click();
     expect(await entry.getByTestId('result-entry-error').textContent()).toMatch(/^Measured value: enter a number ≥ 0.*Nothing was stored\.$/);
@@ -88,17 +88,17 @@ describe('monitoring wells in the app', () => {
     await entry.locator('[data-entry=unit]').selectOption('ug/L');
     await entry.locator('[data-action=add-result]').click();
     await expect.poll(async () => (await monitoring(page)).results.length).toBe(before + 1);
-    const added = (await monitoring(page)).results.find((r) => r.wellId === 'mw-3' && r.date === '2025-03-04')!;
+    const added = (await monitoring(page)).results.find((r) => r.wellId === 'mw-3' && r.date === '2023-11-20')!;
     expect(added).toMatchObject({ value: 0.5, unit: 'ug/L', nonDetect: true, analyte: 'benzene' });
-    expect(await detail.locator('[data-testid=monitoring-results] tbody tr').first().textContent()).toMatch(/2025-03-04benzene< 0.5 µg\/L \(not detected\)/);
+    expect(await detail.locator('[data-testid=monitoring-results] tbody tr', { hasText: '2023-11-20' }).textContent()).toMatch(/2023-11-20benzene< 0.5 µg\/L \(not detected\)/);
     // the same date again is refused
-    await entry.locator('[data-entry=date]').fill('2025-03-04');
+    await entry.locator('[data-entry=date]').fill('2023-11-20');
     await entry.locator('[data-entry=value]').fill('3');
     await entry.locator('[data-action=add-result]').click();
     expect(await entry.getByTestId('result-entry-error').textContent()).toMatch(/already has a benzene result at this well \(< 0.5 µg\/L\)/);
     expect((await monitoring(page)).results.length).toBe(before + 1);
     // delete it, and undo the deletion
-    await detail.getByRole('button', { name: 'Delete the 2025-03-04 benzene result' }).click();
+    await detail.getByRole('button', { name: 'Delete the 2023-11-20 benzene result' }).click();
     await expect.poll(async () => (await monitoring(page)).results.length).toBe(before);
     await detail.getByTestId('undo-result').getByRole('button', { name: 'Undo' }).click();
     await expect.poll(async () => (await monitoring(page)).results.length).toBe(before + 1);
@@ -120,6 +120,53 @@ describe('monitoring wells in the app', () => {
     await expect.poll(async () => JSON.stringify((await monitoring(page)).wells[5].position)).toBe('[60,-12.5]');
     expect(await coords.textContent()).toMatch(/60 m downgradient of the release, -12.5 m across the flow/);
     await page.screenshot({ path: artifactPath('monitoring-new-well-landscape.png') });
+
+    // the biodegradation rate adopted as the half-life of a what-if variant (the case stays as it is)
+    const adopt = page.getByTestId('adopt-rate');
+    expect(await adopt.textContent()).toMatch(/not a\s+biodegradation rate/);
+    await adopt.getByTestId('adopt-rate-button').click();
+    await expect.poll(async () => (await storedCases(page)).map((s) => s.name).join('|')).toMatch(/biodegradation rate from monitoring data/);
+    const variant = (await storedCases(page)).find((s) => /biodegradation rate from monitoring data/.test(s.name))!.data as {
+      contaminant: { halfLife: { value: number; unit: string } };
+      uncertainty: { inputs: { halfLife?: { kind: string } } };
+    };
+    expect(variant.contaminant.halfLife.unit).toBe(demo.contaminant.halfLife.unit);
+    expect(variant.contaminant.halfLife.value).not.toBe(demo.contaminant.halfLife.value);
+    expect(variant.uncertainty.inputs.halfLife?.kind).toBe('lognormal-range');
+    expect(w.pageErrors).toEqual([]);
+    await context.close();
+  });
+});
+
+describe('the fit runs off the main thread', () => {
+  it('shows its progress, can be cancelled with nothing changed, and its values adopted with their intervals', async () => {
+    const w = await watchedPage(getBrowser(), LANDSCAPE);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page, DEMO);
+    await page.getByRole('radio', { name: 'Exact rectangular source' }).click();
+    await page.locator('[data-section=monitoring] .dg-sec-toggle').click();
+    const fit = page.getByTestId('fit');
+    await fit.getByLabel('longitudinal dispersivity').check();
+    await fit.getByLabel('flow direction').check();
+    await fit.getByTestId('fit-run').click();
+    await fit.getByTestId('fit-progress').waitFor();
+    await page.screenshot({ path: artifactPath('monitoring-fit-progress-landscape.png') });
+    await fit.getByTestId('fit-cancel').click();
+    await expect.poll(async () => (await fit.textContent()) ?? '').toMatch(/Fit cancelled; nothing was changed\./);
+    expect(await fit.getByTestId('fit-result').count()).toBe(0);
+    // while a fit runs the page keeps responding (the worker does the work)
+    await fit.getByTestId('fit-run').click();
+    const t0 = Date.now();
+    await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => r(null))));
+    expect(Date.now() - t0).toBeLessThan(1000); // a frame, not the fit's seconds (generous: shared machine)
+    await fit.getByTestId('fit-result').waitFor({ timeout: 60_000 });
+    expect(await fit.getByTestId('fit-with-intervals').isChecked()).toBe(true);
+    await fit.getByTestId('fit-adopt').click();
+    await expect.poll(async () => (await storedCases(page)).map((s) => s.name).join('|')).toMatch(/fitted to monitoring data/);
+    const v = (await storedCases(page)).find((s) => /fitted to monitoring data/.test(s.name))!.data as { uncertainty: { inputs: Record<string, unknown> } };
+    expect(Object.keys(v.uncertainty.inputs).sort()).toEqual(expect.arrayContaining(['dispersivityFactor', 'flowDirection', 'halfLife', 'sourceConcentration']));
     expect(w.pageErrors).toEqual([]);
     await context.close();
   });

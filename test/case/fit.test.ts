@@ -19,7 +19,10 @@ import fixture from '../fixtures/trends/trends.json';
 import { levenbergMarquardt, screenAverage } from '../../src/core/index';
 import { migrateCase } from '../../src/case/migrate';
 import { prepareCase } from '../../src/case/prepare';
-import { adoptFitAsVariant, fitCase, fitObservations, modelledAt } from '../../src/case/fit';
+import { adoptBiodegradationAsVariant, adoptFitAsVariant, fitCase, fitDistributions, fitObservations, modelledAt } from '../../src/case/fit';
+import { analyseObservations } from '../../src/case/observations';
+import { planUncertainty } from '../../src/case/uncertainty';
+import { fromInternal, toInternal } from '../../src/core/units';
 import { isoFromDay, dayNumber, type SamplingResult } from '../../src/case/monitoring';
 import type { Case } from '../../src/case/schema';
 import { Prng } from '../core/helpers/check';
@@ -113,5 +116,56 @@ describe('adopting a fit', () => {
     expect(v.contaminant.halfLife!.unit).toBe('yr');
     expect(v.contaminant.halfLife!.value).not.toBe(c.contaminant.halfLife!.value);
     expect(() => migrateCase(JSON.parse(JSON.stringify(v)))).not.toThrow();
+  });
+});
+
+describe('fitted values into the case: variants and uncertain inputs', () => {
+  // Reference: the interval of a parameter fitted as a logarithm is symmetric in the logarithm, so
+  // the log-normal whose 2.5th and 97.5th percentiles are its ends has the fitted value as median
+  // (exp of the mean of the ends' logarithms); z(0.975) = 1.959964 (standard normal table).
+  const depotCase = (): Case => migrateCase(JSON.parse(readFileSync('cases/depot-benzene-monitoring.json', 'utf8')));
+
+  it('the intervals become distributions centred on the fitted values, which a Monte Carlo run accepts', () => {
+    const c = depotCase();
+    const fit = fitCase(c, ['sourceConcentration', 'halfLife', 'longitudinalDispersivity', 'flowDirection']);
+    const d = fitDistributions(c, fit);
+    const byName = Object.fromEntries(fit.values.map((v) => [v.parameter, v]));
+    const c0 = d.sourceConcentration!;
+    expect(c0).toMatchObject({ kind: 'lognormal-range', percentile: 2.5, unit: c.source.concentration.unit });
+    if (c0.kind !== 'lognormal-range') return;
+    expect(Math.sqrt(c0.low * c0.high)).toBeCloseTo(fromInternal(byName.sourceConcentration.value, c0.unit!), 2);
+    const hl = d.halfLife!;
+    if (hl.kind !== 'lognormal-range') throw new Error('half-life: expected a log-normal range');
+    expect(Math.sqrt(hl.low * hl.high) / fromInternal(byName.halfLife.value, hl.unit!)).toBeCloseTo(1, 3);
+    const f = d.dispersivityFactor!;
+    if (f.kind !== 'lognormal-range') throw new Error('dispersivity: expected a log-normal range');
+    expect(Math.sqrt(f.low * f.high)).toBeCloseTo(1, 3);
+    const dir = d.flowDirection!;
+    if (dir.kind !== 'normal') throw new Error('direction: expected a normal distribution');
+    const iv = byName.flowDirection.interval!;
+    expect(dir.sd).toBeCloseTo((iv[1] - iv[0]) / (2 * 1.959964), 3);
+    const v = adoptFitAsVariant(c, fit, 'v-1', '2026-01-02T00:00:00.000Z', true);
+    expect(Object.keys(v.uncertainty.inputs).sort()).toEqual(['dispersivityFactor', 'flowDirection', 'halfLife', 'sourceConcentration']);
+    expect(v.notes).toMatch(/Uncertain inputs from the fit's intervals/);
+    const plan = planUncertainty(v, { runs: 50, seed: 3 });
+    expect(plan.inputs.length).toBe(4);
+    expect(c.uncertainty.inputs).toEqual(depotCase().uncertainty.inputs); // the case itself unchanged
+  });
+
+  it('the biodegradation rate becomes the half-life of a variant, in the field\'s own unit, with the caution', () => {
+    const c = depotCase();
+    const s = analyseObservations(c);
+    const v = adoptBiodegradationAsVariant(c, s, 'v-2', '2026-01-02T00:00:00.000Z', true);
+    expect(v.parentId).toBe(c.id);
+    expect(v.contaminant.halfLife!.unit).toBe(c.contaminant.halfLife!.unit);
+    expect(toInternal(v.contaminant.halfLife!.value, v.contaminant.halfLife!.unit)).toBeCloseTo(s.adoptableHalfLife!, -1);
+    expect(v.notes).toMatch(/not a biodegradation rate/);
+    const hl = v.uncertainty.inputs.halfLife!;
+    if (hl.kind !== 'lognormal-range') throw new Error('expected a log-normal range');
+    const [lo, hi] = s.biodegradationRate!.interval!;
+    expect(toInternal(hl.low, hl.unit!)).toBeCloseTo((s.adoptableHalfLife! * s.biodegradationRate!.rate) / hi, -1);
+    expect(toInternal(hl.high, hl.unit!)).toBeCloseTo((s.adoptableHalfLife! * s.biodegradationRate!.rate) / lo, -1);
+    expect(c.contaminant.halfLife).toEqual(depotCase().contaminant.halfLife);
+    expect(() => adoptBiodegradationAsVariant(c, { ...s, biodegradationRate: null, adoptableHalfLife: null }, 'x', 'now')).toThrow(/biodegradation rate/);
   });
 });

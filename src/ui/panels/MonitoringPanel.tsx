@@ -4,7 +4,7 @@
  * adopted as a what-if variant (never into the open case). The figures and their wording come from
  * src/case (observations.ts, observations-text.ts, fit.ts), the same as the report and the CLI.
  */
-import { useMemo, useState } from 'preact/hooks';
+import { useEffect, useMemo, useState } from 'preact/hooks';
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
 import { analyseObservations } from '../../case/observations';
@@ -20,7 +20,10 @@ import {
   type DateOrder,
   type ObservationTable,
 } from '../../case/observations-import';
-import { FIT_LABELS, FIT_PARAMETERS, adoptFitAsVariant, fitCase, type FitParameter, type FitResult } from '../../case/fit';
+import { FIT_LABELS, FIT_PARAMETERS, adoptBiodegradationAsVariant, adoptFitAsVariant, type FitParameter, type FitProgress, type FitResult } from '../../case/fit';
+import { startFit, FitCancelled, type FitRun } from '../fitRun';
+import { formatSig } from '../../case/numbers';
+import { fromInternal, UNITS } from '../../core/units';
 import { openVariant } from '../../app/actions';
 import { newId } from '../../case/defaults';
 import { WellTrendTable } from '../library/ReportObservations';
@@ -185,6 +188,7 @@ function Summary({ c, s }: { c: Case; s: ObservationSummary }) {
           {l}
         </p>
       ))}
+      <AdoptRate c={c} s={s} />
     </div>
   );
 }
@@ -194,7 +198,28 @@ function FitStep() {
   const [chosen, setChosen] = useState<FitParameter[]>(['sourceConcentration', 'halfLife']);
   const [fit, setFit] = useState<{ result: FitResult; caseStamp: string } | null>(null);
   const [error, setError] = useState<string | null>(null);
+  const [running, setRunning] = useState<{ run: FitRun; started: number; progress: FitProgress | null } | null>(null);
+  const [withIntervals, setWithIntervals] = useState(true);
   const current = fit && fit.caseStamp === c.modified ? fit.result : null;
+  useEffect(() => () => running?.run.cancel(), [running?.run]);
+  const start = () => {
+    setError(null);
+    const stamp = c.modified;
+    const started = performance.now();
+    const run = startFit(c, chosen, (progress) => setRunning((r) => (r && r.run === run ? { ...r, progress } : r)));
+    setRunning({ run, started, progress: null });
+    run.done.then(
+      (result) => {
+        setFit({ result, caseStamp: stamp });
+        setRunning(null);
+      },
+      (e: Error) => {
+        setRunning((r) => (r && r.run === run ? null : r));
+        if (!(e instanceof FitCancelled)) setError(e.message);
+        else setError('Fit cancelled; nothing was changed.');
+      },
+    );
+  };
   return (
     <fieldset class="dg-fit" data-testid="fit">
       <legend>Fit the model to the measurements</legend>
@@ -203,41 +228,26 @@ function FitStep() {
           <input
             type="checkbox"
             checked={chosen.includes(p)}
+            disabled={!!running}
             onChange={(e) => setChosen((e.target as HTMLInputElement).checked ? [...chosen, p] : chosen.filter((x) => x !== p))}
           />{' '}
           {FIT_LABELS[p]}
         </label>
       ))}
       <div class="dg-btn-row">
-        <button
-          type="button"
-          
-          data-testid="fit-run"
-          disabled={chosen.length === 0}
-          onClick={() => {
-            try {
-              setFit({ result: fitCase(c, chosen), caseStamp: c.modified });
-              setError(null);
-            } catch (e) {
-              setError(e instanceof Error ? e.message : String(e));
-            }
-          }}
-        >
-          Fit
-        </button>
-        {current && (
-          <button
-            type="button"
-            class="dg-on"
-            data-testid="fit-adopt"
-            onClick={() => void openVariant(adoptFitAsVariant(c, current, newId(), new Date().toISOString()))}
-          >
-            Adopt as a what-if variant
+        {running ? (
+          <button type="button" data-testid="fit-cancel" onClick={() => running.run.cancel()}>
+            Cancel the fit
+          </button>
+        ) : (
+          <button type="button" data-testid="fit-run" disabled={chosen.length === 0} onClick={start}>
+            Fit
           </button>
         )}
       </div>
+      {running && <FitProgressLine started={running.started} progress={running.progress} />}
       {error && (
-        <p class="dg-field-error" role="alert">
+        <p class={error.startsWith('Fit cancelled') ? 'dg-note' : 'dg-field-error'} role={error.startsWith('Fit cancelled') ? 'status' : 'alert'}>
           {error}
         </p>
       )}
@@ -248,8 +258,78 @@ function FitStep() {
               {l}
             </p>
           ))}
+          <label class="dg-check">
+            <input type="checkbox" checked={withIntervals} data-testid="fit-with-intervals" onChange={(e) => setWithIntervals((e.target as HTMLInputElement).checked)} />
+            <span>Carry the {Math.round(current.confidence * 100)} % intervals into “How sure is it?” as distributions of these inputs</span>
+          </label>
+          <div class="dg-btn-row">
+            <button
+              type="button"
+              class="dg-on"
+              data-testid="fit-adopt"
+              onClick={() => void openVariant(adoptFitAsVariant(c, current, newId(), new Date().toISOString(), withIntervals))}
+            >
+              Adopt the fitted values as a what-if variant
+            </button>
+          </div>
+          <p class="dg-help">The variant opens as a new case; this case stays as it is.</p>
         </div>
       )}
     </fieldset>
+  );
+}
+
+/** How far the fit has gone: least-squares rounds (at most 9), model evaluations, time taken and an upper estimate of the time left. */
+function FitProgressLine({ started, progress }: { started: number; progress: FitProgress | null }) {
+  const [, tick] = useState(0);
+  useEffect(() => {
+    const t = setInterval(() => tick((n) => n + 1), 500);
+    return () => clearInterval(t);
+  }, []);
+  const elapsed = (performance.now() - started) / 1000;
+  const round = progress?.round ?? 1;
+  const max = progress?.maxRounds ?? 9;
+  // rounds usually stop early, when the fit stops moving; the left time assumes every round runs
+  const left = progress ? (elapsed / Math.max(round - 0.5, 0.5)) * (max - round + 0.5) : null;
+  return (
+    <div class="dg-mc-progress" role="status" data-testid="fit-progress">
+      <progress max={max} value={round - 0.5} aria-label="Fit progress" />
+      <span>
+        Fitting: round {round} of at most {max}, {progress?.evaluations ?? 0} model evaluations, {elapsed.toFixed(0)} s
+        {left !== null && left > 1 ? `; at most about ${Math.ceil(left)} s left` : ''}
+      </span>
+    </div>
+  );
+}
+
+/** Adopt the Buscheck & Alcantar biodegradation rate as the half-life of a what-if variant. */
+function AdoptRate({ c, s }: { c: Case; s: ObservationSummary }) {
+  const [withInterval, setWithInterval] = useState(true);
+  if (!s.biodegradationRate || s.adoptableHalfLife === null) return null;
+  const unit = c.contaminant.halfLife?.unit ?? 'yr';
+  const shown = `${formatSig(fromInternal(s.adoptableHalfLife, unit), 3)} ${UNITS[unit]?.label ?? unit}`;
+  return (
+    <div class="dg-adopt-rate" data-testid="adopt-rate">
+      <p class="dg-note">
+        The biodegradation rate gives a half-life of <strong>{shown}</strong> (the case has{' '}
+        {c.contaminant.halfLife ? `${formatSig(c.contaminant.halfLife.value, 4)} ${UNITS[c.contaminant.halfLife.unit]?.label ?? c.contaminant.halfLife.unit}` : 'no decay'}). A bulk attenuation rate or a point decay rate is not a
+        biodegradation rate; this one assumes a steady plume and a constant source.
+      </p>
+      {s.biodegradationRate.interval && s.biodegradationRate.interval[0] > 0 && (
+        <label class="dg-check">
+          <input type="checkbox" checked={withInterval} onChange={(e) => setWithInterval((e.target as HTMLInputElement).checked)} />
+          <span>Carry its interval into “How sure is it?” as the half-life's distribution</span>
+        </label>
+      )}
+      <div class="dg-btn-row">
+        <button
+          type="button"
+          data-testid="adopt-rate-button"
+          onClick={() => void openVariant(adoptBiodegradationAsVariant(c, s, newId(), new Date().toISOString(), withInterval))}
+        >
+          Use this half-life in a what-if variant
+        </button>
+      </div>
+    </div>
   );
 }
