@@ -9,15 +9,12 @@ import type { AppSlots } from '../app/boot';
 import type { Case } from '../case/schema';
 import { currentCase, replaceCase, updateCase } from './state';
 import { settings, updateSettings } from './settings';
-import { MapView } from './map/MapView';
 import { ReleasePanel } from './panels/ReleasePanel';
 import { FlowPanel } from './panels/FlowPanel';
 import { AquiferPanel } from './panels/AquiferPanel';
 import { ReceptorsPanel } from './panels/ReceptorsPanel';
 import { ResultsPanel } from './panels/ResultsPanel';
-import { UncertaintyPanel } from './panels/UncertaintyPanel';
 import { lazyPart } from './lazy';
-import { MonitoringPanel } from './panels/MonitoringPanel';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
 import { openDemoCase } from '../app/actions';
@@ -26,9 +23,19 @@ import { startEvaluation } from './evaluation';
 import { Guard } from './Guard';
 import { placementProblem } from '../case/check';
 import { notify } from '../app/session';
+// Leaflet's stylesheet (about 4 KB) stays in the first load, before the app's own, so the app's rules
+// for the map win over Leaflet's as they always have while the map's JavaScript loads on demand
+import 'leaflet/dist/leaflet.css';
 import './app.css';
 
 // opened from the header; loaded when first opened (src/ui/lazy.tsx)
+// the map and Leaflet (a third of the first screen's JavaScript): the inputs and the receptor table
+// are usable while its chunk arrives on a poor link (precached: offline it opens at once)
+const MapView = lazyPart(() => import('./map/MapView').then((m) => m.MapView), 'map', { holder: 'dg-map-wrap' });
+// the probabilistic and monitoring panels (with their statistics and CSV import) are not needed for
+// the first view: their chunks load as soon as the screen is up (DEVELOPERS.md, "First load")
+const UncertaintyPanel = lazyPart(() => import('./panels/UncertaintyPanel').then((m) => m.UncertaintyPanel), 'probabilistic panel');
+const MonitoringPanel = lazyPart(() => import('./panels/MonitoringPanel').then((m) => m.MonitoringPanel), 'monitoring panel');
 const SettingsDialog = lazyPart(() => import('./panels/SettingsDialog').then((m) => m.SettingsDialog), 'settings', { overlay: true });
 
 export interface AppProps {
@@ -91,7 +98,7 @@ export function App({ initialCase, slots }: AppProps) {
 }
 
 /** The panel, in the order a screening is reasoned through; each drawn inside its own guard. */
-const PANELS: [string, () => preact.JSX.Element | null][] = [
+const PANELS: [string, preact.ComponentType][] = [
   ['The release inputs', ReleasePanel],
   ['The flow inputs', FlowPanel],
   ['The aquifer inputs', AquiferPanel],

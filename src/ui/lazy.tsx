@@ -18,10 +18,13 @@ export type LazyPart<P> = ComponentType<P> & { preload(): Promise<unknown> };
 export interface LazyOptions {
   /** show the loading state as a box over the page (for parts that open over the screen) */
   overlay?: boolean;
+  /** a class for the loading box, so it holds the part's place (the map's area) and nothing jumps */
+  holder?: string;
 }
 
 export function lazyPart<P extends object>(load: () => Promise<ComponentType<P>>, what: string, options: LazyOptions = {}): LazyPart<P> {
   let loaded: ComponentType<P> | null = null;
+  const holder = options.holder ? ` ${options.holder}` : '';
   let pending: Promise<ComponentType<P>> | null = null;
   const preload = () =>
     (pending ??= load().then(
@@ -50,7 +53,7 @@ export function lazyPart<P extends object>(load: () => Promise<ComponentType<P>>
       return <Part {...props} />;
     }
     const box = error ? (
-      <div class={`dg-lazy is-error${options.overlay ? ' is-overlay' : ''}`} role="alert">
+      <div class={`dg-lazy is-error${options.overlay ? ' is-overlay' : ''}${holder}`} role="alert">
         <span>
           The {what} could not be loaded ({error}). If the app was installed only partly, reconnect once.
         </span>
@@ -66,7 +69,7 @@ export function lazyPart<P extends object>(load: () => Promise<ComponentType<P>>
         </button>
       </div>
     ) : (
-      <div class={`dg-lazy${options.overlay ? ' is-overlay' : ''}`} role="status" aria-live="polite">
+      <div class={`dg-lazy${options.overlay ? ' is-overlay' : ''}${holder}`} role="status" aria-live="polite">
         Loading the {what}…
       </div>
     );

@@ -1,6 +1,5 @@
 /** The map panel: the Leaflet site map, its tool bar and the plume time control. */
 import { useEffect, useRef } from 'preact/hooks';
-import 'leaflet/dist/leaflet.css';
 import { SiteMap, mapFailure } from './siteMap';
 import { inputIssue } from '../validity';
 import { currentCase } from '../state';
@@ -9,11 +8,7 @@ import { TimeBar } from './TimeBar';
 import { currentPlume } from '../evaluation';
 import { fmtTime } from '../format';
 
-let active: SiteMap | null = null;
-/** The live map controller (tests and the latency measurement hook into it). */
-export function activeSiteMap(): SiteMap | null {
-  return active;
-}
+import { setActiveSiteMap } from './active';
 
 /**
  * `problem`: why no map can be framed on this case (a datum or position that cannot be placed),
@@ -41,13 +36,13 @@ function LiveMap({ frameKey }: { frameKey: string }) {
   const ref = useRef<HTMLDivElement>(null);
   useEffect(() => {
     const m = new SiteMap(ref.current!, currentCase.peek());
-    active = m;
+    setActiveSiteMap(m);
     const ro = new ResizeObserver(() => m.map.invalidateSize({ pan: false }));
     ro.observe(ref.current!);
     return () => {
       ro.disconnect();
       m.destroy();
-      if (active === m) active = null;
+      setActiveSiteMap(null, m);
     };
   }, [frameKey]);
   const stale = !!inputIssue.value && !!currentPlume.value;

@@ -237,6 +237,11 @@ export class SiteMap {
     this.fitTo(this.frameTargets(currentCase.peek(), this.framablePlume()));
   }
 
+  /** Centre the map on a case position (the receptor list's "Show on map"). */
+  panToPosition(p: Position): void {
+    this.map.panTo(toLatLng(p));
+  }
+
   /** The view, inset by the padding the frame keeps (a point there is comfortably in view). */
   private innerView(): L.LatLngBounds {
     const size = this.map.getSize();

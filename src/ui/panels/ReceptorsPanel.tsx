@@ -8,8 +8,7 @@ import { newId, newReceptor } from '../../case/defaults';
 import type { Case, ReceptorKind } from '../../case/schema';
 import { Fragment } from 'preact';
 import { useEffect, useRef } from 'preact/hooks';
-import { activeSiteMap } from '../map/MapView';
-import { toLatLng } from '../map/siteMap';
+import { activeSiteMap } from '../map/active';
 
 export const KIND_LABEL: Record<ReceptorKind, string> = {
   well: 'Well',
@@ -128,7 +127,7 @@ export function ReceptorsPanel() {
                   type="button"
                   onClick={() => {
                     selectedId.value = r.id;
-                    activeSiteMap()?.map.panTo(toLatLng(r.position));
+                    activeSiteMap()?.panToPosition(r.position);
                   }}
                 >
                   Show on map
