@@ -31,7 +31,7 @@ import {
 import type { ObservationSummary } from '../../case/observations';
 import { unitsOf } from '../../core/units';
 import { formatSig, screenNumber } from '../../case/numbers';
-import { activeSiteMap } from '../map/MapView';
+import { activeSiteMap } from '../map/active';
 import { showMonitoringWell } from '../map/monitoringLayer';
 import type { Case } from '../../case/schema';
 
@@ -163,7 +163,7 @@ function WellDetail({ index, summary, onDelete }: { index: number; summary: Obse
       <ResultEntry well={w} />
       <div class="dg-btn-row">
         {w.position && (
-          <button type="button" onClick={() => activeSiteMap()?.map.panTo([w.position![1], w.position![0]])}>
+          <button type="button" onClick={() => activeSiteMap()?.panToPosition(w.position!)}>
             Show on map
           </button>
         )}
