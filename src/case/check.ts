@@ -10,17 +10,9 @@
  */
 import type { Case, Position } from './schema';
 import { ValidationError } from '../core/validation';
-import { makeLocalFrame } from '../geo/projection';
 import { prepareCase } from './prepare';
-
-/** What a position must be, in the case's frame (the accepted range of a position field). */
-export function positionRange(frame: Case['site']['frame']): string {
-  return frame === 'geographic' ? 'a [longitude, latitude] pair in degrees within 1000 km of the datum' : 'a pair of finite [east, north] metres';
-}
-
-export function datumRange(frame: Case['site']['frame']): string {
-  return frame === 'geographic' ? '[longitude, latitude] in degrees' : '[east, north] metres';
-}
+import { prepareFrame } from './geometry';
+import { inCaseWords } from './checked';
 
 /** The reason a geo step gave, as plain words. */
 function reason(e: unknown): string {
@@ -50,20 +42,14 @@ export function positionProblem(c: Case, p: Position): string | null {
 
 /** The first position (or the datum) that cannot be placed on the site's map, or null. */
 export function placementProblem(c: Case): ValidationError | null {
-  let frame;
   try {
-    frame = makeLocalFrame(c.site.frame, c.site.datum);
+    const sf = prepareFrame(c);
+    for (const [field, p] of casePositions(c)) sf.toEN(field, p);
+    return null;
   } catch (e) {
-    return new ValidationError('site.datum', c.site.datum, datumRange(c.site.frame), reason(e));
+    const named = inCaseWords(e, c);
+    return named instanceof ValidationError ? named : new ValidationError('site.datum', c.site.datum, 'a site the map can place', reason(e));
   }
-  for (const [field, p] of casePositions(c)) {
-    try {
-      frame.toEN(p);
-    } catch (e) {
-      return new ValidationError(field, p, positionRange(c.site.frame), reason(e));
-    }
-  }
-  return null;
 }
 
 /** The first problem that stops the case being screened (placement first), or null. */

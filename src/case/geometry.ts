@@ -11,7 +11,8 @@ import { makeLocalFrame, type LocalFrame } from '../geo/projection';
 import { toFlow } from '../geo/flowFrame';
 import { footprintSourcePlane } from '../geo/footprint';
 import { normalizeDeg } from '../geo/angles';
-import { atField, fractionRule, nonNegative, positive, readFraction, readQuantity, rule } from './checked';
+import { CaseFieldError, atField, readFraction, readQuantity, ruleFor } from './checked';
+import { bounds, NON_NEGATIVE } from './fields';
 
 export interface PreparedReceptor {
   readonly id: string;
@@ -45,12 +46,20 @@ export interface SiteFrame {
   convergenceDeg(field: string, p: Position): number;
 }
 
+/** What a position must be, in the case's frame (the accepted range of a position field). */
+export function positionRange(frame: Case['site']['frame']): string {
+  return frame === 'geographic' ? 'a [longitude, latitude] pair in degrees within 1000 km of the datum' : 'a pair of finite [east, north] metres';
+}
+
+/** What the site datum must be, in the case's frame. */
+export function datumRange(frame: Case['site']['frame']): string {
+  return frame === 'geographic' ? '[longitude, latitude] in degrees' : '[east, north] metres';
+}
+
 export function prepareFrame(c: Case): SiteFrame {
   const site = c.site;
-  const frame = atField('site.datum', site.datum, site.frame === 'geographic' ? '[longitude, latitude] in degrees' : '[east, north] metres', () =>
-    makeLocalFrame(site.frame, site.datum),
-  );
-  const posRange = site.frame === 'geographic' ? 'a [longitude, latitude] pair in degrees within 1000 km of the datum' : 'a pair of finite [east, north] metres';
+  const frame = atField('site.datum', site.datum, datumRange(site.frame), () => makeLocalFrame(site.frame, site.datum));
+  const posRange = positionRange(site.frame);
   return {
     frame,
     toEN: (field, p) => atField(field, p, posRange, () => frame.toEN(p)),
@@ -68,14 +77,13 @@ export interface Flow {
   readonly warnings: Warning[];
 }
 
-export const GRADIENT_RULE = fractionRule('site.flow.gradient', 0, 1, true, true);
+export const GRADIENT_RULE = ruleFor('site.flow.gradient');
 
 export function prepareFlow(c: Case, sf: SiteFrame): Flow {
   const site = c.site;
   const convergence = sf.convergenceDeg('site.source.position', site.source.position);
   if (site.flow.method === 'direction') {
-    if (!Number.isFinite(site.flow.azimuthDeg)) throw new ValidationError('site.flow.azimuthDeg', site.flow.azimuthDeg, 'degrees clockwise from north');
-    const azimuthDeg = normalizeDeg(site.flow.azimuthDeg);
+    const azimuthDeg = normalizeDeg(readFraction(site.flow.azimuthDeg, ruleFor('site.flow.azimuthDeg')));
     return {
       azimuthDeg,
       planeAzimuthDeg: normalizeDeg(azimuthDeg + convergence),
@@ -85,17 +93,18 @@ export function prepareFlow(c: Case, sf: SiteFrame): Flow {
     };
   }
   const readings = site.flow.readings;
-  if (readings.length < 3) throw new ValidationError('site.flow.readings', readings.length, 'at least 3 head readings (not all on one line)');
+  if (readings.length < 3)
+    throw new CaseFieldError('site.flow.readings', undefined, null, 'at least 3', `the flow direction needs at least 3 water levels (not all on one line); ${readings.length} ${readings.length === 1 ? 'is' : 'are'} given`);
   const points = readings.map((r, i) => {
     const [x, y] = sf.toEN(`site.flow.readings[${i}].position`, r.position);
-    const head = readQuantity(r.head, rule(`site.flow.readings[${i}].head`, Number.isFinite, 'a finite head'));
+    const head = readQuantity(r.head, ruleFor(`site.flow.readings[${i}].head`));
     return { x, y, head };
   });
-  const fit = atField('site.flow.readings', readings.length, 'at least 3 head readings not all on one line, with heads that differ', () => fitHeadPlane(points));
+  const fit = atField('site.flow.readings', undefined, 'at least 3 head readings not all on one line, with heads that differ', () => fitHeadPlane(points));
   const gradient = fit.gradient;
   const planeAzimuthDeg = normalizeDeg(fit.azimuthDeg);
   if (!(gradient > 0 && gradient < 1))
-    throw new ValidationError('site.flow.readings', gradient, 'readings whose fitted gradient lies in (0, 1)', `the head readings give a gradient of ${gradient}; it must lie in (0, 1) (are the heads all equal, or in the wrong unit?)`);
+    throw new CaseFieldError('site.flow.readings', undefined, null, 'readings whose fitted gradient lies above 0 and below 1', `the water levels give a gradient of ${gradient}; it must lie above 0 and below 1 (are the levels all equal, or in the wrong unit?)`);
   return {
     gradient,
     planeAzimuthDeg,
@@ -113,7 +122,7 @@ export interface SourcePlane {
   readonly widthFromFootprint: boolean;
 }
 
-export const WIDTH_RULE = rule('site.source.width', positive, 'a length > 0');
+export const WIDTH_RULE = ruleFor('site.source.width');
 
 export function prepareSourcePlane(c: Case, sf: SiteFrame, planeAzimuthDeg: number): SourcePlane {
   const src = c.site.source;
@@ -121,14 +130,12 @@ export function prepareSourcePlane(c: Case, sf: SiteFrame, planeAzimuthDeg: numb
     return { sourceEN: sf.toEN('site.source.position', src.position), width: readQuantity(src.width, WIDTH_RULE), widthFromFootprint: false };
   }
   const fp = src.footprint.map((p, i) => sf.toEN(`site.source.footprint[${i}]`, p));
-  const plane = atField('site.source.footprint', src.footprint.length, 'a simple polygon of at least 3 vertices with non-zero area', () =>
+  const plane = atField('site.source.footprint', undefined, 'a simple polygon of at least 3 vertices with non-zero area', () =>
     footprintSourcePlane(fp, planeAzimuthDeg),
   );
-  if (!(plane.width > 0)) throw new ValidationError('site.source.footprint', plane.width, 'a footprint with non-zero width across the flow');
+  if (!(plane.width > 0)) throw new CaseFieldError('site.source.footprint', undefined, null, 'an outline with a width across the flow', 'the traced outline has no width across the flow; trace it again');
   return { sourceEN: plane.centreEN, width: plane.width, widthFromFootprint: true };
 }
-
-const DEPTH_RANGE = 'a depth ≥ 0 below the water table';
 
 /** Receptors in the flow frame, with the warning that pumping is not represented. */
 export function prepareReceptors(c: Case, sf: SiteFrame, sourceEN: [number, number], planeAzimuthDeg: number): { receptors: PreparedReceptor[]; warnings: Warning[] } {
@@ -137,8 +144,8 @@ export function prepareReceptors(c: Case, sf: SiteFrame, sourceEN: [number, numb
     const f = `site.receptors[${i}]`;
     const en = sf.toEN(`${f}.position`, r.position);
     const { x, y } = toFlow(sourceEN, planeAzimuthDeg, en);
-    const zTop = readQuantity(r.screenTop, rule(`${f}.screenTop`, nonNegative, DEPTH_RANGE));
-    const zBottom = readQuantity(r.screenBottom, rule(`${f}.screenBottom`, (z) => Number.isFinite(z) && z >= zTop, `a depth ≥ the screen top (${zTop} m)`));
+    const zTop = readQuantity(r.screenTop, ruleFor(`${f}.screenTop`));
+    const zBottom = readQuantity(r.screenBottom, ruleFor(`${f}.screenBottom`, bounds(zTop, false, NON_NEGATIVE.max, false)));
     const modelled = r.pumping && r.pumpingRate !== null && c.aquifer.saturatedThickness != null;
     if (r.pumping && !modelled)
       warnings.push({

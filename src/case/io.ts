@@ -80,6 +80,32 @@ function forbiddenKeys(value: unknown, path: string, out: string[]): void {
   }
 }
 
+/** A short, printable excerpt of the text at `at`. */
+function excerpt(text: string, at: number): string {
+  const s = text.slice(at, at + 24).replace(/\s+/g, ' ').trim();
+  return s.length ? `“${s}”` : 'nothing';
+}
+
+/**
+ * Why text that JSON.parse refused is not a case file, in the screen's words: a file of another
+ * kind, a case file cut short, or one damaged at a line and column (the parser's own wording differs
+ * between browsers and is not shown).
+ */
+export function notJson(text: string, parserMessage: string): string {
+  const first = text.search(/\S/);
+  if (first >= 0 && text[first] !== '{')
+    return `this is not a case file: a case file is JSON text that begins with “{”, and this file begins with ${excerpt(text.slice(first), 0)}. Was another file chosen?`;
+  const pos = /position (\d+)/.exec(parserMessage);
+  const atEnd = pos ? Number(pos[1]) >= text.trimEnd().length : /Unexpected end/i.test(parserMessage);
+  if (atEnd) return 'the case file is cut short or damaged: its text ends before the case is complete. Was it copied or downloaded completely?';
+  if (!pos) return 'the case file is damaged: its text does not follow the JSON form a case file is written in. Was it edited by hand?';
+  const at = Number(pos[1]);
+  const before = text.slice(0, at);
+  const line = before.split('\n').length;
+  const column = at - before.lastIndexOf('\n');
+  return `the case file is damaged at line ${line}, column ${column} (near ${excerpt(text, at)}): from there it no longer follows the JSON form a case file is written in. Was it edited by hand?`;
+}
+
 export function parseCaseFile(text: string, options: ParseOptions = {}): ParseResult {
   const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
   if (typeof text !== 'string') return { ok: false, errors: ['the file could not be read as text'] };
@@ -97,8 +123,7 @@ export function parseCaseFile(text: string, options: ParseOptions = {}): ParseRe
   try {
     raw = JSON.parse(body);
   } catch (e) {
-    const detail = e instanceof Error ? e.message : String(e);
-    return { ok: false, errors: [`the file is not valid JSON: ${detail}`] };
+    return { ok: false, errors: [notJson(body, e instanceof Error ? e.message : String(e))] };
   }
   const bad: string[] = [];
   forbiddenKeys(raw, '', bad);

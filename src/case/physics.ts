@@ -32,7 +32,7 @@ import {
   type DispersivityRelation,
   type Warning,
 } from '../core';
-import { atCaseField, checkRule, fractionRule, nonNegative, positive, readFraction, readQuantity, rule, type Rule } from './checked';
+import { CaseFieldError, atCaseField, checkRule, readFraction, readQuantity, ruleFor, type Rule } from './checked';
 import { GRADIENT_RULE, WIDTH_RULE } from './geometry';
 
 /** Sorption as the case states it: Koc (Kd = Koc·foc) or Kd, L/kg. */
@@ -74,33 +74,33 @@ export interface PhysicalInputs {
 
 /** The accepted ranges of the physical inputs, each with its case field (one definition, checked.ts). */
 export const PHYSICS_RULES = {
-  hydraulicConductivity: rule('aquifer.hydraulicConductivity', positive, 'a conductivity > 0'),
-  totalPorosity: fractionRule('aquifer.totalPorosity', 0, 1, true, true),
-  effectivePorosity: fractionRule('aquifer.effectivePorosity', 0, 1, true, true),
-  fractionOrganicCarbon: fractionRule('aquifer.fractionOrganicCarbon', 0, 1, false, false),
-  bulkDensity: rule('aquifer.bulkDensity', (v) => v > 0 && v <= 3, 'a density in (0, 3] g/cm³'),
-  koc: rule('contaminant.sorption.koc', nonNegative, 'a partition coefficient ≥ 0 L/kg'),
-  kd: rule('contaminant.sorption.kd', nonNegative, 'a partition coefficient ≥ 0 L/kg'),
-  halfLife: rule('contaminant.halfLife', positive, 'a time > 0 (or none for no decay)'),
-  longitudinal: rule('aquifer.dispersivity.longitudinal', positive, 'a length > 0'),
-  transverse: rule('aquifer.dispersivity.transverse', positive, 'a length > 0'),
-  vertical: rule('aquifer.dispersivity.vertical', positive, 'a length > 0'),
-  transverseRatio: fractionRule('aquifer.dispersivity.transverseRatio', 0, 1, true, false),
-  verticalRatio: fractionRule('aquifer.dispersivity.verticalRatio', 0, 1, true, false),
-  freeWater: rule('aquifer.diffusion.freeWater', nonNegative, 'a diffusion coefficient ≥ 0'),
-  tortuosity: fractionRule('aquifer.diffusion.tortuosity', 0, 1, true, false),
-  diffusion: rule('aquifer.diffusion', nonNegative, 'a diffusion coefficient ≥ 0'),
-  c0: rule('source.concentration', positive, 'a concentration > 0'),
-  thickness: rule('source.thickness', positive, 'a length > 0'),
-  duration: rule('source.duration', positive, 'a time > 0 (or none for a continuous release)'),
-  sourceHalfLife: rule('source.sourceHalfLife', positive, 'a time > 0 (or none for a constant source)'),
+  hydraulicConductivity: ruleFor('aquifer.hydraulicConductivity'),
+  totalPorosity: ruleFor('aquifer.totalPorosity'),
+  effectivePorosity: ruleFor('aquifer.effectivePorosity'),
+  fractionOrganicCarbon: ruleFor('aquifer.fractionOrganicCarbon'),
+  bulkDensity: ruleFor('aquifer.bulkDensity'),
+  koc: ruleFor('contaminant.sorption.koc'),
+  kd: ruleFor('contaminant.sorption.kd'),
+  halfLife: ruleFor('contaminant.halfLife'),
+  longitudinal: ruleFor('aquifer.dispersivity.longitudinal'),
+  transverse: ruleFor('aquifer.dispersivity.transverse'),
+  vertical: ruleFor('aquifer.dispersivity.vertical'),
+  transverseRatio: ruleFor('aquifer.dispersivity.transverseRatio'),
+  verticalRatio: ruleFor('aquifer.dispersivity.verticalRatio'),
+  freeWater: ruleFor('aquifer.diffusion.freeWater'),
+  tortuosity: ruleFor('aquifer.diffusion.tortuosity'),
+  diffusion: ruleFor('aquifer.diffusion'),
+  c0: ruleFor('source.concentration'),
+  thickness: ruleFor('source.thickness'),
+  duration: ruleFor('source.duration'),
+  sourceHalfLife: ruleFor('source.sourceHalfLife'),
 } as const satisfies Record<string, Rule>;
 
 const R_ = PHYSICS_RULES;
 
 /** ne ≤ n (the one rule across two inputs). */
 function checkPorosities(n: number, ne: number, value: unknown = ne): void {
-  if (ne > n) throw new ValidationError('aquifer.effectivePorosity', value, `≤ the total porosity (${n})`);
+  if (ne > n) throw new CaseFieldError('aquifer.effectivePorosity', value, null, `at most the total porosity n (${n})`);
 }
 
 /** Aquifer, sorption, decay, dispersivity, diffusion and source term of a case, read and checked. */
@@ -327,9 +327,10 @@ export function validateAtCase(model: ScreeningModel, sourceHalfLifeValue: numbe
     if (err.field === 'sourceDecay' && sourceHalfLifeValue !== null) {
       // the engine states its bound as a decline rate; say it as the half-life the user entered
       const shortest = Math.LN2 / domenicoSourceDecayLimit(model);
-      throw new ValidationError(
+      throw new CaseFieldError(
         'source.sourceHalfLife',
         sourceHalfLifeValue,
+        null,
         `longer than ${shortest.toPrecision(3)} d`,
         `with this velocity and dispersion the solutions cannot represent a source halving faster than every ${shortest.toPrecision(3)} d (decline rate must stay below λ + v²/(4·Dx), retarded); lengthen the source half-life`,
       );

@@ -12,7 +12,9 @@ import { modelWarnings, type ScreeningModel, type Warning } from '../core';
 import type { LocalFrame } from '../geo/projection';
 import { fromFlow, toFlow } from '../geo/flowFrame';
 import { FIELD_RANGES, contaminantPreset, provenanceLabel } from './presets';
-import { nonNegative, positive, readQuantity, rule, caseFieldOf } from './checked';
+import { readQuantity, ruleFor, caseFieldOf, inWordsOf } from './checked';
+import { bounds, fieldLabel, writtenNumber, POSITIVE } from './fields';
+import { roundSig } from './numbers';
 import { prepareFlow, prepareFrame, prepareReceptors, prepareSourcePlane, receptorReach, type Flow, type HeadFit, type PreparedReceptor, type SourcePlane } from './geometry';
 import { derivePhysics, readPhysicalInputs, validateAtCase, type DerivedPhysics, type PhysicalInputs, type PhysicsBasis } from './physics';
 
@@ -56,15 +58,20 @@ export interface PreparedCase extends PhysicsBasis {
 /** The evaluation settings: limit, horizon, the map's time and depth (internal units). */
 export function prepareEvaluation(c: Case): { limit: number; horizon: number; viewTime: number; depth: number } {
   const e = c.evaluation;
-  const limit = readQuantity(c.contaminant.limit, rule('contaminant.limit', positive, 'a concentration > 0'));
-  const horizon = readQuantity(e.horizon, rule('evaluation.horizon', positive, 'a time > 0'));
-  const viewTime =
-    e.viewTime === null ? Infinity : readQuantity(e.viewTime, rule('evaluation.viewTime', (t) => t > 0 && t <= horizon, `a time in (0, horizon = ${horizon} d]`));
-  const depth = readQuantity(e.depth, rule('evaluation.depth', nonNegative, 'a depth ≥ 0 below the water table'));
+  const limit = readQuantity(c.contaminant.limit, ruleFor('contaminant.limit'));
+  const horizon = readQuantity(e.horizon, ruleFor('evaluation.horizon'));
+  // the map's time lies within the horizon
+  const viewTime = e.viewTime === null ? Infinity : readQuantity(e.viewTime, ruleFor('evaluation.viewTime', bounds(POSITIVE.min, true, horizon, false)));
+  const depth = readQuantity(e.depth, ruleFor('evaluation.depth'));
   return { limit, horizon, viewTime, depth };
 }
 
+/** The case prepared for the engine; a refusal names the case field in the screen's words (checked.ts `inCaseWords`). */
 export function prepareCase(c: Case): PreparedCase {
+  return inWordsOf(c, () => prepareChecked(c));
+}
+
+function prepareChecked(c: Case): PreparedCase {
   const sf = prepareFrame(c);
   const flow = prepareFlow(c, sf);
   const plane = prepareSourcePlane(c, sf, flow.planeAzimuthDeg);
@@ -166,7 +173,7 @@ function fieldRangeWarnings(c: Case, inputs: PhysicalInputs): Warning[] {
     const caveat = provenanceLabel(r);
     out.push({
       code: 'outside-usual-range',
-      message: `${r.field} = ${v} ${r.unit} is outside the usual range ${r.min} – ${r.max} ${r.unit} (${r.source}${caveat ? '; ' + caveat : ''}). Check the value and its unit.`,
+      message: `${fieldLabel(r.field)} ${writtenNumber(roundSig(v, 4))} ${r.unit} is outside the usual range ${r.min} – ${r.max} ${r.unit} (${r.source}${caveat ? '; ' + caveat : ''}). Check the value and its unit.`,
       field: r.field,
     });
   }

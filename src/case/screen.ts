@@ -8,6 +8,7 @@ import type { Case } from './schema';
 import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
 import { evaluateReceptor, plumeLength, type ReceptorResult, type Warning } from '../core';
 import { SCREENING_CAUTION } from './caution';
+import { inWordsOf } from './checked';
 import { prepareCaseWells, wellCaptures, type CaseWells, type WellCapture } from './wells';
 
 export interface ScreenedReceptor {
@@ -28,7 +29,12 @@ export interface ScreeningResult {
   readonly captures: WellCapture[];
 }
 
+/** The whole screening of a case; a refusal names the case field in the screen's words (checked.ts `inCaseWords`). */
 export function screenCase(c: Case): ScreeningResult {
+  return inWordsOf(c, () => screenChecked(c));
+}
+
+function screenChecked(c: Case): ScreeningResult {
   const prepared = prepareCase(c);
   const { model, limit, horizon, depth, viewTime } = prepared;
   const warnings: Warning[] = [...prepared.warnings];

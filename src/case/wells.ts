@@ -26,9 +26,9 @@ import {
   type FlowField,
   type Warning,
 } from '../core';
-import { positive, readQuantity, rule } from './checked';
+import { CaseFieldError, atCaseField, detailOf, readQuantity, ruleFor } from './checked';
 
-export const SATURATED_THICKNESS_RULE = rule('aquifer.saturatedThickness', (v) => positive(v) && v <= 10_000, 'a thickness > 0 and ≤ 10 000 m');
+export const SATURATED_THICKNESS_RULE = ruleFor('aquifer.saturatedThickness');
 export const SATURATED_THICKNESS_HELP =
   'Saturated thickness B: from the water table (or the top of a confined aquifer) down to the base of the water-bearing layer. A pumping well draws over this thickness, so it sets the reach of its capture zone (width far upgradient Q/(K·i·B)). Needed to model pumping wells; taken as constant (a confined aquifer, or an unconfined one whose drawdown is small against B).';
 
@@ -62,7 +62,7 @@ export function prepareCaseWells(c: Case, p: PreparedCase): CaseWells {
   const receptorOf: number[] = [];
   const wells = c.site.receptors.flatMap((r, i) => {
     if (!r.pumping || r.pumpingRate === null) return [];
-    const rate = readQuantity(r.pumpingRate, rule(`site.receptors[${i}].pumpingRate`, positive, 'a pumping rate > 0'));
+    const rate = readQuantity(r.pumpingRate, ruleFor(`site.receptors[${i}].pumpingRate`));
     const pr = p.receptors[i];
     receptorOf.push(i);
     return [{ x: pr.x, y: pr.y, rate, radius: DEFAULT_WELL_RADIUS, label: r.name || r.id }];
@@ -74,9 +74,9 @@ export function prepareCaseWells(c: Case, p: PreparedCase): CaseWells {
     // the source (0, 0) on the left of a → z: cross((z − a), (0 − a)) > 0
     const cross = (z.x - a.x) * -a.y - (z.y - a.y) * -a.x;
     const len = Math.hypot(z.x - a.x, z.y - a.y);
-    if (!(len > 0)) throw new ValidationError(`${f}.points`, b.points, 'two distinct points');
+    if (!(len > 0)) throw new CaseFieldError(`${f}.points`, b.points, null, 'two distinct points', 'its two ends are at the same place; draw the line again');
     if (Math.abs(cross) / len < 1e-6)
-      throw new ValidationError(`${f}.points`, b.points, 'a line that does not pass through the source', `the source lies on boundary line ${b.name || b.id}; a boundary must lie beside the aquifer, not through the release`);
+      throw new CaseFieldError(`${f}.points`, b.points, null, 'a line that does not pass through the source', `the source lies on boundary line ${b.name || b.id}; a boundary must lie beside the aquifer, not through the release`);
     const line = cross > 0 ? { kind: b.kind, x1: a.x, y1: a.y, x2: z.x, y2: z.y, label: b.name || b.id } : { kind: b.kind, x1: z.x, y1: z.y, x2: a.x, y2: a.y, label: b.name || b.id };
     return { id: b.id, name: b.name, kind: b.kind, line };
   });
@@ -111,7 +111,7 @@ function flowPoint(p: PreparedCase, field: string, pos: Position): { x: number; 
   try {
     return p.fromMap(pos);
   } catch {
-    throw new ValidationError(field, pos, 'a map position near the site');
+    throw new CaseFieldError(field, pos, null, 'a map position near the site', 'it cannot be placed on the site map; move it near the site');
   }
 }
 
@@ -127,8 +127,7 @@ function caseField(f: string | undefined, receptorOf: number[]): string | undefi
 
 function restate(e: ValidationError, receptorOf: number[]): ValidationError {
   const f = caseField(e.field, receptorOf) ?? e.field;
-  const detail = e.message.includes(' is not accepted: ') ? e.message.slice(e.message.indexOf(' is not accepted: ') + 18) : undefined;
-  return new ValidationError(f, e.value, e.range, detail);
+  return atCaseField(new ValidationError(f, e.value, e.range, detailOf(e)));
 }
 
 export interface WellCapture {

@@ -54,9 +54,9 @@ function checkLonLat(p: readonly number[], what: string): void {
   if (!Array.isArray(p) || p.length < 2) throw new RangeError(`${what} must be a [longitude, latitude] pair`);
   const [lon, lat] = p;
   if (!Number.isFinite(lon) || lon < -180 || lon > 180)
-    throw new RangeError(`${what} longitude must be a number of degrees in [-180, 180], got ${lon}`);
+    throw new RangeError(`the ${what}'s longitude must lie between −180° and 180° (it is ${lon})`);
   if (!Number.isFinite(lat) || lat < -90 || lat > 90)
-    throw new RangeError(`${what} latitude must be a number of degrees in [-90, 90], got ${lat}`);
+    throw new RangeError(`the ${what}'s latitude must lie between −90° and 90° (it is ${lat})`);
 }
 
 function checkEN(en: readonly number[], what: string): void {
@@ -148,7 +148,7 @@ export function makeLocalFrame(frame: Frame, datum: Position): LocalFrame {
       // and two positions share one east/north) the result would not invert: refuse it
       if (Math.hypot(dx, dy, dz) > MAX_LOCAL_OFFSET_M)
         throw new RangeError(
-          `position [${p[0]}, ${p[1]}] must lie within ${MAX_LOCAL_OFFSET_M / 1000} km of the site datum [${d[0]}, ${d[1]}]`,
+          `it must lie within ${MAX_LOCAL_OFFSET_M / 1000} km of the site datum [${d[0]}, ${d[1]}]`,
         );
       return [east[0] * dx + east[1] * dy, north[0] * dx + north[1] * dy + north[2] * dz];
     },

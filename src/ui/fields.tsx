@@ -11,6 +11,12 @@ import type { Quantity } from '../case/schema';
 import { fieldIssue, fieldWarnings } from './validity';
 import { formatSig } from '../case/numbers';
 import { historyEpoch } from './state';
+import { fieldInfo } from '../case/fields';
+
+/** The props with the label filled in from the field catalogue. */
+function labelled<P extends BaseProps>(p: P): P & { label: string } {
+  return { ...p, label: p.label ?? fieldInfo(p.field)?.label ?? p.field };
+}
 
 let uid = 0;
 function useId(prefix: string): string {
@@ -29,7 +35,8 @@ function parseNumber(text: string): number | null {
 }
 
 interface BaseProps {
-  label: string;
+  /** default: the field's label in the catalogue (src/case/fields.ts), the words every message uses */
+  label?: string;
   /** case field path, e.g. 'aquifer.hydraulicConductivity' (matches the engine's messages) */
   field: string;
   help?: ComponentChildren;
@@ -37,7 +44,7 @@ interface BaseProps {
   note?: ComponentChildren;
 }
 
-function FieldShell(props: BaseProps & { id: string; localError: string | null; children: ComponentChildren }) {
+function FieldShell(props: BaseProps & { label: string; id: string; localError: string | null; children: ComponentChildren }) {
   const issue = fieldIssue(props.field);
   const msg = props.localError ?? issue;
   const warnings = msg ? [] : fieldWarnings(props.field);
@@ -121,12 +128,13 @@ function NumberInput(props: {
 }
 
 export function QuantityField(
-  props: BaseProps & {
+  raw: BaseProps & {
     dimension: Dimension;
     value: Quantity;
     onChange: (q: Quantity) => void;
   },
 ) {
+  const props = labelled(raw);
   const id = useId('q');
   const { value, onChange } = props;
   const [localError, setLocalError] = useState<string | null>(null);
@@ -174,8 +182,9 @@ export function unitLabel(id: string): string {
 }
 
 export function NumberField(
-  props: BaseProps & { value: number; onChange: (v: number) => void; suffix?: string },
+  raw: BaseProps & { value: number; onChange: (v: number) => void; suffix?: string },
 ) {
+  const props = labelled(raw);
   const id = useId('n');
   const [localError, setLocalError] = useState<string | null>(null);
   return (
@@ -197,7 +206,7 @@ export function NumberField(
 
 /** An optional quantity (half-life, release duration): a switch plus the quantity when on. */
 export function OptionalQuantityField(
-  props: BaseProps & {
+  raw: BaseProps & {
     dimension: Dimension;
     value: Quantity | null;
     offLabel: string;
@@ -206,6 +215,7 @@ export function OptionalQuantityField(
     onChange: (q: Quantity | null) => void;
   },
 ) {
+  const props = labelled(raw);
   const on = props.value !== null;
   return (
     <div class="dg-optional">

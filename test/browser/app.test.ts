@@ -157,7 +157,7 @@ describe('field screen', () => {
     // a number the engine rejects: its message, with the field, at the field and over the results
     await conc.fill('-1');
     await page.waitForSelector('[data-testid=input-issue]');
-    expect(await page.textContent('[data-field="source.concentration"] .dg-field-error')).toMatch(/source\.concentration/);
+    expect(await page.textContent('[data-field="source.concentration"] .dg-field-error')).toMatch(/^Source concentration C₀ −1 \S+ is not accepted: enter a value above 0 /);
     expect(await page.getAttribute('[data-testid=results]', 'data-stale')).toBe('true');
     await conc.fill('5');
     await waitSettled(page);

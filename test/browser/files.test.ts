@@ -43,12 +43,15 @@ describe('files', () => {
 
     const deep = '['.repeat(5000) + ']'.repeat(5000);
     const cases: [string, string | Buffer, RegExp][] = [
-      ['not-json.json', '{ "format": "downgradient-case", ', /not valid JSON/],
+      ['not-json.json', '{ "format": "downgradient-case", ', /the case file is cut short or damaged/],
       ['empty.json', '', /empty/],
       ['other-format.json', JSON.stringify({ type: 'FeatureCollection', features: [] }), /format is missing/],
       ['future.json', JSON.stringify({ ...demo, version: 99 }), /version 99 is newer/],
       ['unknown-version.json', JSON.stringify({ ...demo, version: 0 }), /not a known case version/],
       ['bad-field.json', JSON.stringify({ ...demo, aquifer: { ...demo.aquifer, effectivePorosity: 'high' } }), /aquifer\.effectivePorosity/],
+      // issue 13 item 6: a physically invalid value is named at import, in the screen's words
+      ['invalid-value.json', JSON.stringify({ ...demo, aquifer: { ...demo.aquifer, effectivePorosity: -0.3 } }), /Effective porosity nₑ −0\.3 is not accepted: enter a value above 0 and below 1/],
+      ['page.json', '<!doctype html><html><body>saved page</body></html>', /this is not a case file: a case file is JSON text that begins with “\{”/],
       ['prototype.json', JSON.stringify(demo).replace('"notes":', '"__proto__": {"polluted": true}, "notes":'), /__proto__/],
       ['deep.json', deep, /nests objects or lists more than/],
       ['huge.json', Buffer.alloc(3 * 1024 * 1024, 0x20), /larger than the 2 MB accepted/],

@@ -78,6 +78,6 @@ describe('caseToGeoJSON', () => {
     bad.aquifer.effectivePorosity = 1.5;
     const r = caseToGeoJSON(bad, null);
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.error).toMatch(/effectivePorosity/);
+    if (!r.ok) expect(r.error).toMatch(/Effective porosity nₑ 1\.5 is not accepted: enter a value above 0 and below 1/);
   });
 });

@@ -131,7 +131,7 @@ describe('screenCase end to end', () => {
     c.source.sourceHalfLife = { value: shortest * 1.01, unit: 'd' };
     expect(() => screenCase(c)).not.toThrow();
     c.source.sourceHalfLife = { value: shortest * 0.99, unit: 'd' };
-    expect(() => screenCase(c)).toThrow(/source\.sourceHalfLife/);
+    expect(() => screenCase(c)).toThrow(/^Source half-life [\d.]+ days is not accepted: .* cannot represent a source halving faster than every/);
   });
 
   test('nitrate demo: the spring stays below the limit by Domenico but reaches it by the exact solution, so both are shown, with a warning naming it', () => {

@@ -130,8 +130,8 @@ describe('makeLocalFrame: geographic (tangent plane on WGS 84)', () => {
   });
 
   it('rejects positions out of range with the field and range named', () => {
-    expect(() => makeLocalFrame('geographic', [0, 91])).toThrow(/datum latitude.*\[-90, 90\]/);
-    expect(() => makeLocalFrame('geographic', [200, 0])).toThrow(/datum longitude.*\[-180, 180\]/);
+    expect(() => makeLocalFrame('geographic', [0, 91])).toThrow(/datum's latitude must lie between −90° and 90° \(it is 91\)/);
+    expect(() => makeLocalFrame('geographic', [200, 0])).toThrow(/datum's longitude must lie between −180° and 180° \(it is 200\)/);
     const f = makeLocalFrame('geographic', [0, 0]);
     expect(() => f.toEN([0, NaN])).toThrow(/latitude/);
     expect(() => f.fromEN([2e6, 0])).toThrow(/within 1000 km/);

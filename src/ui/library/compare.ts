@@ -8,6 +8,7 @@
  */
 import { formatDuration, formatSig, roundSig, screenNumber } from '../../case/numbers';
 import type { Case } from '../../case/schema';
+import { CASE_FIELDS, fieldLabel } from '../../case/fields';
 import { UNITS } from '../../core/units';
 
 export interface Difference {
@@ -20,49 +21,6 @@ export interface Difference {
 
 const SKIP = new Set(['format', 'version', 'id', 'name', 'created', 'modified', 'parentId', 'notes']);
 
-const LABELS: Record<string, string> = {
-  'site.frame': 'Map frame',
-  'site.datum': 'Site datum',
-  'site.source.position': 'Release position',
-  'site.source.footprint': 'Release footprint',
-  'site.source.width': 'Source width across flow',
-  'site.flow.method': 'Flow from',
-  'site.flow.azimuthDeg': 'Flow direction (° from north)',
-  'site.flow.gradient': 'Hydraulic gradient',
-  'site.flow.readings': 'Head readings',
-  'aquifer.hydraulicConductivity': 'Hydraulic conductivity K',
-  'aquifer.effectivePorosity': 'Effective porosity nₑ',
-  'aquifer.totalPorosity': 'Total porosity n',
-  'aquifer.bulkDensity': 'Bulk density ρb',
-  'aquifer.fractionOrganicCarbon': 'Fraction of organic carbon foc',
-  'aquifer.dispersivity.mode': 'Dispersivity',
-  'aquifer.dispersivity.relation': 'Dispersivity scale relation',
-  'aquifer.dispersivity.transverseRatio': 'αT / αL',
-  'aquifer.dispersivity.verticalRatio': 'αV / αL',
-  'aquifer.dispersivity.longitudinal': 'Longitudinal dispersivity αL',
-  'aquifer.dispersivity.transverse': 'Transverse dispersivity αT',
-  'aquifer.dispersivity.vertical': 'Vertical dispersivity αV',
-  'aquifer.diffusion.include': 'Molecular diffusion',
-  'aquifer.diffusion.freeWater': 'Free-water diffusion coefficient',
-  'aquifer.diffusion.tortuosity': 'Tortuosity',
-  'contaminant.name': 'Contaminant',
-  'contaminant.presetId': 'Contaminant preset',
-  'contaminant.sorption.mode': 'Sorption given as',
-  'contaminant.sorption.koc': 'Koc',
-  'contaminant.sorption.kd': 'Kd',
-  'contaminant.halfLife': 'Biodegradation half-life',
-  'contaminant.decayPhase': 'Decay acts on',
-  'contaminant.limit': 'Concentration limit',
-  'contaminant.limitNote': 'Limit note',
-  'source.concentration': 'Source concentration C0',
-  'source.thickness': 'Source thickness',
-  'source.duration': 'Release duration',
-  'source.sourceHalfLife': 'Source half-life',
-  'evaluation.solution': 'Solution',
-  'evaluation.horizon': 'Horizon',
-  'evaluation.viewTime': 'Map time',
-  'evaluation.depth': 'Map depth',
-};
 
 type Q = { value: number; unit: string };
 
@@ -127,8 +85,9 @@ export function show(v: unknown): string {
   return 'set';
 }
 
+/** The field as the input panels label it (src/case/fields.ts, the one mapping). */
 function label(path: string): string {
-  return LABELS[path] ?? path;
+  return CASE_FIELDS[path]?.label ?? path;
 }
 
 function walk(a: unknown, b: unknown, path: string, out: Difference[]): void {
@@ -160,14 +119,7 @@ function walk(a: unknown, b: unknown, path: string, out: Difference[]): void {
   if (JSON.stringify(a) !== JSON.stringify(b)) out.push({ path, label: label(path), a: show(a), b: show(b) });
 }
 
-const RECEPTOR_LABELS: Record<string, string> = {
-  kind: 'kind',
-  position: 'position',
-  screenTop: 'screen top',
-  screenBottom: 'screen bottom',
-  pumping: 'pumping',
-  pumpingRate: 'pumping rate',
-};
+const RECEPTOR_FIELDS = ['kind', 'position', 'screenTop', 'screenBottom', 'pumping', 'pumpingRate'] as const;
 
 /** The inputs that differ between two cases, in the order of the case file. */
 export function inputDifferences(a: Case, b: Case): Difference[] {
@@ -183,10 +135,10 @@ export function inputDifferences(a: Case, b: Case): Difference[] {
       continue;
     }
     matched.add(y.id);
-    for (const k of Object.keys(RECEPTOR_LABELS) as (keyof typeof x)[]) {
+    for (const k of RECEPTOR_FIELDS) {
       const inner: Difference[] = [];
       walk(x[k], y[k], k, inner);
-      for (const d of inner) out.push({ ...d, path: `site.receptors.${x.id}.${k}`, label: `${x.name}: ${RECEPTOR_LABELS[k]}` });
+      for (const d of inner) out.push({ ...d, path: `site.receptors.${x.id}.${k}`, label: fieldLabel(`site.receptors[0].${k}`, () => x.name) });
     }
     if (x.name !== y.name) out.push({ path: `site.receptors.${x.id}.name`, label: `Receptor name`, a: x.name, b: y.name });
   }

@@ -50,7 +50,6 @@ export function AquiferPanel() {
           </select>
         </label>
         <QuantityField
-          label="Hydraulic conductivity K"
           field="aquifer.hydraulicConductivity"
           dimension="conductivity"
           value={a.hydraulicConductivity}
@@ -58,7 +57,6 @@ export function AquiferPanel() {
           help="Fine sand 1 – 5, medium sand 5 – 20, coarse sand 20 – 100, gravel 100 – 1000 m/d (Bouwer 1978, as tabulated in Canter et al. 1988)."
         />
         <NumberField
-          label="Effective porosity nₑ"
           field="aquifer.effectivePorosity"
           value={a.effectivePorosity}
           suffix="–"
@@ -66,7 +64,6 @@ export function AquiferPanel() {
           help="Fraction of the volume water flows through; less than the total porosity."
         />
         <NumberField
-          label="Total porosity n"
           field="aquifer.totalPorosity"
           value={a.totalPorosity}
           suffix="–"
@@ -74,7 +71,6 @@ export function AquiferPanel() {
           help={rangeHelp('aquifer.totalPorosity', '–', 'Unconsolidated deposits')}
         />
         <NumberField
-          label="Fraction of organic carbon foc"
           field="aquifer.fractionOrganicCarbon"
           value={a.fractionOrganicCarbon}
           suffix="–"
@@ -96,7 +92,6 @@ export function AquiferPanel() {
         />
         {a.bulkDensity ? (
           <QuantityField
-            label="Dry bulk density ρb"
             field="aquifer.bulkDensity"
             dimension="density"
             value={a.bulkDensity}
@@ -150,14 +145,12 @@ export function AquiferPanel() {
               </select>
             </label>
             <NumberField
-              label="αT / αL"
               field="aquifer.dispersivity.transverseRatio"
               value={disp.transverseRatio}
               onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.transverseRatio = v))}
               help="0.1 from Gelhar's high-reliability data; ASTM E1739 uses 1/3, as commonly cited."
             />
             <NumberField
-              label="αV / αL"
               field="aquifer.dispersivity.verticalRatio"
               value={disp.verticalRatio}
               onChange={(v) => updateCase((d) => d.aquifer.dispersivity.mode === 'estimate' && void (d.aquifer.dispersivity.verticalRatio = v))}
@@ -174,11 +167,11 @@ export function AquiferPanel() {
           </>
         ) : (
           <>
-            <QuantityField label="Longitudinal αL" field="aquifer.dispersivity.longitudinal" dimension="length" value={disp.longitudinal}
+            <QuantityField field="aquifer.dispersivity.longitudinal" dimension="length" value={disp.longitudinal}
               onChange={(q) => updateCase((d) => d.aquifer.dispersivity.mode === 'given' && void (d.aquifer.dispersivity.longitudinal = q))} />
-            <QuantityField label="Transverse horizontal αT" field="aquifer.dispersivity.transverse" dimension="length" value={disp.transverse}
+            <QuantityField field="aquifer.dispersivity.transverse" dimension="length" value={disp.transverse}
               onChange={(q) => updateCase((d) => d.aquifer.dispersivity.mode === 'given' && void (d.aquifer.dispersivity.transverse = q))} />
-            <QuantityField label="Transverse vertical αV" field="aquifer.dispersivity.vertical" dimension="length" value={disp.vertical}
+            <QuantityField field="aquifer.dispersivity.vertical" dimension="length" value={disp.vertical}
               onChange={(q) => updateCase((d) => d.aquifer.dispersivity.mode === 'given' && void (d.aquifer.dispersivity.vertical = q))} />
           </>
         )}
@@ -193,10 +186,10 @@ export function AquiferPanel() {
         />
         {a.diffusion.include && (
           <>
-            <QuantityField label="Free-water diffusion D₀" field="aquifer.diffusion.freeWater" dimension="diffusion" value={a.diffusion.freeWater}
+            <QuantityField field="aquifer.diffusion.freeWater" dimension="diffusion" value={a.diffusion.freeWater}
               onChange={(q) => updateCase((d) => void (d.aquifer.diffusion.freeWater = q))}
               help="Small organic molecules in water: about 1e-9 m²/s (common practice). Matters only at very slow flow." />
-            <NumberField label="Tortuosity factor τ" field="aquifer.diffusion.tortuosity" value={a.diffusion.tortuosity}
+            <NumberField field="aquifer.diffusion.tortuosity" value={a.diffusion.tortuosity}
               onChange={(v) => updateCase((d) => void (d.aquifer.diffusion.tortuosity = v))} help="De = D₀·τ; τ between 0 and 1." />
           </>
         )}

@@ -48,7 +48,6 @@ export function FlowPanel() {
       {flow.method === 'direction' ? (
         <>
           <NumberField
-            label="Flow towards (degrees clockwise from north)"
             field="site.flow.azimuthDeg"
             value={flow.azimuthDeg}
             suffix="°"
@@ -56,7 +55,6 @@ export function FlowPanel() {
             help="Drag the round handle at the tip of the arrow on the map to turn it."
           />
           <NumberField
-            label="Hydraulic gradient i"
             field="site.flow.gradient"
             value={flow.gradient}
             suffix="m/m"
@@ -113,7 +111,6 @@ function HeadReadings({ c }: { c: Case }) {
               }
             />
             <QuantityField
-              label="Water level"
               field={`site.flow.readings[${i}].head`}
               dimension="length"
               value={h.head}

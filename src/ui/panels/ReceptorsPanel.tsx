@@ -26,7 +26,6 @@ export function ReceptorsPanel() {
   return (
     <Section id="risk" title="What is at risk?" summary={summary}>
       <QuantityField
-        label="Limit at the receptors"
         field="contaminant.limit"
         dimension="concentration"
         value={k.limit}
@@ -35,7 +34,6 @@ export function ReceptorsPanel() {
         help="Your local limit governs: the drinking-water or groundwater standard that applies at this site under local rules. Published limits shown with presets are examples only."
       />
       <QuantityField
-        label="Time horizon"
         field="evaluation.horizon"
         dimension="time"
         value={c.evaluation.horizon}
@@ -43,7 +41,6 @@ export function ReceptorsPanel() {
         help="How far ahead to look: arrival, peak and status are reported within this time."
       />
       <QuantityField
-        label="Depth shown on the map"
         field="evaluation.depth"
         dimension="length"
         value={c.evaluation.depth}
@@ -100,14 +97,12 @@ export function ReceptorsPanel() {
               <ReceptorPlace index={i} />
               <div class="dg-pair">
                 <QuantityField
-                  label="Screen top below water table"
                   field={`site.receptors[${i}].screenTop`}
                   dimension="length"
                   value={r.screenTop}
                   onChange={(q) => updateCase((d) => void (d.site.receptors[i].screenTop = q))}
                 />
                 <QuantityField
-                  label="Screen bottom"
                   field={`site.receptors[${i}].screenBottom`}
                   dimension="length"
                   value={r.screenBottom}

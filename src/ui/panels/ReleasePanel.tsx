@@ -49,7 +49,6 @@ export function ReleasePanel() {
         </div>
       ) : (
         <QuantityField
-          label="Source width across the flow"
           field="site.source.width"
           dimension="length"
           value={src.width}
@@ -59,7 +58,6 @@ export function ReleasePanel() {
       )}
       <SourcePosition c={c} />
       <QuantityField
-        label="Source concentration C₀"
         field="source.concentration"
         dimension="concentration"
         value={c.source.concentration}
@@ -67,7 +65,6 @@ export function ReleasePanel() {
         help="Dissolved concentration in groundwater at the source (from monitoring, or an effective solubility estimate)."
       />
       <QuantityField
-        label="Source thickness below the water table"
         field="source.thickness"
         dimension="length"
         value={c.source.thickness}
@@ -174,7 +171,6 @@ function Contaminant({ c }: { c: Case }) {
       />
       {k.sorption.mode === 'koc' ? (
         <QuantityField
-          label="Organic-carbon partition coefficient Koc"
           field="contaminant.sorption.koc"
           dimension="partition"
           value={k.sorption.koc}
@@ -183,7 +179,6 @@ function Contaminant({ c }: { c: Case }) {
         />
       ) : (
         <QuantityField
-          label="Distribution coefficient Kd"
           field="contaminant.sorption.kd"
           dimension="partition"
           value={k.sorption.kd}

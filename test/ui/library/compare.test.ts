@@ -44,7 +44,7 @@ describe('inputDifferences', () => {
     expect(d.map((x) => x.label)).toEqual([
       'Hydraulic conductivity K',
       'Biodegradation half-life',
-      'Supply well: screen bottom',
+      'Screen bottom of “Supply well”',
       'Receptor “Garden well”',
     ]);
     expect(d[0]).toMatchObject({ a: '10 m/d', b: '25 m/d' });
@@ -62,7 +62,7 @@ describe('inputDifferences', () => {
     };
     const d = inputDifferences(base, v);
     expect(d[0]).toMatchObject({ label: 'Dispersivity', a: 'estimate', b: 'given' });
-    expect(d.some((x) => x.label === 'Longitudinal dispersivity αL' && x.a === 'none' && x.b === '5 m')).toBe(true);
+    expect(d.some((x) => x.label === 'Longitudinal αL' && x.a === 'none' && x.b === '5 m')).toBe(true);
   });
 });
 
