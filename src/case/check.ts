@@ -11,7 +11,8 @@
 import type { Case, Position } from './schema';
 import { ValidationError } from '../core/validation';
 import { prepareCase } from './prepare';
-import { prepareFrame } from './geometry';
+import { makeLocalFrame } from '../geo/projection';
+import { positionRange, prepareFrame } from './geometry';
 import { inCaseWords } from './checked';
 
 /** The reason a geo step gave, as plain words. */

@@ -118,7 +118,9 @@ export const CASE_FIELDS: Readonly<Record<string, FieldInfo>> = {
   'evaluation.horizon': f('Time horizon', 'time', POSITIVE),
   'evaluation.viewTime': f('Time shown on the map', 'time', POSITIVE),
   'evaluation.depth': f('Depth shown on the map', 'length', NON_NEGATIVE),
-  'units.system': f('Units', null),
+  'monitoring.wells': f('Monitoring wells', null),
+  'monitoring.wells[]': f('Monitoring well', null),
+  'monitoring.wells[].position': f('Position of the monitoring well', null),
 };
 
 /** 'site.receptors[2].screenTop' → 'site.receptors[].screenTop' */
@@ -144,6 +146,7 @@ const LIST_WORDS: Record<string, string> = {
   'site.flow.readings': 'water-level well',
   'site.boundaries': 'boundary line',
   'site.source.footprint': 'corner',
+  'monitoring.wells': 'monitoring well',
 };
 
 /**
@@ -153,7 +156,7 @@ const LIST_WORDS: Record<string, string> = {
  */
 export function fieldLabel(path: string, nameOf?: ItemNamer): string {
   const info = CASE_FIELDS[fieldPattern(path)];
-  const m = /^(site\.receptors|site\.flow\.readings|site\.boundaries|site\.source\.footprint)\[(\d+)\](.*)$/.exec(path);
+  const m = /^(site\.receptors|site\.flow\.readings|site\.boundaries|site\.source\.footprint|monitoring\.wells)\[(\d+)\](.*)$/.exec(path);
   if (!m) return info?.label ?? (path.endsWith('.unit') ? `Unit of ${lower(fieldLabel(path.slice(0, -5), nameOf))}` : path);
   const [, list, idx, rest] = m;
   const i = Number(idx);

@@ -34,6 +34,8 @@ import {
 } from '../core';
 import { CaseFieldError, atCaseField, checkRule, readFraction, readQuantity, ruleFor, type Rule } from './checked';
 import { GRADIENT_RULE, WIDTH_RULE } from './geometry';
+import { POSITIVE, writtenNumber } from './fields';
+import { roundSig } from './numbers';
 
 /** Sorption as the case states it: Koc (Kd = Koc·foc) or Kd, L/kg. */
 export type SorptionInput = { readonly mode: 'koc'; readonly koc: number } | { readonly mode: 'kd'; readonly kd: number };
@@ -100,7 +102,7 @@ const R_ = PHYSICS_RULES;
 
 /** ne ≤ n (the one rule across two inputs). */
 function checkPorosities(n: number, ne: number, value: unknown = ne): void {
-  if (ne > n) throw new CaseFieldError('aquifer.effectivePorosity', value, null, `at most the total porosity n (${n})`);
+  if (ne > n) throw new CaseFieldError('aquifer.effectivePorosity', value, null, `at most the total porosity n (${writtenNumber(roundSig(n, 4))})`);
 }
 
 /** Aquifer, sorption, decay, dispersivity, diffusion and source term of a case, read and checked. */
@@ -365,7 +367,7 @@ export interface ModelVariation {
   readonly rangesChecked?: boolean;
 }
 
-export const DISPERSIVITY_FACTOR_RULE: Rule = rule('aquifer.dispersivity', positive, 'a factor > 0 on the dispersivities');
+export const DISPERSIVITY_FACTOR_RULE: Rule = ruleFor('aquifer.dispersivity', POSITIVE);
 
 /**
  * The engine model of a prepared case with some physical inputs replaced (internal units): the

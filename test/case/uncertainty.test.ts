@@ -216,7 +216,7 @@ describe('each realisation goes through the case-to-engine seam', () => {
     expect(invalid).toBeGreaterThan(0);
     const res = runUncertainty(u);
     expect(res.refusedCount).toBe(invalid);
-    expect(res.refusals[0].message).toMatch(/aquifer\.effectivePorosity/);
+    expect(res.refusals[0].message).toMatch(/^Effective porosity nₑ [\d.]+ is not accepted: enter a value at most the total porosity n/);
     expect(res.receptors[0].evaluated).toBe(plan.runs - invalid);
   });
 });
