@@ -1,6 +1,6 @@
 """
 Reference values of the exact rectangular-source solution on the advancing front (C/C0 between
-1e-12 and 1e-6), for test/core/exact-front.test.ts. Independent of the engine: mpmath (arbitrary
+1e-12 and 1e-6), for test/core/solutions/patchSource.front.test.ts. Independent of the engine: mpmath (arbitrary
 precision, 30 digits) integrates the solution in its textbook form over the travel time tau,
 
   C/C0 = int_0^t f(tau) Y(y, tau) Z(z, tau) dtau

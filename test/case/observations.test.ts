@@ -2,8 +2,8 @@
  * The case's monitoring data beside its model (src/case/observations.ts) and their exports.
  *
  * References: the analysis is assembled from parts tested against outside references elsewhere
- * (Mann–Kendall and Sen against SciPy in test/core/trends.test.ts; Buscheck & Alcantar on the
- * steady-state centreline in test/core/rates.test.ts). Here: a case whose "measurements" are the
+ * (Mann–Kendall and Sen against SciPy in test/core/trends/trend.test.ts; Buscheck & Alcantar on the
+ * steady-state centreline in test/core/trends/rates.test.ts). Here: a case whose "measurements" are the
  * model's own concentrations must agree with the model exactly (log ratio 0, all within a factor of
  * ten) — an identity; the invented demo case (cases/depot-benzene-monitoring.json) gives the
  * verdicts its generator built in (a source declining with a 6-year half-life); the GeoJSON

@@ -3,7 +3,7 @@
  * line's particle method, on the invented demo case cases/riverside-supply-well.json and variants.
  * References: Javandel & Tsang 1986 (Ground Water 24(5)) for one well in uniform flow — capture
  * width far upgradient Q/(qB); travel time along the upgradient axis t = (nB/Q₀)[r − a ln(1 + r/a)],
- * a = Q/(2πQ₀) (the elementary integral of dr/v, see test/core/flow.test.ts).
+ * a = Q/(2πQ₀) (the elementary integral of dr/v, see test/core/flow/field.test.ts).
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';

@@ -23,7 +23,7 @@
  * (two exponentials) from the number J of steps since the seed. A segment ends where the rule
  * would change, and is shortened so that no carried factor leaves [e^{−600}, e^{600}].
  *
- * Error (stated; test/core/lattice/lattice.test.ts measures it against @stdlib's erf and erfc):
+ * Error (stated; test/core/lattice/erfLattice.test.ts measures it against @stdlib's erf and erfc):
  *  - quadrature: Gauss–Legendre's remainder δ^{2m+1}(m!)⁴/((2m+1)((2m)!)³)·f^{(2m)}(ξ), with
  *    f^{(2m)} = H_{2m}(t)e^{−t²} and |H_{2m}(t)| ≤ Σ_k |h_k|·|t|^k (H_{2m}'s coefficients taken
  *    positive: a bound that increases with |t|); relative to the step's integral (whose integrand

@@ -14,7 +14,7 @@
  * Truncation: the first omitted term, relative to the value, is about (2x·|d|)⁹/9! in the erfc
  * range (≤ 3e-16 at x = 10) and about 2^{9/2}·|d|⁹/√9! in the erf range (≤ 1e-22): below the
  * rounding of the polynomial sum, so the table functions carry a few ulp, like Cody's (the tests
- * check them against @stdlib's erf and erfc, test/core/lattice/lattice.test.ts). Above x = 10 the table is
+ * check them against @stdlib's erf and erfc, test/core/lattice/erfLattice.test.ts). Above x = 10 the table is
  * not used: erfc there comes from Cody's erfc (../special/erf.ts, with its split exponential, a few ulp).
  *
  * Cost: one table index and a degree-8 polynomial (Estrin's scheme; no exp, no division), against

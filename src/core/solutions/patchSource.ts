@@ -31,7 +31,7 @@
  * Stated accuracy: error estimate ≤ relTol × (largest C/C0 in the column) + absTol, with
  * relTol = 1e-6 and absTol = 1e-18 by default (EXACT_TOLERANCES). A point value is a column of one,
  * so it is within 1e-6 of itself (+1e-18): 1e-6 relative for every value ≥ 1e-12, the advancing
- * front included (test/core/exact-front.test.ts checks 40-digit mpmath values there). Cells of a
+ * front included (test/core/solutions/patchSource.front.test.ts checks 40-digit mpmath values there). Cells of a
  * longer column far below its largest value carry the same absolute, not relative, accuracy.
  * (absTol was 1e-13 until issue 12: values below 1e-7 then carried only 1e-13 absolute, up to
  * 1e-2 relative at 1e-12.)

@@ -11,8 +11,8 @@
  */
 import { expect, test } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { patchSourceExact } from '../../src/core';
-import { EXACT_TOLERANCES } from '../../src/core/solutions/patchSource';
+import { patchSourceExact } from '../../../src/core';
+import { EXACT_TOLERANCES } from '../../../src/core/solutions/patchSource';
 
 interface FrontPoint {
   v: number; ax: number; ay: number; az: number; R: number; decay: number; t: number;

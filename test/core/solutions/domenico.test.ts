@@ -8,7 +8,7 @@
  *    with v → v/R (decay on both phases). Tolerance 1e-12 relative (cases chosen away from deep
  *    tails, where the condition number of the formula is below ~1e3).
  * 2. The exact patch-source solution (patchSourceExact, itself checked against an independent
- *    quadrature and Monte Carlo in exact.test.ts), where Domenico's assumptions hold: small αx/x,
+ *    quadrature and Monte Carlo in patchSource.test.ts), where Domenico's assumptions hold: small αx/x,
  *    late time, near the centreline. Tolerance 2 % relative (measured below 1 % there, see table).
  * 3. Where they do not hold, the measured departure is recorded beside what the literature reports:
  *    - West, Kueper & Ungs (2007), Ground Water 45(2), "On the use and error of approximation in the
@@ -32,9 +32,9 @@
  *    off the centreline the sign changes (over- and underprediction).
  */
 import { describe, expect, it } from 'vitest';
-import { ValidationError, domenico, domenicoGrid, patchSourceExact } from '../../src/core/index';
-import { erfcD, exactDecimal, makeDecimal } from '../../scripts/reference/decimal-special.mjs';
-import { MismatchLog, expectWithin } from './helpers/check';
+import { ValidationError, domenico, domenicoGrid, patchSourceExact } from '../../../src/core/index';
+import { erfcD, exactDecimal, makeDecimal } from '../../../scripts/reference/decimal-special.mjs';
+import { MismatchLog, expectWithin } from '../helpers/check';
 
 const Dec = makeDecimal(40);
 type Case = Parameters<typeof domenico>[0];
@@ -202,7 +202,7 @@ describe('domenicoGrid', () => {
     }
     log.assertNone();
   });
-  it('on evenly spaced y values (the lattice path, src/core/special/erfLattice.ts) equals pointwise domenico within 1e-12 relative', () => {
+  it('on evenly spaced y values (the lattice path, src/core/lattice) equals pointwise domenico within 1e-12 relative', () => {
     // stated: 5e-13 for the lattice values, plus the rounding of the lattice arguments u0 + j·du
     // against (y ± W/2)/s, which moves erfc(u) by at most 2|u|·8ε·max|u| relative (≤ 3e-13 here);
     // 2.1e-45 absolute: the point path returns 0 where both arguments lie beyond ±10 (erf.ts)

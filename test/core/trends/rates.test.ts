@@ -14,7 +14,7 @@
  *   transverse dispersion). The test shows the bias is there, and that dividing the lateral factor
  *   out again returns λ to 1e-9: the whole bias is the finite width.
  * The point rate and the regression's interval are checked on exact exponentials and against
- * SciPy's linregress through the line fixture in test/core/trends.test.ts.
+ * SciPy's linregress through the line fixture in test/core/trends/trend.test.ts.
  */
 import { describe, expect, it } from 'vitest';
 import {
@@ -25,8 +25,8 @@ import {
   erf,
   pointDecayRate,
   type ScreeningModel,
-} from '../../src/core/index';
-import { expectWithin } from './helpers/check';
+} from '../../../src/core/index';
+import { expectWithin } from '../helpers/check';
 
 const base: ScreeningModel = {
   v: 0.12,

@@ -23,7 +23,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import erfStd from '@stdlib/math-base-special-erf';
-import { ogataBanks, patchSourceExact, prepareFlow } from '../../src/core/index';
+import { ogataBanks, patchSourceExact, prepareFlow } from '../../../src/core/index';
 import {
   emptyTally,
   mergeTally,
@@ -32,7 +32,7 @@ import {
   walkParticles,
   wellConcentrations,
   type WalkInput,
-} from '../../src/core/particles/walk';
+} from '../../../src/core/particles/walk';
 
 const q = 0.1;
 const n = 0.25;

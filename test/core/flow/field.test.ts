@@ -32,7 +32,7 @@ import {
   stagnationPoints,
   wellFieldVelocity,
   ValidationError,
-} from '../../src/core/index';
+} from '../../../src/core/index';
 
 const Q = 500; // m³/d
 const B = 10; // m

@@ -5,10 +5,10 @@
  * References
  *  1. The independent tanh-sinh quadrature of the Wexler (1992, USGS TWRI 3-B7) patch-source
  *     integral in test/core/reference/patch-quadrature.ts (its own variable τ, @stdlib's erfc,
- *     checked against the decimal.js Ogata–Banks solution in exact.test.ts), cell by cell.
+ *     checked against the decimal.js Ogata–Banks solution in patchSource.test.ts), cell by cell.
  *  2. Where that reference has no counterpart (a declining source, a well screen), the engine's
  *     per-column adaptive Gauss–Kronrod method (patchSource.ts), a different variable and rule,
- *     itself checked against references 1 and the Monte Carlo walks in exact.test.ts. This is a
+ *     itself checked against references 1 and the Monte Carlo walks in patchSource.test.ts. This is a
  *     cross-check of two methods, said as such.
  *
  * Tolerances
@@ -18,10 +18,10 @@
  *    of the value (decay 1e-3 per day over 5e4 days, or 200 travel times without decay).
  */
 import { describe, expect, it } from 'vitest';
-import { exactGridShared, type SharedGridReport } from '../../src/core/solutions/patchGrid';
-import { exactColumn, type PatchParams } from '../../src/core/solutions/patchSource';
-import { MismatchLog } from './helpers/check';
-import { type PatchCase, patchReference } from './reference/patch-quadrature';
+import { exactGridShared, type SharedGridReport } from '../../../src/core/solutions/patchGrid';
+import { exactColumn, type PatchParams } from '../../../src/core/solutions/patchSource';
+import { MismatchLog } from '../helpers/check';
+import { type PatchCase, patchReference } from '../reference/patch-quadrature';
 
 type Case = Omit<PatchCase, 'x' | 'y' | 'z' | 't'>;
 

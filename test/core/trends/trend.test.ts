@@ -11,7 +11,7 @@
  * Tolerances are written beside each check; integers (S, ranks) are exact.
  */
 import { describe, expect, it } from 'vitest';
-import fixture from '../fixtures/trends/trends.json';
+import fixture from '../../fixtures/trends/trends.json';
 import {
   analyseTrend,
   censorAtHighestLimit,
@@ -23,8 +23,8 @@ import {
   studentTQuantile,
   trendVerdict,
   type TimedResult,
-} from '../../src/core/index';
-import { expectWithin } from './helpers/check';
+} from '../../../src/core/index';
+import { expectWithin } from '../helpers/check';
 
 const quarterly = (values: number[], nd: boolean[] = []): TimedResult[] =>
   values.map((value, i) => ({ t: 91 * i, value, nonDetect: nd[i] ?? false }));

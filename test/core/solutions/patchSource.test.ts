@@ -23,10 +23,10 @@
  *  - grid vs points: the stated accuracy relative to the column maximum, 1e-6 × max + 1e-13.
  */
 import { describe, expect, it } from 'vitest';
-import { ogataBanks, patchSourceExact, patchSourceExactGrid } from '../../src/core/index';
-import { MismatchLog, Prng, expectWithin } from './helpers/check';
-import { ogataBanksReference } from './reference/ogata-banks-decimal';
-import { type PatchCase, passageDensity, patchReference, retarded, spreadAt } from './reference/patch-quadrature';
+import { ogataBanks, patchSourceExact, patchSourceExactGrid } from '../../../src/core/index';
+import { MismatchLog, Prng, expectWithin } from '../helpers/check';
+import { ogataBanksReference } from '../reference/ogata-banks-decimal';
+import { type PatchCase, passageDensity, patchReference, retarded, spreadAt } from '../reference/patch-quadrature';
 
 const ENGINE_REL = 1e-6;
 const ENGINE_ABS = 1e-13;
