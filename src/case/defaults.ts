@@ -68,8 +68,9 @@ export function newCase(opts: NewCaseOptions = {}): Case {
       diffusion: { ...DEFAULT_DIFFUSION, freeWater: { ...DEFAULT_DIFFUSION.freeWater } },
     },
     contaminant: {
+      // the benzene preset's values (presets.ts), so the preset picker names what the case holds
       name: 'benzene',
-      presetId: null,
+      presetId: 'benzene',
       sorption: { mode: 'koc', koc: { value: 61.7, unit: 'L/kg' } },
       halfLife: null,
       decayPhase: 'dissolved-and-sorbed',

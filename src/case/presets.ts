@@ -227,6 +227,22 @@ export function materialPreset(id: string): MaterialPreset | undefined {
   return MATERIAL_PRESETS.find((p) => p.id === id) ?? MATERIAL_RANGES_FREEZE_CHERRY.find((p) => p.id === id);
 }
 
+/**
+ * The conductivity a material fills in, m/d: the geometric mean of its published range (the
+ * middle of a log-spread quantity), to two significant digits.
+ */
+export function typicalConductivity(m: MaterialPreset): number {
+  return Number(Math.sqrt(m.conductivity.min * m.conductivity.max).toPrecision(2));
+}
+
+/**
+ * The material whose typical conductivity K (m/d) is, so the picker keeps showing the material
+ * that filled K in (derived, not stored); undefined once K is anything else.
+ */
+export function materialOfConductivity(kMd: number): MaterialPreset | undefined {
+  return MATERIAL_PRESETS.find((m) => Math.abs(typicalConductivity(m) - kMd) <= 1e-6 * Math.abs(kMd));
+}
+
 // ---------------------------------------------------------------------------------------------
 // Usual field ranges: values outside them are accepted but warned about ("doubtful input").
 

@@ -13,7 +13,7 @@ import { ReleasePanel } from './panels/ReleasePanel';
 import { FlowPanel } from './panels/FlowPanel';
 import { AquiferPanel } from './panels/AquiferPanel';
 import { ReceptorsPanel } from './panels/ReceptorsPanel';
-import { ResultsPanel } from './panels/ResultsPanel';
+import { CautionStrip, ResultsPanel } from './panels/ResultsPanel';
 import { lazyPart } from './lazy';
 import { DEMO_CASES } from './demos';
 import { HistoryButtons } from './HistoryButtons';
@@ -54,13 +54,16 @@ export function App({ initialCase, slots }: AppProps) {
   return (
     <div class="dg-app" data-started={started}>
       <header class="dg-header">
-        <span class="dg-brand" role="img" aria-label="Downgradient">
-          <svg viewBox="0 0 32 32" width="28" height="28" aria-hidden="true">
-            <path d="M3 9h26M3 16h20M3 23h13" stroke="currentColor" stroke-width="3" stroke-linecap="round" />
-            <path d="M22 20l6 3-6 3z" fill="currentColor" />
+        {/* the app's name is the page's heading; its mark is a release (the map's hexagon) and the
+            plume it sends downgradient, drawn so it is not taken for a menu button */}
+        <h1 class="dg-brand">
+          <svg class="dg-brand-mark" viewBox="0 0 32 32" width="30" height="30" aria-hidden="true">
+            <path class="dg-brand-plume" d="M10 16C14 12.5 18.5 7.5 24.5 7.5C29 7.5 31.2 11.5 31.2 16C31.2 20.5 29 24.5 24.5 24.5C18.5 24.5 14 19.5 10 16Z" />
+            <path class="dg-brand-core" d="M10 16C14 14.5 17.5 12 21.5 12C24.5 12 26 13.8 26 16C26 18.2 24.5 20 21.5 20C17.5 20 14 17.5 10 16Z" />
+            <path class="dg-brand-source" d="M7.5 9.5L13 12.75V19.25L7.5 22.5L2 19.25V12.75Z" />
           </svg>
           <span class="dg-brand-name">Downgradient</span>
-        </span>
+        </h1>
         <CaseName />
         <DemoPicker />
         <HistoryButtons />
@@ -92,6 +95,7 @@ export function App({ initialCase, slots }: AppProps) {
           ))}
         </div>
       </main>
+      <CautionStrip />
       {settingsOpen.value && <SettingsDialog at={settingsOpen.value} onClose={() => (settingsOpen.value = null)} />}
     </div>
   );

@@ -9,6 +9,13 @@ export type MapTool = 'move' | 'trace-footprint' | 'place-source' | 'add-recepto
 export const mapTool = signal<MapTool>('move');
 /** id of the selected receptor, head reading or monitoring well */
 export const selectedId = signal<string | null>(null);
+/** a receptor tapped on the map: its row in the results table is brought into view (`n` counts taps, so the same one twice still asks) */
+export const revealRequest = signal<{ id: string; n: number } | null>(null);
+/** Select a receptor tapped on the map and ask for its table row to be shown. */
+export function selectFromMap(id: string): void {
+  selectedId.value = id;
+  revealRequest.value = { id, n: (revealRequest.peek()?.n ?? 0) + 1 };
+}
 /** while the plume animation plays: the time shown, d; null when not playing */
 export const playTime = signal<number | null>(null);
 /** 'ok' tiles load; 'failed' none could load (offline, no signal) so the site grid shows; 'off' no tile URL */

@@ -42,6 +42,8 @@ describe('accessibility (axe-core)', () => {
       writeFileSync(artifactPath(`axe-${label}.json`), JSON.stringify(all, null, 2));
       const bad = Object.fromEntries(Object.entries(all).map(([k, fs]) => [k, serious(fs).map((f) => `${f.id}: ${f.help} — ${f.nodes.map((n) => n.target.join(' ')).join(' | ')}`)]));
       expect(bad).toEqual({ main: [], demo: [], sheet: [], compare: [], files: [], report: [] });
+      // moderate findings once reported and mended (issue 13): the page has its h1, and the caution strip is in a landmark
+      for (const [k, fs] of Object.entries(all)) expect(fs.map((f) => f.id).filter((id) => id === 'page-has-heading-one' || id === 'region'), k).toEqual([]);
       expect(w.pageErrors).toEqual([]);
       await context.close();
     });

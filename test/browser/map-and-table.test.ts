@@ -5,32 +5,13 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
-import { openDemo, useBrowser, watchedPage } from './offline-helpers';
+import { openDemo, settled, startScreen, useBrowser } from './offline-helpers';
 
 const getBrowser = useBrowser();
 const PHONE = { width: 390, height: 844 };
 const NITRATE = 'nitrate-field-supply.json';
 
-/** Results for the case on screen, not stale, and contours drawn. */
-async function settled(page: Page): Promise<void> {
-  await page.waitForFunction(
-    () => document.querySelector('[data-testid=results]')?.getAttribute('data-stale') === 'false' && document.querySelectorAll('path.dg-band').length > 0,
-    undefined,
-    { timeout: 30_000 },
-  );
-  await page.waitForTimeout(300);
-}
-
-async function start(viewport = LANDSCAPE, file?: string) {
-  const w = await watchedPage(getBrowser(), viewport);
-  await w.page.goto(w.base);
-  await w.page.waitForSelector('.dg-mark-source');
-  const ok = w.page.locator('button', { hasText: /^OK$/ });
-  if (await ok.isVisible().catch(() => false)) await ok.click();
-  if (file) await openDemo(w.page, file);
-  await settled(w.page);
-  return w;
-}
+const start = (viewport = LANDSCAPE, file?: string) => startScreen(getBrowser(), viewport, file);
 
 describe('receptor table', () => {
   it('nitrate demo: the spring, whose result differs between the solutions, shows both, with a warning naming it', async () => {

@@ -147,3 +147,27 @@ export async function journaledNames(page: Page): Promise<string[]> {
       }),
   );
 }
+
+/** Results for the case on screen, not stale, and the plume drawn (bands, or the legend saying there are none). */
+export async function settled(page: Page): Promise<void> {
+  await page.waitForFunction(
+    () =>
+      document.querySelector('[data-testid=results]')?.getAttribute('data-stale') === 'false' &&
+      (document.querySelectorAll('path.dg-band').length > 0 || !!document.querySelector('[data-testid=plume-key-none]')),
+    undefined,
+    { timeout: 30_000 },
+  );
+  await page.waitForTimeout(300);
+}
+
+/** A fresh page on the main screen (the first-visit notice dismissed), optionally on a demo case, with its results settled. */
+export async function startScreen(browser: Browser, viewport = LANDSCAPE, file?: string): Promise<Watched> {
+  const w = await watchedPage(browser, viewport);
+  await w.page.goto(w.base);
+  await w.page.waitForSelector('.dg-mark-source');
+  const ok = w.page.locator('button', { hasText: /^OK$/ });
+  if (await ok.isVisible().catch(() => false)) await ok.click();
+  if (file) await openDemo(w.page, file);
+  await settled(w.page);
+  return w;
+}

@@ -4,11 +4,21 @@
  * named beside them (as recorded in the project's field-value notes), not read from presets.ts.
  */
 import { describe, expect, test } from 'vitest';
-import { CONTAMINANT_PRESETS, MATERIAL_PRESETS, MATERIAL_RANGES_FREEZE_CHERRY, FIELD_RANGES, contaminantPreset, provenanceLabel, citeValue } from '../../src/case/presets';
+import { newCase } from '../../src/case/defaults';
+import { materialOfConductivity, typicalConductivity, CONTAMINANT_PRESETS, MATERIAL_PRESETS, MATERIAL_RANGES_FREEZE_CHERRY, FIELD_RANGES, contaminantPreset, provenanceLabel, citeValue } from '../../src/case/presets';
 
 const YR = 365.25;
 
 describe('contaminant presets', () => {
+  test('a new case is named after the preset whose values it holds (issue 13 item 19: not "my own values")', () => {
+    const k = newCase().contaminant;
+    const p = contaminantPreset(k.presetId!)!;
+    expect(k.name).toBe(p.name);
+    expect(k.sorption).toEqual({ mode: 'koc', koc: { value: p.koc!.value, unit: 'L/kg' } });
+    expect(k.limit).toEqual({ value: p.limits[0].value, unit: 'mg/L' });
+    expect(k.halfLife).toBeNull(); // a preset leaves decay off (the cautious choice)
+  });
+
   test('the seven screening contaminants are there', () => {
     expect(CONTAMINANT_PRESETS.map((p) => p.id).sort()).toEqual(['benzene', 'cis-dce', 'mtbe', 'nitrate', 'pce', 'tce', 'vinyl-chloride'].sort());
   });
@@ -98,6 +108,15 @@ describe('contaminant presets', () => {
 });
 
 describe('material presets', () => {
+  test('a material fills in the geometric mean of its range and stays named while K is that value (issue 13 item 19)', () => {
+    const medium = MATERIAL_PRESETS.find((m) => m.id === 'medium-sand')!;
+    expect(typicalConductivity(medium)).toBe(10); // √(5 × 20) = 10 m/d
+    expect(typicalConductivity(MATERIAL_PRESETS.find((m) => m.id === 'fine-sand')!)).toBe(2.2); // √5 = 2.236
+    for (const m of MATERIAL_PRESETS) expect(materialOfConductivity(typicalConductivity(m))?.id).toBe(m.id);
+    expect(materialOfConductivity(10 * (1 + 1e-9))?.id).toBe('medium-sand'); // a unit round trip's last digits
+    expect(materialOfConductivity(11)).toBeUndefined();
+  });
+
   test.each([
     // Bouwer 1978, Groundwater Hydrology, as tabulated in Canter et al. 1988 (seen), m/d
     ['fine-sand', 1, 5],

@@ -15,6 +15,7 @@ import { fmtConc, fmtTime } from '../format';
 import { comparePairOrder, inputDifferences, receptorChanges, type Difference, type ReceptorChange, type ReceptorOutcome } from './compare';
 import { comparePair } from './CaseMenu';
 import { SCREENING_CAUTION } from '../../case/caution';
+import { ScrollX } from '../ScrollX';
 
 interface Outcome {
   a: Case;
@@ -125,24 +126,26 @@ export function CompareView() {
           {result.diffs.length === 0 ? (
             <p class="dg-lib-empty">The two cases have the same inputs.</p>
           ) : (
-            <table class="dg-lib-table">
-              <thead>
-                <tr>
-                  <th scope="col">Input</th>
-                  <th scope="col">{result.a.name}</th>
-                  <th scope="col">{result.b.name}</th>
-                </tr>
-              </thead>
-              <tbody>
-                {result.diffs.map((d) => (
-                  <tr key={d.path}>
-                    <th scope="row">{d.label}</th>
-                    <td>{d.a}</td>
-                    <td>{d.b}</td>
+            <ScrollX label="Inputs that differ">
+              <table class="dg-lib-table">
+                <thead>
+                  <tr>
+                    <th scope="col">Input</th>
+                    <th scope="col">{result.a.name}</th>
+                    <th scope="col">{result.b.name}</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {result.diffs.map((d) => (
+                    <tr key={d.path}>
+                      <th scope="row">{d.label}</th>
+                      <td>{d.a}</td>
+                      <td>{d.b}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </ScrollX>
           )}
           <h2 class="dg-lib-h">What it does at each receptor</h2>
           {busy && !result.changes && <p class="dg-lib-note">Screening both cases…</p>}
@@ -153,26 +156,28 @@ export function CompareView() {
           )}
           {result.changes && result.changes.length === 0 && <p class="dg-lib-empty">Neither case has receptors.</p>}
           {result.changes && result.changes.length > 0 && (
-            <table class="dg-lib-table" data-testid="compare-receptors">
-              <thead>
-                <tr>
-                  <th scope="col">Receptor</th>
-                  <th scope="col">{result.a.name}</th>
-                  <th scope="col">{result.b.name}</th>
-                  <th scope="col">Change</th>
-                </tr>
-              </thead>
-              <tbody>
-                {result.changes.map((ch, i) => (
-                  <tr key={i}>
-                    <th scope="row">{ch.name}</th>
-                    <td>{summary(ch.a)}</td>
-                    <td>{summary(ch.b)}</td>
-                    <td>{ch.effect}</td>
+            <ScrollX label="What it does at each receptor">
+              <table class="dg-lib-table" data-testid="compare-receptors">
+                <thead>
+                  <tr>
+                    <th scope="col">Receptor</th>
+                    <th scope="col">{result.a.name}</th>
+                    <th scope="col">{result.b.name}</th>
+                    <th scope="col">Change</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {result.changes.map((ch, i) => (
+                    <tr key={i}>
+                      <th scope="row">{ch.name}</th>
+                      <td>{summary(ch.a)}</td>
+                      <td>{summary(ch.b)}</td>
+                      <td>{ch.effect}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </ScrollX>
           )}
           <p class="dg-lib-caution">{SCREENING_CAUTION}</p>
         </>

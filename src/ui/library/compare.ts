@@ -85,9 +85,32 @@ export function show(v: unknown): string {
   return 'set';
 }
 
-/** The field as the input panels label it (src/case/fields.ts, the one mapping). */
-function label(path: string): string {
-  return CASE_FIELDS[path]?.label ?? path;
+/** What each top-level part of the case is called on screen, for inputs without a label of their own. */
+const PART_WORDS: Record<string, string> = {
+  site: 'Site',
+  aquifer: 'Aquifer',
+  contaminant: 'Contaminant',
+  source: 'Source',
+  evaluation: 'Results',
+  uncertainty: 'How sure',
+  observations: 'Measured',
+};
+
+/** "hydraulicConductivity" → "hydraulic conductivity" */
+const words = (key: string) => key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
+
+/**
+ * The input's name as the screen says it; an input without a label of its own (a newer optional
+ * field) is named in words from its place in the case, never by its code.
+ */
+export function label(path: string): string {
+  const known = CASE_FIELDS[path]?.label; // the input panels' labels (src/case/fields.ts)
+  if (known) return known;
+  const [part, ...rest] = path.split('.');
+  const dist = /^uncertainty\.inputs\.(\w+)$/.exec(path);
+  if (dist) return `How sure: distribution of ${words(dist[1])}`;
+  const head = PART_WORDS[part] ?? words(part);
+  return rest.length ? `${head}: ${rest.map(words).join(', ')}` : head;
 }
 
 function walk(a: unknown, b: unknown, path: string, out: Difference[]): void {

@@ -7,6 +7,7 @@ import { mapTool, tileState, type MapTool } from '../view';
 import { TimeBar } from './TimeBar';
 import { currentPlume } from '../evaluation';
 import { fmtTime } from '../format';
+import { swatchBackground } from './bandStyle';
 
 import { setActiveSiteMap } from './active';
 
@@ -120,24 +121,35 @@ function MapTools() {
   );
 }
 
-/** Legend of the plume bands, with the screening label the plume always carries. */
+/**
+ * Legend of the plume bands, with the screening label the plume always carries. Each swatch is
+ * painted as its band looks on the map (bandStyle.ts). With the limit at or above the source
+ * concentration there are no bands, and the legend says why instead of standing empty.
+ */
 function PlumeKey() {
   const p = currentPlume.value;
   if (!p) return null;
+  const n = p.thresholds.length;
   return (
-    <div class="dg-plume-key" aria-label="Plume legend">
+    <div class="dg-plume-key" role="group" aria-label="Plume legend" data-testid="plume-key">
       <strong>
         Plume {p.time === Infinity ? 'at steady state' : `after ${fmtTime(p.time)}`}, {p.depth} m below water table — screening estimate (
         {p.solution === 'domenico' ? 'Domenico' : 'exact solution'}):
       </strong>
-      <ul>
-        {p.thresholds.map((t, k) => (
-          <li key={t}>
-            <span class={`dg-swatch dg-band-${Math.min(k, 3)}`} aria-hidden="true" />
-            {k === 0 ? '≥ limit' : `≥ ${Math.round(t / p.thresholds[0])}×`}
-          </li>
-        ))}
-      </ul>
+      {n === 0 ? (
+        <span class="dg-key-none" data-testid="plume-key-none">
+          no band: the limit is at or above the source concentration C₀, so the plume is everywhere below the limit.
+        </span>
+      ) : (
+        <ul>
+          {p.thresholds.map((t, k) => (
+            <li key={t}>
+              <span class="dg-swatch" data-band={Math.min(k, 3)} style={{ background: swatchBackground(k, n) }} aria-hidden="true" />
+              {k === 0 ? '≥ limit' : `≥ ${Math.round(t / p.thresholds[0])}×`}
+            </li>
+          ))}
+        </ul>
+      )}
     </div>
   );
 }

@@ -13,7 +13,8 @@ import { effect, signal } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import { currentCase, currentResults, updateCase, registerMapElement } from '../state';
-import { mapTool, selectedId, tileState, playTime } from '../view';
+import { mapTool, selectedId, tileState, playTime, selectFromMap } from '../view';
+import { bandFillOpacity } from './bandStyle';
 import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
@@ -363,7 +364,7 @@ export class SiteMap {
         const id = r.id;
         m.on('drag', () => this.moveReceptor(id, m!.getLatLng()));
         m.on('dragend', () => this.moveReceptor(id, m!.getLatLng()));
-        m.on('click', () => (selectedId.value = id));
+        m.on('click', () => selectFromMap(id));
         m.addTo(this.map);
         this.receptors.set(r.id, m);
       }
@@ -460,7 +461,7 @@ export class SiteMap {
         if (band && this.map.hasLayer(band)) band.remove();
         continue;
       }
-      const style = { fillOpacity: 0.45 + (0.4 * k) / Math.max(1, n) };
+      const style = { fillOpacity: bandFillOpacity(k, n) };
       if (!band) {
         band = L.polygon(latlngs, { interactive: false, className: `dg-band dg-band-${Math.min(k, 3)}`, weight: k === 0 ? 2.5 : 1.5, ...style });
         this.bands[k] = band;

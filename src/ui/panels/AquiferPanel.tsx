@@ -5,7 +5,8 @@
 import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
 import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
-import { MATERIAL_PRESETS, materialPreset, FIELD_RANGES, citeValue } from '../../case/presets';
+import { MATERIAL_PRESETS, materialPreset, materialOfConductivity, typicalConductivity, FIELD_RANGES, citeValue } from '../../case/presets';
+import { toInternal } from '../../core/units';
 import { fmtLength } from '../format';
 import { derivedForScreen } from '../evaluation';
 
@@ -21,6 +22,8 @@ export function AquiferPanel() {
   const dv = derivedForScreen();
   const disp = a.dispersivity;
   const k = a.hydraulicConductivity;
+  // the material that filled K in stays shown until K is changed to anything else
+  const material = materialOfConductivity(toInternal(k.value, k.unit));
   const summary =
     `K ${fmtNum(k.value)} ${unitLabel(k.unit)}, nₑ ${fmtNum(a.effectivePorosity)}` +
     (dv ? `; R ${fmtNum(dv.R, 3)}, αL ${fmtLength(dv.ax)}` : '');
@@ -31,14 +34,11 @@ export function AquiferPanel() {
           <span>Material (fills in a typical conductivity)</span>
           <select
             class="dg-select"
-            value=""
+            value={material?.id ?? ''}
             onChange={(e) => {
               const m = materialPreset((e.target as HTMLSelectElement).value);
-              (e.target as HTMLSelectElement).value = '';
               if (!m) return;
-              // geometric mean of the published range: the middle of a log-spread quantity
-              const k = Math.sqrt(m.conductivity.min * m.conductivity.max);
-              updateCase((d) => void (d.aquifer.hydraulicConductivity = { value: Number(k.toPrecision(2)), unit: 'K:m/d' }));
+              updateCase((d) => void (d.aquifer.hydraulicConductivity = { value: typicalConductivity(m), unit: 'K:m/d' }));
             }}
           >
             <option value="">Pick a material…</option>

@@ -3,10 +3,12 @@
  * plume's centreline, when it reaches the limit, the concentration at the horizon and the peak;
  * the other solution's figures beneath the chosen one's wherever the two differ (core compareSolutions).
  */
-import { selectedId } from '../view';
+import { useEffect, useRef } from 'preact/hooks';
+import { revealRequest, selectedId } from '../view';
 import { fmtConc, fmtLength, fmtTime } from '../format';
 import type { Evaluation, ReceptorRow } from '../results';
 import { SOLUTIONS_DIFFER_ABOVE, statusText } from '../../core/results';
+import { ScrollX } from '../ScrollX';
 
 
 const SOLUTION_SHORT: Record<'domenico' | 'exact', string> = { domenico: 'Domenico', exact: 'exact' };
@@ -29,73 +31,85 @@ function Alt({ alt, figure, text }: { alt: ReceptorRow['alternate']; figure: 'ar
 const arrivalText = (a: number | null) => (a === null ? 'not within horizon' : fmtTime(a));
 
 export function ReceptorTable({ r }: { r: Evaluation }) {
+  const reveal = revealRequest.value;
+  const body = useRef<HTMLTableSectionElement>(null);
+  useEffect(() => {
+    // a receptor tapped on the map: its row comes into view (the panel or page scrolls the least it can)
+    if (!reveal) return;
+    const row = body.current?.querySelector<HTMLElement>(`tr[data-receptor="${CSS.escape(reveal.id)}"]`);
+    row?.scrollIntoView({ block: 'nearest', inline: 'start' });
+  }, [reveal]);
   if (r.receptors.length === 0) return <p class="dg-help">Add receptors on the map to see what each one will see.</p>;
   const otherName = r.solution === 'domenico' ? 'exact' : 'Domenico';
   return (
-    <div class="dg-table-wrap">
-      <table class="dg-table" data-testid="receptor-table">
-        <caption>
-          Each receptor against the limit {fmtConc(r.limit)} over {fmtTime(r.horizon)}. Where the {otherName} solution gives another
-          result, or any figure differs by more than {SOLUTIONS_DIFFER_ABOVE * 100} %, its figures are shown under the chosen one's.
-        </caption>
-        <thead>
-          <tr>
-            <th scope="col">Receptor and status</th>
-            <th scope="col">Down / off the centreline</th>
-            <th scope="col">Reaches limit</th>
-            <th scope="col">At horizon</th>
-            <th scope="col">Peak (when)</th>
-          </tr>
-        </thead>
-        <tbody>
-          {r.receptors.map((x) => {
-            const alt = x.alternate?.showBoth ? x.alternate : null;
-            const upgradient = x.x < 0;
-            return (
-              <tr
-                key={x.id}
-                data-receptor={x.id}
-                data-status={x.status}
-                data-both={alt ? 'true' : undefined}
-                class={selectedId.value === x.id ? 'dg-selected' : ''}
-                onClick={() => (selectedId.value = x.id)}
-              >
-                <th scope="row">
-                  <button type="button" class="dg-linkish" onClick={() => (selectedId.value = x.id)}>
-                    {x.name}
-                  </button>
-                  <span class={`dg-status dg-status-${x.status}`}>{upgradient ? 'Upgradient of the source: not reached' : statusText(x.status, true)}</span>
-                  {alt && (
-                    <span class={`dg-alt dg-status dg-status-${alt.status}${alt.status !== x.status ? ' dg-alt-differs' : ''}`} data-col="alt-status">
-                      {SOLUTION_SHORT[alt.solution]}: {statusText(alt.status, true)}
-                    </span>
-                  )}
-                </th>
-                <td>
-                  {upgradient ? (
-                    <>{fmtLength(-x.x)} upgradient</>
-                  ) : (
-                    <>{fmtLength(x.x)} down</>
-                  )}
-                  <span class="dg-alt">{fmtLength(Math.abs(x.y))} off</span>
-                </td>
-                <td data-col="arrival">
-                  {upgradient ? 'never (upgradient)' : arrivalText(x.arrival)}
-                  <Alt alt={alt} figure="arrival" text={arrivalText(alt?.arrival ?? null)} />
-                </td>
-                <td data-col="horizon">
-                  {upgradient ? '—' : fmtConc(x.atHorizon)}
-                  <Alt alt={alt} figure="atHorizon" text={fmtConc(alt?.atHorizon ?? 0)} />
-                </td>
-                <td data-col="peak">
-                  {upgradient ? '—' : `${fmtConc(x.peak.c)} (${fmtTime(x.peak.t)})`}
-                  <Alt alt={alt} figure="peak" text={`${fmtConc(alt?.peak.c ?? 0)} (${fmtTime(alt?.peak.t ?? null)})`} />
-                </td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
-    </div>
+    <>
+      {/* the table's description stays above its sideways scroll; the caption names the table */}
+      <p class="dg-table-note" id="dg-receptor-table-note">
+        Each receptor against the limit {fmtConc(r.limit)} over {fmtTime(r.horizon)}. Where the {otherName} solution gives another
+        result, or any figure differs by more than {SOLUTIONS_DIFFER_ABOVE * 100} %, its figures are shown under the chosen one's.
+      </p>
+      <ScrollX label="Receptor results table">
+        <table class="dg-table dg-receptor-table" data-testid="receptor-table" aria-describedby="dg-receptor-table-note">
+          <caption class="dg-sr">Receptor results</caption>
+          <thead>
+            <tr>
+              <th scope="col">Receptor and status</th>
+              <th scope="col">Down / off the centreline</th>
+              <th scope="col">Reaches limit</th>
+              <th scope="col">At horizon</th>
+              <th scope="col">Peak (when)</th>
+            </tr>
+          </thead>
+          <tbody ref={body}>
+            {r.receptors.map((x) => {
+              const alt = x.alternate?.showBoth ? x.alternate : null;
+              const upgradient = x.x < 0;
+              return (
+                <tr
+                  key={x.id}
+                  data-receptor={x.id}
+                  data-status={x.status}
+                  data-both={alt ? 'true' : undefined}
+                  class={selectedId.value === x.id ? 'dg-selected' : ''}
+                  onClick={() => (selectedId.value = x.id)}
+                >
+                  <th scope="row">
+                    <button type="button" class="dg-linkish" onClick={() => (selectedId.value = x.id)}>
+                      {x.name}
+                    </button>
+                    <span class={`dg-status dg-status-${x.status}`}>{upgradient ? 'Upgradient of the source: not reached' : statusText(x.status, true)}</span>
+                    {alt && (
+                      <span class={`dg-alt dg-status dg-status-${alt.status}${alt.status !== x.status ? ' dg-alt-differs' : ''}`} data-col="alt-status">
+                        {SOLUTION_SHORT[alt.solution]}: {statusText(alt.status, true)}
+                      </span>
+                    )}
+                  </th>
+                  <td>
+                    {upgradient ? (
+                      <>{fmtLength(-x.x)} upgradient</>
+                    ) : (
+                      <>{fmtLength(x.x)} down</>
+                    )}
+                    <span class="dg-alt">{fmtLength(Math.abs(x.y))} off</span>
+                  </td>
+                  <td data-col="arrival">
+                    {upgradient ? 'never (upgradient)' : arrivalText(x.arrival)}
+                    <Alt alt={alt} figure="arrival" text={arrivalText(alt?.arrival ?? null)} />
+                  </td>
+                  <td data-col="horizon">
+                    {upgradient ? '—' : fmtConc(x.atHorizon)}
+                    <Alt alt={alt} figure="atHorizon" text={fmtConc(alt?.atHorizon ?? 0)} />
+                  </td>
+                  <td data-col="peak">
+                    {upgradient ? '—' : `${fmtConc(x.peak.c)} (${fmtTime(x.peak.t)})`}
+                    <Alt alt={alt} figure="peak" text={`${fmtConc(alt?.peak.c ?? 0)} (${fmtTime(alt?.peak.t ?? null)})`} />
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </ScrollX>
+    </>
   );
 }

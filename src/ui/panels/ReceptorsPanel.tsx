@@ -6,17 +6,26 @@ import { mapTool, selectedId, lastDeleted } from '../view';
 import { preparedCase } from '../evaluation';
 import { newId, newReceptor } from '../../case/defaults';
 import type { Case, ReceptorKind } from '../../case/schema';
+import { KIND_LABEL } from '../../case/receptorKinds';
 import { Fragment } from 'preact';
 import { useEffect, useRef } from 'preact/hooks';
 import { activeSiteMap } from '../map/active';
 
-export const KIND_LABEL: Record<ReceptorKind, string> = {
-  well: 'Well',
-  spring: 'Spring',
-  'surface-water': 'Creek, pond or river',
-  'property-line': 'Property line',
-  other: 'Other point',
-};
+export { KIND_LABEL };
+
+/**
+ * The depth fields of a receptor other than a well in its kind's words (a well has a screen, and may pump); the
+ * water reaching a spring or a creek, or crossing a property line, is read over a depth interval
+ * below the water table.
+ */
+function depthWords(kind: ReceptorKind): { top: string; bottom: string; help: string } | undefined {
+  if (kind === 'well') return undefined; // a well's screen: the labels of src/case/fields.ts
+  const help =
+    kind === 'spring' || kind === 'surface-water'
+      ? 'Groundwater reaching a spring or a creek comes mostly from the top of the aquifer: 0 – 0 m (at the water table, where the plume is strongest) is the cautious choice (common practice).'
+      : 'The concentration is averaged over this interval; 0 – 0 m reads it at the water table.';
+  return { top: 'Depth below water table: from', bottom: 'to', help };
+}
 
 export function ReceptorsPanel() {
   const c = currentCase.value;
@@ -85,7 +94,13 @@ export function ReceptorsPanel() {
                   class="dg-select"
                   aria-label={`Kind of ${r.name}`}
                   value={r.kind}
-                  onChange={(e) => updateCase((d) => void (d.site.receptors[i].kind = (e.target as HTMLSelectElement).value as ReceptorKind))}
+                  onChange={(e) =>
+                    updateCase((d) => {
+                      const x = d.site.receptors[i];
+                      x.kind = (e.target as HTMLSelectElement).value as ReceptorKind;
+                      if (x.kind !== 'well') x.pumping = false; // only a well pumps
+                    })
+                  }
                 >
                   {(Object.keys(KIND_LABEL) as ReceptorKind[]).map((kk) => (
                     <option value={kk} key={kk}>
@@ -97,26 +112,29 @@ export function ReceptorsPanel() {
               <ReceptorPlace index={i} />
               <div class="dg-pair">
                 <QuantityField
+                  label={depthWords(r.kind)?.top}
                   field={`site.receptors[${i}].screenTop`}
                   dimension="length"
                   value={r.screenTop}
                   onChange={(q) => updateCase((d) => void (d.site.receptors[i].screenTop = q))}
                 />
                 <QuantityField
+                  label={depthWords(r.kind)?.bottom}
                   field={`site.receptors[${i}].screenBottom`}
                   dimension="length"
                   value={r.screenBottom}
                   onChange={(q) => updateCase((d) => void (d.site.receptors[i].screenBottom = q))}
                 />
               </div>
-              <label class="dg-check">
+              {r.kind !== 'well' && <p class="dg-help">{depthWords(r.kind)?.help}</p>}
+              {r.kind === 'well' && <label class="dg-check">
                 <input
                   type="checkbox"
                   checked={r.pumping}
                   onChange={(e) => updateCase((d) => void (d.site.receptors[i].pumping = (e.target as HTMLInputElement).checked))}
                 />
                 <span>Pumps {r.pumping && <em>— noted; pumping is not yet represented, so a pumping well may see the plume sooner.</em>}</span>
-              </label>
+              </label>}
               <div class="dg-btn-row">
                 <button
                   type="button"

@@ -57,12 +57,20 @@ export function ResultsPanel() {
           <WarningsOf r={r} />
         </div>
       )}
-      {r && (
-        <p class="dg-caution-strip" role="note" data-testid="caution-strip">
-          Screening estimate only: regulators and licensed hydrogeologists decide; your local limit governs.
-        </p>
-      )}
     </Section>
+  );
+}
+
+/**
+ * The caution's short form at the foot of the screen, in a row of its own under the map and the
+ * panel (App.tsx): always in view once there are results, and never over anything they show.
+ */
+export function CautionStrip() {
+  if (!currentResults.value) return null;
+  return (
+    <footer class="dg-caution-strip" data-testid="caution-strip">
+      <p role="note">Screening estimate only: regulators and licensed hydrogeologists decide; your local limit governs.</p>
+    </footer>
   );
 }
 

@@ -1,7 +1,7 @@
 // Case comparison: differences found in internal units (unit factors from src/core/units.ts, whose
 // definitions cite NIST), bookkeeping fields ignored, receptors matched by id then name.
 import { describe, expect, it } from 'vitest';
-import { inputDifferences, receptorChanges, describeChange, comparePairOrder, quantityText, type ReceptorOutcome } from '../../../src/ui/library/compare';
+import { inputDifferences, receptorChanges, describeChange, comparePairOrder, quantityText, label, type ReceptorOutcome } from '../../../src/ui/library/compare';
 import { newCase } from '../../../src/case/defaults';
 import type { Case } from '../../../src/case/schema';
 
@@ -50,6 +50,15 @@ describe('inputDifferences', () => {
     expect(d[0]).toMatchObject({ a: '10 m/d', b: '25 m/d' });
     expect(d[1]).toMatchObject({ a: 'none', b: '1 year' });
     expect(d[3]).toMatchObject({ a: 'absent', b: 'present' });
+  });
+
+  it('an input without a label of its own is named in words, never by its code (issue 13 item 19)', () => {
+    expect(label('uncertainty.inputs.hydraulicConductivity')).toBe('How sure: distribution of hydraulic conductivity');
+    expect(label('uncertainty.seed')).toBe('How sure: seed');
+    expect(label('site.saturatedThickness')).toBe('Site: saturated thickness');
+    const v = structuredClone(base);
+    v.uncertainty.seed = base.uncertainty.seed + 1;
+    for (const d of inputDifferences(base, v)) expect(d.label).not.toMatch(/\.|[a-z][A-Z]/);
   });
 
   it('a switch of dispersivity mode is one labelled difference plus the new fields', () => {

@@ -1,0 +1,10 @@
+/** The kinds of receptor in the screen's words: the panel, the report and exports say these, never the codes. */
+import type { ReceptorKind } from './schema';
+
+export const KIND_LABEL: Readonly<Record<ReceptorKind, string>> = Object.freeze({
+  well: 'Well',
+  spring: 'Spring',
+  'surface-water': 'Creek, pond or river',
+  'property-line': 'Property line',
+  other: 'Other point',
+});
