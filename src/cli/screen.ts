@@ -16,6 +16,7 @@
  * field and accepted range) · 1 unexpected failure.
  */
 import { readFileSync, statSync } from 'node:fs';
+import { decodeText } from '../case/text';
 import { parseCaseFile, DEFAULT_MAX_BYTES } from '../case/io';
 import { screenCase, type ScreeningResult } from '../case/screen';
 import { ASSUMPTIONS, SCREENING_CAUTION, WELL_FIELD_ASSUMPTIONS } from '../case/caution';
@@ -552,7 +553,12 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
       err(`error: ${args.file}: the file is ${st.size} bytes, larger than the ${DEFAULT_MAX_BYTES} bytes accepted for a case file\n`);
       return EXIT.invalidCase;
     }
-    text = readFileSync(args.file, 'utf8');
+    const decoded = decodeText(readFileSync(args.file));
+    if (!decoded.ok) {
+      err(`error: ${args.file} is not a valid case file:\n  - ${decoded.error}\n`);
+      return EXIT.invalidCase;
+    }
+    text = decoded.text;
   } catch (e) {
     const code = (e as { code?: string }).code;
     const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'is a directory, not a case file' : (e as Error).message;
@@ -568,7 +574,12 @@ export function run(argv: string[], out: (s: string) => void, err: (s: string) =
   if (args.observations) {
     let csv: string;
     try {
-      csv = readFileSync(args.observations, 'utf8');
+      const decoded = decodeText(readFileSync(args.observations));
+      if (!decoded.ok) {
+        err(`error: ${args.observations}: ${decoded.error}\n`);
+        return EXIT.invalidCase;
+      }
+      csv = decoded.text;
     } catch (e) {
       err(`error: cannot read ${args.observations}: ${(e as { code?: string }).code === 'ENOENT' ? 'no such file' : (e as Error).message}\n`);
       return EXIT.unreadable;

@@ -55,6 +55,8 @@ describe('files', () => {
       ['prototype.json', JSON.stringify(demo).replace('"notes":', '"__proto__": {"polluted": true}, "notes":'), /__proto__/],
       ['deep.json', deep, /nests objects or lists more than/],
       ['huge.json', Buffer.alloc(3 * 1024 * 1024, 0x20), /larger than the 2 MB accepted/],
+      // issue 14 item 6: the one reading rule (src/case/text.ts) — Windows-1252 bytes are refused, not replaced
+      ['cp1252.json', Buffer.from(JSON.stringify({ ...demo, notes: 'Konzentration in µg/L' }), 'latin1'), /not UTF-8 text \(byte \d+ cannot be read as UTF-8; it may be in a Windows or Latin-1 encoding\)/],
       ['binary.json', Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]), /not a text file/],
     ];
     for (const [name, text, expected] of cases) {

@@ -27,7 +27,7 @@ beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'dg-cli-'));
 }, 120_000);
 
-function writeCase(name: string, body: string): string {
+function writeCase(name: string, body: string | Buffer): string {
   const p = join(dir, name);
   writeFileSync(p, body);
   return p;
@@ -169,6 +169,24 @@ describe('bad input: non-zero exit and a message naming the problem', () => {
     const d = run(dir);
     expect(d.code).toBe(3);
     expect(d.err).toMatch(/is a directory/);
+  });
+
+  // issue 14 item 6: the app's reading rule (src/case/text.ts, tested on its own in test/case/text.test.ts)
+  test('text encodings: UTF-16 with a mark is read; Windows-1252, overlong UTF-8 and a doubled mark are refused (exit 4)', () => {
+    const text = readFileSync(demo('nitrate-field-supply'), 'utf8');
+    const u16 = Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]);
+    const ok = run(writeCase('utf16.json', u16), '--format', 'json');
+    expect(ok.code).toBe(0);
+    const same = (out: string) => ({ ...JSON.parse(out), case: { ...JSON.parse(out).case, file: '' } });
+    expect(same(ok.out)).toEqual(same(run(demo('nitrate-field-supply'), '--format', 'json').out));
+    const cp1252 = Buffer.from(text.replace('"notes": "', '"notes": "\u00b5'), 'latin1');
+    const r1 = run(writeCase('cp1252.json', cp1252));
+    expect(r1.code).toBe(4);
+    expect(r1.err).toMatch(/not UTF-8 text \(byte \d+ cannot be read as UTF-8; it may be in a Windows or Latin-1 encoding\)/);
+    const overlong = Buffer.concat([Buffer.from(text.slice(0, 20)), Buffer.from([0xc0, 0xaf]), Buffer.from(text.slice(20))]);
+    expect(run(writeCase('overlong.json', overlong)).code).toBe(4);
+    const twoMarks = Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf, 0xef, 0xbb, 0xbf]), Buffer.from(text)]);
+    expect(run(writeCase('two-marks.json', twoMarks)).err).toMatch(/begins with two byte-order marks/);
   });
 
   test('not JSON, wrong format, future version, schema field: exit 4 with the reason', () => {

@@ -10,6 +10,7 @@ import { canShareFiles, downloadFile, shareFiles, type OutFile } from './downloa
 import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, uncertaintyCsvFile, type Built } from './outputs';
 import { reportOpen } from './reportOpen';
 import { DEFAULT_MAX_BYTES } from '../../case/io';
+import { decodeText } from '../../case/text';
 import { SCREENING_CAUTION } from '../../case/caution';
 import { sheet } from './CaseMenu';
 import { settingsOpen } from '../view';
@@ -57,13 +58,13 @@ export function FilesView() {
         setMsg({ tone: 'error', lines: [`${file.name}: the file is ${(file.size / 1048576).toFixed(1)} MB, larger than the ${DEFAULT_MAX_BYTES / 1048576} MB accepted for a case file. Nothing was imported.`] });
         return;
       }
-      const text = await file.text();
-      // NUL or undecodable bytes near the start: an image, archive or document, not a JSON text
-      if (/[\u0000\uFFFD]/.test(text.slice(0, 4096))) {
-        setMsg({ tone: 'error', lines: [`${file.name}: this is not a text file (it looks like binary data such as an image, archive or document); a case file is JSON text.`, 'Nothing was imported; the cases on this device are unchanged.'] });
+      // the one reading rule for text (src/case/text.ts), the command line's too
+      const decoded = decodeText(new Uint8Array(await file.arrayBuffer()));
+      if (!decoded.ok) {
+        setMsg({ tone: 'error', lines: [`${file.name}: ${decoded.error}; a case file is JSON text.`, 'Nothing was imported; the cases on this device are unchanged.'] });
         return;
       }
-      const res = await importCaseText(text, file.name);
+      const res = await importCaseText(decoded.text, file.name);
       setPending(res.ok === 'choose' ? { ...res, fileName: file.name } : null);
       if (res.ok === 'choose') setMsg(null);
       else if (res.ok) setMsg({ tone: 'ok', lines: [`Imported “${res.name}” from ${file.name} and opened it.`, ...(res.note ? [res.note] : [])] });

@@ -4,6 +4,7 @@
  * adopted as a what-if variant (never into the open case). The figures and their wording come from
  * src/case (observations.ts, observations-text.ts, fit.ts), the same as the report and the CLI.
  */
+import { decodeText } from '../../case/text';
 import { useEffect, useMemo, useState } from 'preact/hooks';
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
@@ -74,7 +75,13 @@ function ImportStep() {
       setMessage(`The file is ${(f.size / 1024 / 1024).toFixed(1)} MB, larger than the 5.0 MB accepted for one import; split it.`);
       return;
     }
-    const t = readObservationTable(await f.text());
+    const decoded = decodeText(new Uint8Array(await f.arrayBuffer()));
+    if (!decoded.ok) {
+      setMessage(`Not imported: ${decoded.error}.`);
+      setTable(null);
+      return;
+    }
+    const t = readObservationTable(decoded.text);
     if (!t.ok) {
       setMessage(`Not imported: ${t.problem}.`);
       setTable(null);
