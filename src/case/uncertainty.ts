@@ -182,6 +182,8 @@ export interface UncertaintyPlan {
   readonly headPlane: PlaneSlopeCovariance | null;
   /** sampled columns of the Latin hypercube: one per input, two for the head plane */
   readonly columns: number;
+  /** times of each realisation's breakthrough curves (d), null: curves not computed */
+  readonly curveTimes: Float64Array | null;
   /** a traced footprint: its source plane (centre and width) for a flow direction of the datum plane (geometry.ts); null: a point release */
   readonly sourcePlaneFor: ((planeAzimuthDeg: number) => SourcePlane) | null;
 }
@@ -199,7 +201,12 @@ export const HEAD_FIT_DRIVERS = {
 export interface RunOptions {
   runs?: number;
   seed?: number;
+  /** also each realisation's breakthrough curve at every receptor (BAND_TIMES times), for the percentile bands */
+  curves?: boolean;
 }
+
+/** Times of the percentile bands of the breakthrough curves: this many, evenly spaced in (0, horizon]. */
+export const BAND_TIMES = 48;
 
 /**
  * Check a case's uncertain inputs and prepare a run. Throws ValidationError naming the input
@@ -261,7 +268,8 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
     const sf = prepareFrame(c);
     sourcePlaneFor = (az) => prepareSourcePlane(c, sf, az);
   }
-  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0), sourcePlaneFor };
+  const curveTimes = opts.curves ? Float64Array.from({ length: BAND_TIMES }, (_, k) => (prepared.horizon * (k + 1)) / BAND_TIMES) : null;
+  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0), curveTimes, sourcePlaneFor };
 }
 
 /** Internal-unit values of one realisation's inputs (by input name). */
@@ -360,6 +368,8 @@ export interface RealisationBlock {
   readonly atHorizon: Float64Array;
   /** peak within the horizon, mg/L (NaN: refused) */
   readonly peak: Float64Array;
+  /** with the plan's curve times: concentration (mg/L) at each, index ((i − from)·receptors + r)·times + k (NaN: refused) */
+  readonly curves: Float32Array | null;
   /** the engine's message for each refused realisation (at most the first five) */
   readonly refusals: { realisation: number; message: string }[];
   readonly refusedCount: number;
@@ -371,7 +381,15 @@ export interface RealisationBlock {
 export function runRealisations(plan: UncertaintyPlan, from: number, to: number, lhs = designOf(plan)): RealisationBlock {
   const nr = plan.prepared.receptors.length;
   const count = to - from;
-  const out = { arrival: new Float64Array(count * nr), atHorizon: new Float64Array(count * nr), peak: new Float64Array(count * nr) };
+  const times = plan.curveTimes ?? undefined;
+  const nt = times?.length ?? 0;
+  const out = {
+    arrival: new Float64Array(count * nr),
+    atHorizon: new Float64Array(count * nr),
+    peak: new Float64Array(count * nr),
+    curves: times ? new Float32Array(count * nr * nt) : null,
+    times,
+  };
   const refusals: RealisationBlock['refusals'] = [];
   let refusedCount = 0;
   const { limit, horizon } = plan.prepared;
@@ -379,7 +397,7 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     const row = (i - from) * nr;
     try {
       const { model, receptors } = realisationModel(plan, realisationValues(plan, lhs, i));
-      screenReceptorsInto(model, receptors, limit, horizon, out, row);
+      screenReceptorsInto(model, receptors, limit, horizon, { ...out, curves: out.curves ?? undefined }, row);
     } catch (e) {
       if (!(e instanceof ValidationError)) throw e;
       refusedCount++;
@@ -387,9 +405,11 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
       out.arrival.fill(Number.NaN, row, row + nr);
       out.atHorizon.fill(Number.NaN, row, row + nr);
       out.peak.fill(Number.NaN, row, row + nr);
+      out.curves?.fill(Number.NaN, row * nt, (row + nr) * nt);
     }
   }
-  return { from, to, receptors: nr, ...out, refusals, refusedCount, evaluated: count };
+  const { arrival, atHorizon, peak, curves } = out;
+  return { from, to, receptors: nr, arrival, atHorizon, peak, curves, refusals, refusedCount, evaluated: count };
 }
 
 /**
@@ -403,6 +423,8 @@ export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBl
   const arrival = new Float64Array(n * nr).fill(Number.NaN);
   const atHorizon = new Float64Array(n * nr).fill(Number.NaN);
   const peak = new Float64Array(n * nr).fill(Number.NaN);
+  const nt = plan.curveTimes?.length ?? 0;
+  const curves = plan.curveTimes ? new Float32Array(n * nr * nt).fill(Number.NaN) : null;
   const refusals: RealisationBlock['refusals'] = [];
   let refusedCount = 0;
   let evaluated = 0;
@@ -410,11 +432,12 @@ export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBl
     arrival.set(b.arrival, b.from * nr);
     atHorizon.set(b.atHorizon, b.from * nr);
     peak.set(b.peak, b.from * nr);
+    if (curves && b.curves) curves.set(b.curves, b.from * nr * nt);
     refusals.push(...b.refusals);
     refusedCount += b.refusedCount;
     evaluated += b.evaluated;
   }
-  return { from: 0, to: n, receptors: nr, arrival, atHorizon, peak, refusals: refusals.slice(0, 5), refusedCount, evaluated };
+  return { from: 0, to: n, receptors: nr, arrival, atHorizon, peak, curves, refusals: refusals.slice(0, 5), refusedCount, evaluated };
 }
 
 export interface Percentiles {
@@ -563,6 +586,47 @@ function headPlaneDrivers(plan: UncertaintyPlan, lhs: LatinHypercube, from: numb
       pExceedHighThird: thirds.high.p,
       measure: HEAD_FIT_DRIVERS[input].measure,
     };
+  });
+}
+
+/** Percentile bands of one receptor's breakthrough curves over the realisations (mg/L at each of `times`). */
+export interface BreakthroughBands {
+  readonly id: string;
+  /** d */
+  readonly times: Float64Array;
+  readonly p5: Float64Array;
+  readonly p25: Float64Array;
+  readonly p50: Float64Array;
+  readonly p75: Float64Array;
+  readonly p95: Float64Array;
+  /** realisations the bands are taken over (done and not refused) */
+  readonly realisations: number;
+}
+
+const BAND_QUANTILES = [0.05, 0.25, 0.5, 0.75, 0.95];
+
+/**
+ * The 5th, 25th, 50th, 75th and 95th percentiles of each receptor's concentration at each of the
+ * plan's curve times, over the realisations done and not refused (percentiles as summariseRun's;
+ * statistics.ts). Null when the run has no curves.
+ */
+export function breakthroughBands(plan: UncertaintyPlan, block: RealisationBlock): BreakthroughBands[] | null {
+  const times = plan.curveTimes;
+  const curves = block.curves;
+  if (!times || !curves) return null;
+  const nr = block.receptors;
+  const nt = times.length;
+  const n = block.to - block.from;
+  return plan.prepared.receptors.map((rec, j) => {
+    const rows: number[] = [];
+    for (let i = 0; i < n; i++) if (!Number.isNaN(block.peak[i * nr + j])) rows.push(i);
+    const q = BAND_QUANTILES.map(() => new Float64Array(nt));
+    const values = new Float64Array(rows.length);
+    for (let k = 0; k < nt; k++) {
+      rows.forEach((i, m) => (values[m] = curves[(i * nr + j) * nt + k]));
+      percentiles(values, BAND_QUANTILES).forEach((v, b) => (q[b][k] = v ?? 0));
+    }
+    return { id: rec.id, times, p5: q[0], p25: q[1], p50: q[2], p75: q[3], p95: q[4], realisations: rows.length };
   });
 }
 

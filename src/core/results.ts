@@ -258,6 +258,9 @@ export interface ReceptorFiguresInto {
   readonly atHorizon: Float64Array;
   /** peak within the horizon, mg/L */
   readonly peak: Float64Array;
+  /** with `times`: the concentration (mg/L) at each time, index (offset + j)·times.length + k */
+  readonly curves?: Float32Array | Float64Array;
+  readonly times?: ArrayLike<number>;
 }
 
 /**
@@ -265,7 +268,8 @@ export interface ReceptorFiguresInto {
  * peak within it, first arrival at the limit: the values screenAverage, peakConcentration and
  * firstTimeAtLimit give), with the model validated once for all receptors and each receptor's
  * time-independent factors worked out once: a Monte Carlo realisation's inner loop. The arrival is
- * searched only where the peak reaches the limit. Throws ValidationError like those functions.
+ * searched only where the peak reaches the limit. With `out.times` (checked by the caller as times
+ * ≥ 0) also each receptor's breakthrough curve at those times. Throws ValidationError like those functions.
  */
 export function screenReceptorsInto(m: ScreeningModel, receptors: readonly Receptor[], limit: number, horizon: number, out: ReceptorFiguresInto, offset: number): void {
   validateModel(m);
@@ -282,6 +286,8 @@ export function screenReceptorsInto(m: ScreeningModel, receptors: readonly Recep
     out.atHorizon[offset + j] = atHorizon;
     out.peak[offset + j] = peak;
     out.arrival[offset + j] = peak >= limit ? (arrivalOn(c, continuousConstant, limit, horizon) ?? Infinity) : Infinity;
+    const { curves, times } = out;
+    if (curves && times) for (let k = 0, at = (offset + j) * times.length; k < times.length; k++) curves[at + k] = c(times[k]);
   }
 }
 

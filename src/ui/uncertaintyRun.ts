@@ -6,31 +6,12 @@
  * terminates the workers and keeps what was done. The result records the case it was computed
  * for, so an edit marks it out of date instead of silently keeping it.
  */
-import { signal } from '@preact/signals';
 import type { Case } from '../case/schema';
-import { joinBlocks, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan, type UncertaintyResult } from '../case/uncertainty';
+import { breakthroughBands, joinBlocks, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
+import { caseKeyOf, uncertaintyRun, type RunState } from './uncertaintyState';
+
+export { caseKeyOf, uncertaintyRun, type RunState };
 import type { UncertaintyReply, UncertaintyRequest } from '../worker/uncertainty';
-
-export interface RunState {
-  readonly status: 'idle' | 'running' | 'done' | 'cancelled' | 'failed';
-  readonly result: UncertaintyResult | null;
-  /** the case text the result belongs to (out of date when the case differs) */
-  readonly caseKey: string | null;
-  readonly done: number;
-  readonly runs: number;
-  readonly startedAt: number;
-  /** seconds left, estimated from the pace so far (null: not known yet) */
-  readonly secondsLeft: number | null;
-  readonly error: string | null;
-  readonly workers: number;
-}
-
-export const uncertaintyRun = signal<RunState>({ status: 'idle', result: null, caseKey: null, done: 0, runs: 0, startedAt: 0, secondsLeft: null, error: null, workers: 0 });
-
-/** What a result depends on: everything but the case's name, notes and time stamps. */
-export function caseKeyOf(c: Case): string {
-  return JSON.stringify([c.site, c.aquifer, c.contaminant, c.source, c.evaluation, c.uncertainty]);
-}
 
 const RANGE = 200;
 let active: { workers: Worker[]; cancel: () => void } | null = null;
@@ -43,7 +24,7 @@ export function startUncertainty(c: Case): void {
   cancelUncertainty();
   let plan: UncertaintyPlan;
   try {
-    plan = planUncertainty(c);
+    plan = planUncertainty(c, { curves: true });
   } catch (e) {
     uncertaintyRun.value = { ...uncertaintyRun.peek(), status: 'failed', error: e instanceof Error ? e.message : String(e) };
     return;
@@ -69,11 +50,14 @@ export function startUncertainty(c: Case): void {
     workers,
     cancel: () => {
       // keep what was done: the partial result over the finished ranges
-      if (!finished && blocks.length) uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joinBlocks(plan, blocks)) };
+      if (!finished && blocks.length) {
+        const joined = joinBlocks(plan, blocks);
+        uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joined), bands: breakthroughBands(plan, joined) };
+      }
       stop('cancelled');
     },
   };
-  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n };
+  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n, bands: null };
   const snapshot = structuredClone(c);
   const give = (w: Worker) => {
     if (next >= runs) return;
@@ -93,13 +77,16 @@ export function startUncertainty(c: Case): void {
       const elapsed = (now - startedAt) / 1000;
       const last = done >= runs;
       // partial results at most twice a second (a summary sorts every receptor's values)
-      const result = last || now - summarisedAt > 500 ? summariseRun(plan, joinBlocks(plan, blocks)) : uncertaintyRun.peek().result;
-      if (result !== uncertaintyRun.peek().result) summarisedAt = performance.now();
-      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
+      const joined = last || now - summarisedAt > 500 ? joinBlocks(plan, blocks) : null;
+      const result = joined ? summariseRun(plan, joined) : uncertaintyRun.peek().result;
+      if (joined) summarisedAt = performance.now();
+      // the bands sort every receptor's values at every time: once, at the end
+      const bands = last && joined ? breakthroughBands(plan, joined) : null;
+      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, bands, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
       if (last) stop('done');
       else give(w);
     };
     w.onerror = (e) => stop('failed', e.message || 'a worker failed');
-    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed } satisfies UncertaintyRequest);
+    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed, curves: true } satisfies UncertaintyRequest);
   }
 }

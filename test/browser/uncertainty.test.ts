@@ -62,6 +62,11 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await expect(page.locator('.dg-uncertainty').innerText()).resolves.toContain('conditional on the chosen distributions');
     await page.locator('.dg-mc-results table').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-1024x768.png') });
+    // the breakthrough chart shows the run's percentile bands behind the deterministic curve, with their key
+    await page.waitForSelector('[data-testid=breakthrough-bands] .dg-band-outer');
+    await expect(page.locator('[data-testid=breakthrough-chart] .dg-chart-key').innerText()).resolves.toMatch(/5–95 %.*25–75 %.*median of 300 Monte Carlo realisations/s);
+    await page.locator('[data-testid=breakthrough-chart]').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('uncertainty-bands-1024x768.png') });
     await page.locator('.dg-mc-driver').first().scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-drivers-1024x768.png') });
     // an edit marks the probabilistic results out of date

@@ -19,6 +19,7 @@ import stdlibErfc from '@stdlib/math-base-special-erfc';
 import { migrateCase } from '../../src/case/migrate';
 import type { Case } from '../../src/case/schema';
 import {
+  breakthroughBands,
   designOf,
   joinBlocks,
   realisationValues,
@@ -218,6 +219,39 @@ describe('each realisation goes through the case-to-engine seam', () => {
     expect(res.refusedCount).toBe(invalid);
     expect(res.refusals[0].message).toMatch(/^Effective porosity nₑ [\d.]+ is not accepted: enter a value at most the total porosity n/);
     expect(res.receptors[0].evaluated).toBe(plan.runs - invalid);
+  });
+});
+
+describe('percentile bands of the breakthrough curves', () => {
+  it('at the horizon equal the percentiles of the concentration at the horizon (Float32 curves: 1e-6 relative), and are ordered; split-independent', () => {
+    const c = load('nitrate-field-supply.json');
+    const u = withK(c, 15, 2, 300, 'domenico');
+    const plan = planUncertainty(u, { curves: true });
+    const block = runRealisations(plan, 0, plan.runs);
+    const sum = summariseRun(plan, block);
+    const bands = breakthroughBands(plan, block)!;
+    expect(bands).toHaveLength(plan.prepared.receptors.length);
+    expect(plan.curveTimes![plan.curveTimes!.length - 1]).toBe(plan.prepared.horizon);
+    bands.forEach((b, j) => {
+      const last = b.times.length - 1;
+      const h = sum.receptors[j].concentrationAtHorizon;
+      for (const [got, want] of [
+        [b.p5[last], h.p5!],
+        [b.p50[last], h.p50!],
+        [b.p95[last], h.p95!],
+      ])
+        expect(Math.abs(got - want)).toBeLessThanOrEqual(1e-6 * want + 1e-30);
+      for (let k = 0; k < b.times.length; k++) {
+        expect(b.p5[k]).toBeLessThanOrEqual(b.p25[k]);
+        expect(b.p25[k]).toBeLessThanOrEqual(b.p50[k]);
+        expect(b.p50[k]).toBeLessThanOrEqual(b.p75[k]);
+        expect(b.p75[k]).toBeLessThanOrEqual(b.p95[k]);
+      }
+    });
+    const split = joinBlocks(plan, [runRealisations(plan, 150, 300), runRealisations(plan, 0, 150)]);
+    expect(breakthroughBands(plan, split)).toEqual(bands);
+    // without the option, no curves are computed
+    expect(runRealisations(planUncertainty(u), 0, 10).curves).toBeNull();
   });
 });
 

@@ -2,6 +2,8 @@
  * Charts in plain SVG: the breakthrough curve at a receptor and the centreline profile. Both have
  * labelled axes with units, the limit as a dashed line, the other solution as a thin dashed curve
  * when it is computed, and a logarithmic concentration axis when the values span many decades.
+ * After a Monte Carlo run of the case as it is, the breakthrough chart shows the realisations'
+ * 5–95 % and 25–75 % bands and their median behind the deterministic curve.
  */
 import type { ComponentChildren } from 'preact';
 import { concentrationScale, linearScale, type Scale } from './axes';
@@ -109,6 +111,22 @@ export function timeUnit(horizon: number): 'yr' | 'd' {
   return horizon > 2 * 365.25 ? 'yr' : 'd';
 }
 
+/** Percentile bands of a receptor's breakthrough curves over Monte Carlo realisations (internal units: d, mg/L). */
+export interface CurveBands {
+  readonly times: ArrayLike<number>;
+  readonly p5: ArrayLike<number>;
+  readonly p25: ArrayLike<number>;
+  readonly p50: ArrayLike<number>;
+  readonly p75: ArrayLike<number>;
+  readonly p95: ArrayLike<number>;
+  readonly realisations: number;
+}
+
+/** The band between two curves as one closed path: along the upper, back along the lower. */
+function bandPath(ts: number[], upper: number[], lower: number[], sx: (v: number) => number, sy: Scale): string {
+  return `${pathOf(ts, upper, sx, sy)}L${pathOf([...ts].reverse(), [...lower].reverse(), sx, sy).slice(1)}Z`;
+}
+
 export function BreakthroughChart(props: {
   name: string;
   times: number[];
@@ -119,6 +137,8 @@ export function BreakthroughChart(props: {
   arrival: number | null;
   horizon: number;
   concUnit: string;
+  /** Monte Carlo percentile bands, drawn behind the deterministic curve */
+  bands?: CurveBands | null;
 }) {
   const tu = timeUnit(props.horizon);
   const cu = props.concUnit;
@@ -128,8 +148,11 @@ export function BreakthroughChart(props: {
   const vs = props.values.map(toC);
   const alt = props.alternate?.map(toC) ?? null;
   const lim = toC(props.limit);
+  const b = props.bands;
+  const bt = b ? Array.from(b.times, toT) : [];
+  const [p5, p25, p50, p75, p95] = b ? [b.p5, b.p25, b.p50, b.p75, b.p95].map((q) => Array.from(q, toC)) : [[], [], [], [], []];
   const sx = linearScale(0, toT(props.horizon), M.l, W - M.r);
-  const sy = concentrationScale([...vs, ...(alt ?? [])], lim, H - M.b, M.t);
+  const sy = concentrationScale([...vs, ...(alt ?? []), ...p95], lim, H - M.b, M.t);
   return (
     <Frame
       title={`Breakthrough at ${props.name}`}
@@ -139,7 +162,27 @@ export function BreakthroughChart(props: {
       sy={sy}
       testid="breakthrough-chart"
       legend={solutionKey(props.solution, !!alt)}
+      keyExtra={
+        b && (
+          <>
+            {'  '}
+            <span class="dg-key-swatch dg-key-outer" aria-hidden="true" />
+            5–95 %{' '}
+            <span class="dg-key-swatch dg-key-inner" aria-hidden="true" />
+            25–75 %{' '}
+            <span class="dg-key-line dg-key-median" aria-hidden="true" />
+            median of {b.realisations} Monte Carlo realisations
+          </>
+        )
+      }
     >
+      {b && (
+        <g class="dg-chart-bands" data-testid="breakthrough-bands">
+          <path d={bandPath(bt, p95, p5, sx, sy)} class="dg-band-outer" />
+          <path d={bandPath(bt, p75, p25, sx, sy)} class="dg-band-inner" />
+          <path d={pathOf(bt, p50, sx, sy)} class="dg-band-median" />
+        </g>
+      )}
       <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
       {alt && <path d={pathOf(ts, alt, sx, sy)} class="dg-chart-alt" />}
       <path d={pathOf(ts, vs, sx, sy)} class="dg-chart-line" />

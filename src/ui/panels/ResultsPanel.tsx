@@ -17,6 +17,7 @@ import { SCREENING_CAUTION, ASSUMPTIONS } from '../../case/caution';
 import type { Evaluation } from '../results';
 import { ReceptorTable } from './ReceptorTable';
 import { toInternal } from '../../core/units';
+import { currentRunFor } from '../uncertaintyState';
 
 // the charts arrive after the first screen (src/ui/lazy.tsx)
 const BreakthroughChart = lazyPart(() => import('../charts/Charts').then((m) => m.BreakthroughChart), 'chart');
@@ -134,6 +135,8 @@ function currentDepth(): number {
 function Charts({ r }: { r: Evaluation }) {
   const sel = r.receptors.find((x) => x.id === selectedId.value) ?? r.receptors[0];
   const cu = concUnit();
+  // the Monte Carlo bands of a run of this very case, if there is one
+  const bands = sel && r.caseStamp === currentCase.value.modified ? (currentRunFor(currentCase.value)?.bands?.find((b) => b.id === sel.id) ?? null) : null;
   return (
     <div class="dg-charts">
       {sel && (
@@ -147,6 +150,7 @@ function Charts({ r }: { r: Evaluation }) {
           arrival={sel.arrival}
           horizon={r.horizon}
           concUnit={cu}
+          bands={bands}
         />
       )}
       {r.receptors.length > 1 && (
