@@ -49,6 +49,7 @@ import {
 } from '../core/uncertainty';
 import { checkSeed } from '../core/random';
 import { SCREENING_CAUTION } from './caution';
+import { countExceedance, exceedanceContours, exceedanceGrid, exceedanceScratch, type ExceedanceContours, type ExceedanceGrid, type TurnedFrame } from './exceedanceMap';
 import { normalizeDeg, sinCosDeg } from '../geo/angles';
 
 export interface InputDefinition {
@@ -136,7 +137,7 @@ function physicalRange(input: UncertainInput, c: Case): PhysicalRange {
 }
 
 /** The unit a distribution is read in: its own, else the fixed field's unit. */
-function defaultUnit(input: UncertainInput, c: Case): string | undefined {
+export function defaultUnit(input: UncertainInput, c: Case): string | undefined {
   const s = c.contaminant.sorption;
   switch (input) {
     case 'hydraulicConductivity':
@@ -184,6 +185,8 @@ export interface UncertaintyPlan {
   readonly columns: number;
   /** times of each realisation's breakthrough curves (d), null: curves not computed */
   readonly curveTimes: Float64Array | null;
+  /** the lattice of the exceedance map, null: not mapped */
+  readonly map: ExceedanceGrid | null;
   /** a traced footprint: its source plane (centre and width) for a flow direction of the datum plane (geometry.ts); null: a point release */
   readonly sourcePlaneFor: ((planeAzimuthDeg: number) => SourcePlane) | null;
 }
@@ -203,10 +206,52 @@ export interface RunOptions {
   seed?: number;
   /** also each realisation's breakthrough curve at every receptor (BAND_TIMES times), for the percentile bands */
   curves?: boolean;
+  /** also the map of P(C > limit) at the map's time and depth (exceedanceMap.ts) */
+  map?: boolean;
 }
 
 /** Times of the percentile bands of the breakthrough curves: this many, evenly spaced in (0, horizon]. */
 export const BAND_TIMES = 48;
+
+/** Why an input cannot be uncertain in this case (null: it can): the case gives it another way. */
+export function notApplicable(c: Case, input: UncertainInput): string | null {
+  const label = INPUT_DEFINITIONS[input].label;
+  if ((input === 'gradient' || input === 'flowDirection') && c.site.flow.method !== 'direction') return `${label}: the flow comes from head readings; use the head-fit uncertainty instead`;
+  if (input === 'koc' && c.contaminant.sorption.mode !== 'koc') return 'Koc: the case gives sorption as Kd; make Kd uncertain instead';
+  if (input === 'kd' && c.contaminant.sorption.mode !== 'kd') return 'Kd: the case gives sorption as Koc; make Koc (or foc) uncertain instead';
+  if (input === 'sourceWidth' && c.site.source.footprint) return 'source width: the width comes from the traced footprint; make it a point release with a width to vary it';
+  return null;
+}
+
+/**
+ * One uncertain input checked and ready to sample: applicable to the case, its unit of the
+ * input's dimension, its distribution valid and inside the input's physical range. Throws
+ * ValidationError naming the input (`uncertainty.inputs.<name>…`) with the reason in words.
+ */
+export function planInput(c: Case, input: UncertainInput, distribution: UncertainValue): PlannedInput {
+  const field = `uncertainty.inputs.${input}`;
+  const definition = INPUT_DEFINITIONS[input];
+  const why = notApplicable(c, input);
+  if (why) throw new ValidationError(field, distribution.kind, 'an input the case gives as a value', why);
+  let unit: string | undefined;
+  let factor = 1;
+  if (definition.dimension) {
+    unit = distribution.unit ?? defaultUnit(input, c);
+    let def;
+    try {
+      def = unitDef(unit ?? '');
+    } catch {
+      def = undefined;
+    }
+    if (!def || def.dimension !== definition.dimension)
+      throw new ValidationError(`${field}.unit`, unit, `a ${definition.dimension} unit`, `${definition.label}: "${unit}" is not a ${definition.dimension} unit`);
+    factor = def.factor;
+  } else if (distribution.unit) {
+    throw new ValidationError(`${field}.unit`, distribution.unit, 'no unit', `${definition.label} has no unit`);
+  }
+  const sampler = makeSampler(field, definition.label, distribution, physicalRange(input, c));
+  return { input, definition, distribution, unit, sampler, factor };
+}
 
 /**
  * Check a case's uncertain inputs and prepare a run. Throws ValidationError naming the input
@@ -219,35 +264,7 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
   const inputs: PlannedInput[] = [];
   for (const input of UNCERTAIN_INPUTS) {
     const distribution = c.uncertainty.inputs[input];
-    if (!distribution) continue;
-    const field = `uncertainty.inputs.${input}`;
-    const definition = INPUT_DEFINITIONS[input];
-    if ((input === 'gradient' || input === 'flowDirection') && c.site.flow.method !== 'direction')
-      throw new ValidationError(field, distribution.kind, 'a flow given as direction and gradient', `${definition.label}: the flow comes from head readings; use the head-fit uncertainty instead`);
-    if (input === 'koc' && c.contaminant.sorption.mode !== 'koc')
-      throw new ValidationError(field, distribution.kind, 'sorption given as Koc', 'Koc: the case gives sorption as Kd; make Kd uncertain instead');
-    if (input === 'kd' && c.contaminant.sorption.mode !== 'kd')
-      throw new ValidationError(field, distribution.kind, 'sorption given as Kd', 'Kd: the case gives sorption as Koc; make Koc (or foc) uncertain instead');
-    if (input === 'sourceWidth' && c.site.source.footprint)
-      throw new ValidationError(field, distribution.kind, 'a release given as a point with a width', 'source width: the width comes from the traced footprint; make it a point release with a width to vary it');
-    let unit: string | undefined;
-    let factor = 1;
-    if (definition.dimension) {
-      unit = distribution.unit ?? defaultUnit(input, c);
-      let def;
-      try {
-        def = unitDef(unit ?? '');
-      } catch {
-        def = undefined;
-      }
-      if (!def || def.dimension !== definition.dimension)
-        throw new ValidationError(`${field}.unit`, unit, `a ${definition.dimension} unit`, `${definition.label}: "${unit}" is not a ${definition.dimension} unit`);
-      factor = def.factor;
-    } else if (distribution.unit) {
-      throw new ValidationError(`${field}.unit`, distribution.unit, 'no unit', `${definition.label} has no unit`);
-    }
-    const sampler = makeSampler(field, definition.label, distribution, physicalRange(input, c));
-    inputs.push({ input, definition, distribution, unit, sampler, factor });
+    if (distribution) inputs.push(planInput(c, input, distribution));
   }
   let headPlane: PlaneSlopeCovariance | null = null;
   if (c.uncertainty.headFit) {
@@ -269,7 +286,8 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
     sourcePlaneFor = (az) => prepareSourcePlane(c, sf, az);
   }
   const curveTimes = opts.curves ? Float64Array.from({ length: BAND_TIMES }, (_, k) => (prepared.horizon * (k + 1)) / BAND_TIMES) : null;
-  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0), curveTimes, sourcePlaneFor };
+  const map = opts.map ? exceedanceGrid(prepared, runs) : null;
+  return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0), curveTimes, map, sourcePlaneFor };
 }
 
 /** Internal-unit values of one realisation's inputs (by input name). */
@@ -295,6 +313,8 @@ export function realisationValues(plan: UncertaintyPlan, lhs: LatinHypercube, i:
 interface RealisationGeometry {
   readonly model: ScreeningModel;
   readonly receptors: readonly Receptor[];
+  /** the realisation's flow frame when the flow direction turned (null: the prepared case's) */
+  readonly turned: TurnedFrame | null;
 }
 
 /**
@@ -310,6 +330,7 @@ export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): R
   const { prepared } = plan;
   let receptors: readonly Receptor[] = prepared.receptors;
   let reach: number | null | undefined;
+  let turned: TurnedFrame | null = null;
   const o: { -readonly [K in keyof PhysicalInputs]?: PhysicalInputs[K] } = {};
   if (v.flowDirection !== undefined) {
     // the geometry of the turned flow, as prepareCase derives it: a traced footprint's source
@@ -325,6 +346,7 @@ export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): R
     }
     receptors = receptorsInFlowFrame(prepared.receptors, sourceEN, planeAzimuthDeg);
     reach = receptorReach(receptors);
+    turned = { sourceEN, planeAzimuthDeg };
   }
   if (v.hydraulicConductivity !== undefined) o.hydraulicConductivity = v.hydraulicConductivity;
   if (v.gradient !== undefined) o.gradient = v.gradient;
@@ -340,7 +362,7 @@ export function realisationModel(plan: UncertaintyPlan, v: RealisationValues): R
   if (v.sourceThickness !== undefined) o.thickness = v.sourceThickness;
   if (v.releaseDuration !== undefined) o.duration = v.releaseDuration;
   const model = modelFor(prepared, o, { dispersivityFactor: v.dispersivityFactor, receptorReach: reach, rangesChecked: true });
-  return { model, receptors };
+  return { model, receptors, turned };
 }
 
 /**
@@ -370,6 +392,10 @@ export interface RealisationBlock {
   readonly peak: Float64Array;
   /** with the plan's curve times: concentration (mg/L) at each, index ((i − from)·receptors + r)·times + k (NaN: refused) */
   readonly curves: Float32Array | null;
+  /** with the plan's map: per lattice node, how many of the block's mapped realisations exceed the limit there */
+  readonly mapCounts: Uint32Array | null;
+  /** realisations of the block mapped (below the plan's map.mapped, not refused) */
+  readonly mapped: number;
   /** the engine's message for each refused realisation (at most the first five) */
   readonly refusals: { realisation: number; message: string }[];
   readonly refusedCount: number;
@@ -393,11 +419,19 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
   const refusals: RealisationBlock['refusals'] = [];
   let refusedCount = 0;
   const { limit, horizon } = plan.prepared;
+  const map = plan.map;
+  const mapCounts = map ? new Uint32Array(map.xs.length * map.ys.length) : null;
+  const scratch = map ? exceedanceScratch(map) : null;
+  let mapped = 0;
   for (let i = from; i < to; i++) {
     const row = (i - from) * nr;
     try {
-      const { model, receptors } = realisationModel(plan, realisationValues(plan, lhs, i));
+      const { model, receptors, turned } = realisationModel(plan, realisationValues(plan, lhs, i));
       screenReceptorsInto(model, receptors, limit, horizon, { ...out, curves: out.curves ?? undefined }, row);
+      if (map && mapCounts && scratch && i < map.mapped) {
+        countExceedance(map, model, turned, mapCounts, scratch);
+        mapped++;
+      }
     } catch (e) {
       if (!(e instanceof ValidationError)) throw e;
       refusedCount++;
@@ -409,7 +443,7 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     }
   }
   const { arrival, atHorizon, peak, curves } = out;
-  return { from, to, receptors: nr, arrival, atHorizon, peak, curves, refusals, refusedCount, evaluated: count };
+  return { from, to, receptors: nr, arrival, atHorizon, peak, curves, mapCounts, mapped, refusals, refusedCount, evaluated: count };
 }
 
 /**
@@ -417,18 +451,23 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
  * not yet computed stay NaN and are left out of the statistics (a partial run's realisations are
  * still draws from the distributions: which strata a realisation uses does not depend on its index).
  */
-export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBlock[]): RealisationBlock {
+export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBlock[], opts: { curves?: boolean } = {}): RealisationBlock {
   const nr = plan.prepared.receptors.length;
   const n = plan.runs;
   const arrival = new Float64Array(n * nr).fill(Number.NaN);
   const atHorizon = new Float64Array(n * nr).fill(Number.NaN);
   const peak = new Float64Array(n * nr).fill(Number.NaN);
   const nt = plan.curveTimes?.length ?? 0;
-  const curves = plan.curveTimes ? new Float32Array(n * nr * nt).fill(Number.NaN) : null;
+  // the curves (runs × receptors × times) only when asked: a partial summary does not need them
+  const curves = plan.curveTimes && opts.curves !== false ? new Float32Array(n * nr * nt).fill(Number.NaN) : null;
+  const mapCounts = plan.map ? new Uint32Array(plan.map.xs.length * plan.map.ys.length) : null;
+  let mapped = 0;
   const refusals: RealisationBlock['refusals'] = [];
   let refusedCount = 0;
   let evaluated = 0;
   for (const b of [...blocks].sort((a, b) => a.from - b.from)) {
+    if (mapCounts && b.mapCounts) for (let q = 0; q < mapCounts.length; q++) mapCounts[q] += b.mapCounts[q];
+    mapped += b.mapped;
     arrival.set(b.arrival, b.from * nr);
     atHorizon.set(b.atHorizon, b.from * nr);
     peak.set(b.peak, b.from * nr);
@@ -437,7 +476,7 @@ export function joinBlocks(plan: UncertaintyPlan, blocks: readonly RealisationBl
     refusedCount += b.refusedCount;
     evaluated += b.evaluated;
   }
-  return { from: 0, to: n, receptors: nr, arrival, atHorizon, peak, curves, refusals: refusals.slice(0, 5), refusedCount, evaluated };
+  return { from: 0, to: n, receptors: nr, arrival, atHorizon, peak, curves, mapCounts, mapped, refusals: refusals.slice(0, 5), refusedCount, evaluated };
 }
 
 export interface Percentiles {
@@ -628,6 +667,12 @@ export function breakthroughBands(plan: UncertaintyPlan, block: RealisationBlock
     }
     return { id: rec.id, times, p5: q[0], p25: q[1], p50: q[2], p75: q[3], p95: q[4], realisations: rows.length };
   });
+}
+
+/** Contours of P(C > limit) on the map from a run's mapped realisations (null: not mapped, or none done). */
+export function exceedanceMapOf(plan: UncertaintyPlan, block: RealisationBlock): ExceedanceContours | null {
+  if (!plan.map || !block.mapCounts) return null;
+  return exceedanceContours(plan.map, block.mapCounts, block.mapped, plan.prepared.toMap);
 }
 
 /** A whole run in this thread: plan, screen every realisation, summarise. */

@@ -35,6 +35,7 @@ export {
   firstTimeAtLimit,
   peakConcentration,
   screenReceptorsInto,
+  concentrationsAt,
   type ReceptorFiguresInto,
   plumeLength,
   concentrationGrid,

@@ -250,6 +250,25 @@ function peakOn(c: (t: number) => number, continuousConstant: boolean, horizon: 
   return cm >= bestC ? { c: cm, t: tm } : { c: bestC, t: ts[best] };
 }
 
+/**
+ * Concentration (mg/L) at scattered points (xs[k], ys[k]) at depth z and time t (Infinity: steady
+ * state), into `out`: the model validated once and its kinetics worked out once, each point's
+ * value the one `concentration` gives. For a map of points that are not a lattice of the flow frame
+ * (a Monte Carlo realisation whose flow direction turned).
+ */
+export function concentrationsAt(m: ScreeningModel, xs: ArrayLike<number>, ys: ArrayLike<number>, z: number, t: number, out: Float64Array): Float64Array {
+  validateModel(m);
+  requireNonNegative('z', z);
+  requireTime('t', t);
+  requireFiniteEach('xs', xs);
+  requireFiniteEach('ys', ys);
+  if (ys.length !== xs.length || out.length !== xs.length) throw new RangeError('xs, ys and out must have the same length');
+  const k = kinetics(m);
+  const depth = { zTop: z, zBottom: z };
+  for (let q = 0; q < xs.length; q++) out[q] = mgPerL(m, relativeCurve(m, m.solution, xs[q], ys[q], depth, undefined, k)(t));
+  return out;
+}
+
 /** Where screenReceptorsInto writes: index offset + j for receptor j. */
 export interface ReceptorFiguresInto {
   /** first time at the limit within the horizon, d (Infinity: not within it) */

@@ -7,7 +7,7 @@
  * for, so an edit marks it out of date instead of silently keeping it.
  */
 import type { Case } from '../case/schema';
-import { breakthroughBands, joinBlocks, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
+import { breakthroughBands, exceedanceMapOf, joinBlocks, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
 import { caseKeyOf, uncertaintyRun, type RunState } from './uncertaintyState';
 
 export { caseKeyOf, uncertaintyRun, type RunState };
@@ -24,13 +24,14 @@ export function startUncertainty(c: Case): void {
   cancelUncertainty();
   let plan: UncertaintyPlan;
   try {
-    plan = planUncertainty(c, { curves: true });
+    plan = planUncertainty(c, { curves: true, map: true });
   } catch (e) {
     uncertaintyRun.value = { ...uncertaintyRun.peek(), status: 'failed', error: e instanceof Error ? e.message : String(e) };
     return;
   }
   const runs = plan.runs;
-  const n = Math.max(1, Math.min(8, navigator.hardwareConcurrency || 2, Math.ceil(runs / RANGE)));
+  // one core is left to the page and the deterministic view, which stay live while a run goes on
+  const n = Math.max(1, Math.min(8, (navigator.hardwareConcurrency || 2) - 1, Math.ceil(runs / RANGE)));
   const caseKey = caseKeyOf(c);
   const startedAt = performance.now();
   const blocks: RealisationBlock[] = [];
@@ -38,6 +39,7 @@ export function startUncertainty(c: Case): void {
   let done = 0;
   let finished = false;
   let summarisedAt = 0;
+  let summaryMs = 0;
   const workers = Array.from({ length: n }, () => new Worker(new URL('../worker/uncertainty.ts', import.meta.url), { type: 'module', name: 'downgradient-monte-carlo' }));
   const stop = (status: RunState['status'], error: string | null = null) => {
     if (finished) return;
@@ -52,12 +54,12 @@ export function startUncertainty(c: Case): void {
       // keep what was done: the partial result over the finished ranges
       if (!finished && blocks.length) {
         const joined = joinBlocks(plan, blocks);
-        uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joined), bands: breakthroughBands(plan, joined) };
+        uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joined), bands: breakthroughBands(plan, joined), map: exceedanceMapOf(plan, joined) };
       }
       stop('cancelled');
     },
   };
-  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n, bands: null };
+  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n, bands: null, map: null };
   const snapshot = structuredClone(c);
   const give = (w: Worker) => {
     if (next >= runs) return;
@@ -76,17 +78,22 @@ export function startUncertainty(c: Case): void {
       const now = performance.now();
       const elapsed = (now - startedAt) / 1000;
       const last = done >= runs;
-      // partial results at most twice a second (a summary sorts every receptor's values)
-      const joined = last || now - summarisedAt > 500 ? joinBlocks(plan, blocks) : null;
+      // partial results at most twice a second, and the page spends at most a fifth of its time on them
+      const joined = last || now - summarisedAt > Math.max(500, 4 * summaryMs) ? joinBlocks(plan, blocks, { curves: last }) : null;
       const result = joined ? summariseRun(plan, joined) : uncertaintyRun.peek().result;
-      if (joined) summarisedAt = performance.now();
+      if (joined) {
+        summarisedAt = performance.now();
+        summaryMs = summarisedAt - now;
+      }
       // the bands sort every receptor's values at every time: once, at the end
       const bands = last && joined ? breakthroughBands(plan, joined) : null;
-      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, bands, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
+      // the probability map grows with the realisations mapped (contouring its lattice is cheap)
+      const map = joined ? exceedanceMapOf(plan, joined) : uncertaintyRun.peek().map;
+      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, bands, map, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
       if (last) stop('done');
       else give(w);
     };
     w.onerror = (e) => stop('failed', e.message || 'a worker failed');
-    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed, curves: true } satisfies UncertaintyRequest);
+    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed, curves: true, map: true } satisfies UncertaintyRequest);
   }
 }

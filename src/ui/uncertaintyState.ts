@@ -6,6 +6,7 @@
 import { signal } from '@preact/signals';
 import type { Case } from '../case/schema';
 import type { BreakthroughBands, UncertaintyResult } from '../case/uncertainty';
+import type { ExceedanceContours } from '../case/exceedanceMap';
 
 export interface RunState {
   readonly status: 'idle' | 'running' | 'done' | 'cancelled' | 'failed';
@@ -21,9 +22,11 @@ export interface RunState {
   readonly workers: number;
   /** percentile bands of each receptor's breakthrough curve (when the run is done or cancelled) */
   readonly bands: BreakthroughBands[] | null;
+  /** contours of P(C > limit) on the map at the map's time, from the realisations mapped so far */
+  readonly map: ExceedanceContours | null;
 }
 
-export const uncertaintyRun = signal<RunState>({ status: 'idle', result: null, caseKey: null, done: 0, runs: 0, startedAt: 0, secondsLeft: null, error: null, workers: 0, bands: null });
+export const uncertaintyRun = signal<RunState>({ status: 'idle', result: null, caseKey: null, done: 0, runs: 0, startedAt: 0, secondsLeft: null, error: null, workers: 0, bands: null, map: null });
 
 /** What a result depends on: everything but the case's name, notes and time stamps. */
 export function caseKeyOf(c: Case): string {

@@ -1,6 +1,8 @@
 // The probabilistic screening in the app: a demo case with distributions runs in a pool of web
 // workers with progress, gives per-receptor probabilities ± SE and drivers in words, marks its
-// results out of date after an edit, can be cancelled keeping partial results, and gives the same
+// results out of date after an edit, can be cancelled keeping partial results (the map and the
+// receptor table following an edit meanwhile), shows percentile bands on the breakthrough chart and
+// probability contours on the map, and gives the same
 // figures as the command line's code (src/case/uncertainty.ts) for the same case, seed and runs.
 // Screenshots at the three sizes go to test-artifacts/.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
@@ -67,6 +69,10 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await expect(page.locator('[data-testid=breakthrough-chart] .dg-chart-key').innerText()).resolves.toMatch(/5–95 %.*25–75 %.*median of 300 Monte Carlo realisations/s);
     await page.locator('[data-testid=breakthrough-chart]').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-bands-1024x768.png') });
+    // the map shows the contours of P(C > limit) at the map's time, with a key naming them and their error
+    await page.waitForSelector('.leaflet-overlay-pane path.dg-pexceed');
+    await expect(page.getByTestId('exceedance-key').innerText()).resolves.toMatch(/Probability the limit is exceeded after [\s\S]*10 %[\s\S]*50 %[\s\S]*90 %[\s\S]*from 300 realisations; each probability ± up to 2\.9 % \(one standard error\)/);
+    await page.screenshot({ path: artifactPath('uncertainty-map-1024x768.png') });
     await page.locator('.dg-mc-driver').first().scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-drivers-1024x768.png') });
     // an edit marks the probabilistic results out of date
@@ -102,16 +108,75 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await close();
   });
 
-  it('cancels a long run and keeps the partial result', async () => {
+  it('keeps the map and the receptor table live while a run goes on, and cancels it keeping the partial result', async () => {
     const { page, errors, close } = await openFuelDemo(LANDSCAPE);
     await setNumber(page, 'Realisations', 50000);
     await page.getByRole('button', { name: /^Run/ }).click();
     await page.waitForSelector('.dg-mc-progress progress');
     await page.waitForFunction(() => Number(document.querySelector('.dg-mc-progress progress')?.getAttribute('value') ?? 0) >= 400, undefined, { timeout: 60_000 });
     await expect(page.locator('.dg-mc-progress').innerText()).resolves.toMatch(/of 50000 realisations on \d+ workers?/);
+    // an edit while the run goes on: the deterministic table and the plume on the map follow it at once
+    const table = () => page.locator('[data-testid=receptor-table] tbody').innerText();
+    const plume = () => page.locator('.leaflet-overlay-pane path.dg-band-0').first().getAttribute('d');
+    const [tableBefore, plumeBefore] = [await table(), await plume()];
+    const tableText = await page.locator('[data-testid=receptor-table] tbody').textContent();
+    await page.click('[data-section=release] .dg-sec-toggle');
+    const conc = page.locator('[data-field="source.concentration"] input.dg-num');
+    await conc.fill('20');
+    await conc.press('Tab');
+    await page.waitForFunction((t) => document.querySelector('[data-testid=receptor-table] tbody')?.textContent !== t, tableText, { timeout: 30_000 });
+    await page.waitForFunction((d) => document.querySelector('.leaflet-overlay-pane path.dg-band-0')?.getAttribute('d') !== d, plumeBefore, { timeout: 30_000 });
+    expect(await table()).not.toBe(tableBefore);
+    expect(await plume()).not.toBe(plumeBefore);
+    // …while the run is still going
+    await expect(page.locator('.dg-mc-progress progress').isVisible()).resolves.toBe(true);
     await page.getByRole('button', { name: 'Cancel' }).click();
     await page.waitForSelector('text=Cancelled');
+    await expect(page.locator('.dg-mc-progress progress').count()).resolves.toBe(0);
     await expect(page.locator('.dg-mc-results .dg-note').first().innerText()).resolves.toMatch(/of 50000 \(partial\)/);
+    // the partial results belong to the case before the edit: marked out of date, no probability contours on the map
+    await page.waitForSelector('.dg-stale-note');
+    expect(await page.locator('.leaflet-overlay-pane path.dg-pexceed').count()).toBe(0);
+    expect(errors).toEqual([]);
+    await close();
+  });
+
+  it('edits which inputs vary and their distributions, with starting values that name their source and messages naming the input', async () => {
+    const { page, errors, close } = await openFuelDemo(LANDSCAPE);
+    const row = page.locator('[data-input=totalPorosity]');
+    await row.getByRole('checkbox').check();
+    // the starting distribution comes from the published range, and says so
+    await expect(row.locator('.dg-help').innerText()).resolves.toMatch(/Source: .*Freeze & Cherry 1979/);
+    const low = page.getByLabel('total porosity: low', { exact: true });
+    const high = page.getByLabel('total porosity: high', { exact: true });
+    await low.fill('0.6');
+    await low.press('Tab');
+    await high.fill('0.4');
+    await high.press('Tab');
+    await expect(row.getByRole('alert').innerText()).resolves.toMatch(/total porosity: the low value \(0\.6\) is not below the high value \(0\.4\)/);
+    // a value outside the physical range: refused naming the range, not clipped
+    await low.fill('0.3');
+    await low.press('Tab');
+    await high.fill('1.2');
+    await high.press('Tab');
+    await expect(row.getByRole('alert').innerText()).resolves.toMatch(/total porosity: .* outside the physical range \(in \(0, 1\)\)/);
+    await high.fill('0.45');
+    await high.press('Tab');
+    await expect(row.getByRole('alert').count()).resolves.toBe(0);
+    // another type keeps the spread (fitted to the 5th, 50th and 95th percentiles)
+    const k = page.locator('[data-input=hydraulicConductivity]');
+    await k.locator('select').selectOption('normal');
+    await expect(page.getByLabel('hydraulic conductivity (K): mean', { exact: true }).inputValue()).resolves.toMatch(/^\d/);
+    await expect(k.getByRole('alert').count()).resolves.toBe(1); // a normal K puts probability below 0: said, not clipped
+    await k.locator('select').selectOption('lognormal-range');
+    await expect(k.getByRole('alert').count()).resolves.toBe(0);
+    await page.getByTestId('distribution-editor').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('uncertainty-editor-1024x768.png') });
+    // the edited case runs
+    await setNumber(page, 'Realisations', 200);
+    await page.getByRole('button', { name: /^Run/ }).click();
+    await page.waitForSelector('text=Run again', { timeout: 90_000 });
+    await expect(page.locator('.dg-mc-results tbody tr').count()).resolves.toBe(2);
     expect(errors).toEqual([]);
     await close();
   });
@@ -124,10 +189,15 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await setNumber(page, 'Realisations', 200);
     await page.getByRole('button', { name: /^Run/ }).click();
     await page.waitForSelector('text=Run again', { timeout: 90_000 });
+    await page.waitForSelector('.leaflet-overlay-pane path.dg-pexceed');
+    await page.getByTestId('exceedance-key').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath(`uncertainty-map-${name}.png`) });
     await page.locator('.dg-mc-results table').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath(`uncertainty-${name}.png`) });
     await page.locator('.dg-mc-driver').first().scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath(`uncertainty-drivers-${name}.png`) });
+    await page.getByTestId('distribution-editor').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath(`uncertainty-editor-${name}.png`) });
     expect(errors).toEqual([]);
     await close();
   });

@@ -335,3 +335,30 @@ describe('probabilistic CSV (src/case/export-uncertainty.ts)', () => {
     expect(text).toContain('probabilistic caution');
   });
 });
+
+describe('starting distributions offered in the app (src/case/uncertaintyDefaults.ts)', () => {
+  it.each(['fuel-release-farm-well.json', 'nitrate-field-supply.json', 'solvent-release-creek.json', 'v1-compact-example.json'])('%s: every applicable input gets one that passes the plan’s checks, its source in the note', async (f) => {
+    const { defaultDistribution } = await import('../../src/case/uncertaintyDefaults');
+    const { notApplicable, planInput } = await import('../../src/case/uncertainty');
+    const { UNCERTAIN_INPUTS } = await import('../../src/case/schema');
+    const c = load(f);
+    for (const input of UNCERTAIN_INPUTS) {
+      if (notApplicable(c, input)) continue;
+      const d = defaultDistribution(c, input);
+      if (!d) continue;
+      expect(() => planInput(c, input, d), input).not.toThrow();
+      expect(d.note, input).toMatch(/\(.*\d{4}.*\)|assumption offered by Downgradient|common practice/);
+    }
+    const k = defaultDistribution(c, 'dispersivityFactor')!;
+    expect(k.note).toContain('Gelhar, Welty & Rehfeldt 1992');
+  });
+
+  it('hydraulic conductivity: the tabulated range of the material holding the case’s K (Bouwer 1978, seen)', async () => {
+    const { defaultDistribution } = await import('../../src/case/uncertaintyDefaults');
+    const c = load('fuel-release-farm-well.json');
+    const medium = { ...c, aquifer: { ...c.aquifer, hydraulicConductivity: { value: 12, unit: 'K:m/d' } } };
+    // Bouwer 1978 as tabulated in Canter et al. 1988: medium sand 5 – 20 m/d (docs/field-values.md)
+    expect(defaultDistribution(medium, 'hydraulicConductivity')).toMatchObject({ kind: 'log-uniform', low: 5, high: 20, unit: 'K:m/d' });
+    expect(defaultDistribution(medium, 'hydraulicConductivity')!.note).toMatch(/medium sand \(Bouwer 1978/);
+  });
+});

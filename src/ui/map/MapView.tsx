@@ -5,6 +5,7 @@ import { inputIssue } from '../validity';
 import { currentCase } from '../state';
 import { mapTool, tileState, type MapTool } from '../view';
 import { TimeBar } from './TimeBar';
+import { ExceedanceKey } from './ExceedanceKey';
 import { currentPlume } from '../evaluation';
 import { fmtTime } from '../format';
 import { swatchBackground } from './bandStyle';
@@ -71,6 +72,7 @@ function LiveMap({ frameKey }: { frameKey: string }) {
           </p>
         )}
         <PlumeKey />
+        <ExceedanceKey />
         <TimeBar />
       </div>
     </div>

@@ -20,6 +20,7 @@ import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
 import { MonitoringLayer } from './monitoringLayer';
+import { ExceedanceLayer } from './exceedanceLayer';
 import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource, setFootprint } from '../frame';
@@ -68,6 +69,7 @@ export class SiteMap {
   private receptors = new Map<string, L.Marker>();
   private heads = new Map<string, L.Marker>();
   private monitoring: MonitoringLayer | null = null;
+  private exceedance: ExceedanceLayer | null = null;
   /** the plume's band paths by band index (see syncPlume) */
   private bands: L.Polygon[] = [];
   private plumeDrawn: PlumeLayer | null = null;
@@ -127,6 +129,7 @@ export class SiteMap {
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
     this.disposers.push(effect(() => guarded('marks', () => this.syncCase(currentCase.value, selectedId.value, currentResults.value))));
     this.disposers.push(effect(() => guarded('plume', () => this.syncPlume(currentPlume.value))));
+    this.exceedance = new ExceedanceLayer(this.map);
     this.monitoring = new MonitoringLayer(this.map, (moved) => {
       this.placeLabels();
       if (this.synced && moved.length && !this.innerView().contains(L.latLngBounds(moved))) this.bringIntoView(L.latLngBounds(moved));
@@ -176,6 +179,7 @@ export class SiteMap {
   destroy(): void {
     for (const d of this.disposers) d();
     this.monitoring?.destroy();
+    this.exceedance?.destroy();
     registerMapElement(null);
     this.map.remove();
   }

@@ -11,7 +11,8 @@ import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
 import { arrivalPercentiles, intervalText, pc, peakPercentiles } from '../uncertaintyFormat';
 import { driverSentence, probabilisticCaution, type ReceptorUncertainty } from '../../case/uncertainty';
-import { runLine, UncertainInputsList } from '../uncertainInputs';
+import { runLine } from '../uncertainInputs';
+import { DistributionEditor } from './DistributionEditor';
 import { UNCERTAIN_INPUTS } from '../../case/schema';
 import { cancelUncertainty, caseKeyOf, startUncertainty, uncertaintyRun } from '../uncertaintyRun';
 import { MAX_RUNS } from '../../core/uncertainty';
@@ -25,21 +26,17 @@ export function UncertaintyPanel() {
   const r = run.result;
   const stale = !!r && run.caseKey !== caseKeyOf(c);
   const summary = !has
-    ? 'No input has a distribution in this case'
+    ? 'No input varies yet'
     : r
       ? `${r.done} of ${r.runs} realisations${stale ? ' (out of date)' : ''}`
       : `${inputs.length + (c.uncertainty.headFit ? 2 : 0)} uncertain inputs; not run yet`;
   return (
     <Section id="uncertainty" title="How sure is it?" summary={summary} class="dg-uncertainty">
+      <DistributionEditor />
       {!has ? (
-        <p>
-          No input of this case has a distribution, so there is nothing to sample. Open a demo case that carries distributions (the fuel release or the
-          nitrate field) or add an <code>uncertainty</code> block to the case file.
-        </p>
+        <p class="dg-note">Tick at least one input above to make it uncertain; each starts from a distribution whose source is named under it.</p>
       ) : (
         <>
-          <p class="dg-note">Uncertain inputs (sampled independently; correlation between inputs is not represented):</p>
-          <UncertainInputsList c={c} />
           <div class="dg-btn-row dg-mc-controls">
             <label>
               Realisations{' '}
