@@ -682,6 +682,29 @@ export function runUncertainty(c: Case, opts: RunOptions = {}): UncertaintyResul
   return summariseRun(plan, runRealisations(plan, 0, plan.runs, lhs), lhs);
 }
 
+/**
+ * A distribution for an input from an estimate and its standard error, both in `unit` (a value
+ * fitted to site data, for example: src/case/fit.ts gives its fitted values with intervals). The
+ * flow direction (degrees) as a normal distribution (mean, sd = the standard error); every other
+ * input is positive, so a lognormal with the estimate as median and ln(gsd) = SE/estimate, the
+ * first-order standard error of the logarithm (delta method). Refused with a message naming the
+ * input when the estimate or its error cannot make a distribution. `planInput` checks the result
+ * against the input's physical range like any other (a wide error on a porosity may need truncating).
+ */
+export function distributionFromEstimate(input: UncertainInput, estimate: number, standardError: number, unit?: string, note?: string): UncertainValue {
+  const label = INPUT_DEFINITIONS[input].label;
+  const field = `uncertainty.inputs.${input}`;
+  if (!Number.isFinite(standardError) || !(standardError > 0))
+    throw new ValidationError(field, standardError, 'a standard error > 0', `${label}: the standard error must be a number above 0 (got ${standardError})`);
+  const extra = { ...(unit ? { unit } : {}), ...(note ? { note } : {}) };
+  if (input === 'flowDirection') {
+    if (!Number.isFinite(estimate)) throw new ValidationError(field, estimate, 'a direction in degrees', `${label}: the estimate must be a number of degrees`);
+    return { kind: 'normal', mean: estimate, sd: standardError, ...extra };
+  }
+  if (!Number.isFinite(estimate) || !(estimate > 0)) throw new ValidationError(field, estimate, 'an estimate > 0', `${label}: the estimate must be above 0 (got ${estimate})`);
+  return { kind: 'lognormal', median: estimate, gsd: Math.exp(standardError / estimate), ...extra };
+}
+
 /** "if K is in its low third, 3 %; in its high third, 61 %" */
 export function driverSentence(d: Driver): string {
   const pc = (p: number) => `${(100 * p).toFixed(p < 0.1 && p > 0 ? 1 : 0)} %`;

@@ -10,6 +10,7 @@ import type { Browser, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
 import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
 import { openFiles } from './offline-helpers';
+import { axe } from './axe-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { runUncertainty } from '../../src/case/uncertainty';
 
@@ -172,11 +173,17 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await expect(k.getByRole('alert').count()).resolves.toBe(0);
     await page.getByTestId('distribution-editor').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-editor-1024x768.png') });
+    // axe-core (npm): no serious or critical finding with the editor open, a message showing and the map's contours drawn later
+    const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
+    expect(findings, JSON.stringify(findings, null, 1)).toEqual([]);
     // the edited case runs
     await setNumber(page, 'Realisations', 200);
     await page.getByRole('button', { name: /^Run/ }).click();
     await page.waitForSelector('text=Run again', { timeout: 90_000 });
     await expect(page.locator('.dg-mc-results tbody tr').count()).resolves.toBe(2);
+    await page.waitForSelector('.leaflet-overlay-pane path.dg-pexceed');
+    const after = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
+    expect(after, JSON.stringify(after, null, 1)).toEqual([]);
     expect(errors).toEqual([]);
     await close();
   });

@@ -362,3 +362,18 @@ describe('starting distributions offered in the app (src/case/uncertaintyDefault
     expect(defaultDistribution(medium, 'hydraulicConductivity')!.note).toMatch(/medium sand \(Bouwer 1978/);
   });
 });
+
+describe('a distribution from an estimate and its standard error (for values fitted to site data)', () => {
+  it('lognormal with ln(gsd) = SE/estimate (delta method), normal for the flow direction; refused without a usable error', async () => {
+    const { distributionFromEstimate, planInput } = await import('../../src/case/uncertainty');
+    const d = distributionFromEstimate('halfLife', 400, 40, 'd', 'fitted');
+    expect(d).toEqual({ kind: 'lognormal', median: 400, gsd: Math.exp(0.1), unit: 'd', note: 'fitted' });
+    // its sampled spread: the 84.1th/15.9th percentiles (±1 sd of ln x) are 400·e^±0.1, i.e. ≈ ±SE for a small relative error
+    const c = load('fuel-release-farm-well.json');
+    const s = planInput(c, 'halfLife', d).sampler;
+    expect(s.sample(0.8413447460685429) / 400).toBeCloseTo(Math.exp(0.1), 9);
+    expect(distributionFromEstimate('flowDirection', 110, 8)).toEqual({ kind: 'normal', mean: 110, sd: 8 });
+    expect(() => distributionFromEstimate('sourceConcentration', 5, 0)).toThrow(/source concentration: the standard error must be a number above 0/);
+    expect(() => distributionFromEstimate('hydraulicConductivity', -3, 1)).toThrow(/hydraulic conductivity \(K\): the estimate must be above 0/);
+  });
+});
