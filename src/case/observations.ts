@@ -9,7 +9,8 @@
  *   results are compared with the steady state.
  * - Centreline wells for the bulk rate: placed wells downgradient (x > 0) within max(W/2, 0.1·x)
  *   of the centreline (W the source width). Each well contributes the geometric mean of its
- *   detected results in the last 365 days of the data set (a well with only non-detects there is
+ *   detected results in the 365 days up to the second-latest of those wells' last sampling dates
+ *   (so one well sampled after the others does not shift the period away from them; a well with only non-detects there is
  *   left out and counted); Newell et al. (2002) ask for concentrations from one period.
  * - The biodegradation rate is λ in the engine's sense; for a case whose decay acts on the
  *   dissolved phase only, the case half-life that reproduces it is ln 2/(λ·R).
@@ -225,8 +226,13 @@ export function analyseObservations(c: Case, prepared?: PreparedCase): Observati
   let bio: BiodegradationRate | null = null;
   let adoptableHalfLife: number | null = null;
   let ratesNote: string | null = null;
-  const allDays = mon.results.filter((r) => wells.some((w) => w.id === r.wellId)).map((r) => dayNumber(r.date)!);
-  const lastDay = allDays.length ? Math.max(...allDays) : 0;
+  // the period ends at the second-latest of the centreline wells' last sampling dates, so one well
+  // sampled later than the others (a result added by hand) does not leave the rest out of the period
+  const lastDates = wells
+    .filter((w) => w.onCentreline && w.series.length > 0)
+    .map((w) => Math.max(...w.series.map((p) => dayNumber(p.date)!)))
+    .sort((a, b) => b - a);
+  const lastDay = lastDates.length ? lastDates[Math.min(1, lastDates.length - 1)] : 0;
   const points: CentrelinePoint[] = [];
   for (const w of wells) {
     if (!w.onCentreline) continue;

@@ -82,6 +82,10 @@ describe('printable report', () => {
     expect(text).toMatch(/within a factor of ten/);
     expect(text).toMatch(/must not be used as one in the transport solutions/);
     expect(text).toMatch(/< 1 µg\/L/);
+    // the measured-against-modelled scatter with its 1:1 line, factor-of-ten lines and named figures
+    expect(await section.locator('[data-testid=model-scatter] .dg-chart-oneone').count()).toBe(1);
+    expect(await section.locator('[data-testid=model-scatter] .dg-chart-tenfold').count()).toBe(2);
+    expect(await section.getByTestId('scatter-figures').textContent()).toMatch(/root-mean-square log₁₀ misfit/);
     await section.scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('report-monitoring-portrait.png') });
     await page.setViewportSize({ width: 390, height: 844 });

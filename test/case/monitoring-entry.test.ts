@@ -114,3 +114,14 @@ describe('the model at a monitoring well', () => {
     expect(k.medianLog10Ratio).toBe(0);
   });
 });
+
+describe('the centreline period for the bulk rate', () => {
+  it('one centreline well sampled a year after the others leaves the period (and the rate) where the others are', () => {
+    const c = depot();
+    const before = analyseObservations(c);
+    c.monitoring.results.push({ wellId: 'mw-3', date: '2025-06-01', analyte: 'benzene', value: 0.5, unit: 'ug/L', nonDetect: true });
+    const after = analyseObservations(c);
+    expect(after.bulkRate?.used).toBe(before.bulkRate!.used);
+    expect(after.biodegradationRate!.rate).toBeCloseTo(before.biodegradationRate!.rate, 12);
+  });
+});

@@ -180,7 +180,12 @@ export function ModelScatter({ c, summary }: { c: Case; summary: ObservationSumm
       pts.push({ x: toC(p.modelled), y: toC(p.mgL), nd: p.nonDetect, label: `${w.name} ${p.date}: ${p.nonDetect ? '< ' : ''}${formatSig(toC(p.mgL), 3)} ${cl} measured, ${formatSig(toC(p.modelled), 3)} ${cl} modelled` });
     }
   const k = summary.comparison;
-  if (pts.length === 0) return <p class="dg-help" data-testid="scatter-none">{k.words}</p>;
+  if (pts.length === 0)
+    return (
+      <p class="dg-help" data-testid="scatter-none">
+        No result can be drawn against the model yet: it needs placed wells with results after the release date where the model gives a concentration.
+      </p>
+    );
   const [lo, hi] = squareDecades(pts.flatMap((p) => [p.x, p.y]));
   const sx: Scale = logScale(lo, hi, M.l, W - M.r, decadeLabel);
   const sy: Scale = logScale(lo, hi, H - M.b, M.t, decadeLabel);
@@ -223,12 +228,12 @@ export function ModelScatter({ c, summary }: { c: Case; summary: ObservationSumm
         within a factor of ten
         <MeasuredKey />
       </p>
-      <ScatterFigures figures={figures} words={k.words} />
+      <ScatterFigures figures={figures} comparison={k} />
     </div>
   );
 }
 
-function ScatterFigures({ figures, words }: { figures: { name: string; value: string }[]; words: string }) {
+function ScatterFigures({ figures, comparison }: { figures: { name: string; value: string }[]; comparison: ModelComparison }) {
   return (
     <>
       {figures.length > 0 && (
@@ -241,7 +246,11 @@ function ScatterFigures({ figures, words }: { figures: { name: string; value: st
           ))}
         </dl>
       )}
-      <p class="dg-note">{words} Points where the model gives practically nothing (below 10⁻¹² mg/L) cannot be drawn on logarithmic axes and are counted in the words above.</p>
+      {comparison.modelNothing > 0 && (
+        <p class="dg-note">
+          Not drawn: {comparison.modelNothing} detected result{comparison.modelNothing === 1 ? '' : 's'} where the model gives practically nothing (below 10⁻¹² mg/L), which logarithmic axes cannot show.
+        </p>
+      )}
     </>
   );
 }

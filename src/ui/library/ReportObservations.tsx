@@ -1,12 +1,14 @@
 /**
  * The printed report's section on the site's monitoring data: per well the trend and point rate,
  * the attenuation rates and how far the model is from the measurements, in the same words as the
- * command line (src/case/observations-text.ts).
+ * command line (src/case/observations-text.ts), and the measured-against-modelled scatter with
+ * its named figures (the app's picture, charts/MonitoringCharts.tsx).
  */
 import type { Case } from '../../case/schema';
 import type { PreparedCase } from '../../case/prepare';
 import { analyseObservations } from '../../case/observations';
 import { OBSERVATION_TABLE_HEADER, observationLines, observationTableRows } from '../../case/observations-text';
+import { ModelScatter } from '../charts/MonitoringCharts';
 
 export function ReportObservations({ c, prepared }: { c: Case; prepared: PreparedCase | null }) {
   if (c.monitoring.results.length === 0) return null;
@@ -20,6 +22,7 @@ export function ReportObservations({ c, prepared }: { c: Case; prepared: Prepare
       ) : (
         <WellTrendTable rows={rows} class="dg-report-table" />
       )}
+      <ModelScatter c={c} summary={s} />
       {observationLines(s).map((line, i) => (
         <p class="dg-report-note" key={i}>
           {line}
