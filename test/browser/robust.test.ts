@@ -153,7 +153,9 @@ describe('a clean start', () => {
   it('reports no Content Security Policy violation, requests no default marker image and no request of its own origin fails', async () => {
     const w = await watchedPage(getBrowser(), LANDSCAPE);
     const { page, context } = w;
-    // violations as the page itself sees them (the schema library's eval probe was one)
+    // violations as the page itself sees them (the schema library's eval probe was one). Seen to
+    // fail without the fix: with src/case/zodConfig.ts's z.config({ jitless: true }) commented out,
+    // this test received ['script-src eval'] (checked 2026-12-03); with it, none.
     await page.addInitScript(() => {
       const seen: string[] = ((window as unknown as { __csp: string[] }).__csp = []);
       document.addEventListener('securitypolicyviolation', (e) => seen.push(`${e.violatedDirective} ${e.blockedURI}`));
