@@ -14,8 +14,8 @@ import type { Case } from './schema';
 import { otherSolution, type ExportResults } from './export-results';
 import { statusText, type ReceptorFigure } from '../core';
 import { fileNumber } from './numbers';
+import { fromInternal } from '../core/units';
 
-const len = (v: number) => fileNumber(v, 'length');
 const time = (v: number | null) => (v === null ? null : fileNumber(v, 'time'));
 const years = (v: number | null) => (v === null ? null : fileNumber(v, 'time', v / YEAR_D));
 const conc = (v: number) => fileNumber(v, 'concentration');
@@ -82,7 +82,9 @@ const FIGURE_COLUMN: Record<ReceptorFigure, string> = {
 };
 
 
-export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
+/** The receptor table; lengths in `lengthUnit` (the case's unit system: m or ft), named in the headers. */
+export function receptorTableCsv(r: Omit<ExportResults, 'plume'>, lengthUnit: 'm' | 'ft' = 'm'): string {
+  const len = (v: number) => fileNumber(v, 'length', fromInternal(v, lengthUnit));
   const rows: Cell[][] = r.receptors.map((x) => {
     const a = x.alternate ?? null;
     return [
@@ -112,7 +114,11 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>): string {
       a ? a.differing.map((f) => FIGURE_COLUMN[f]).join('; ') : null,
     ];
   });
-  return withCaution([...RECEPTOR_TABLE_HEADER], rows, r.caution);
+  return withCaution(
+    RECEPTOR_TABLE_HEADER.map((h) => h.replace('(m)', `(${lengthUnit})`)),
+    rows,
+    r.caution,
+  );
 }
 
 /** Breakthrough curves: one row per time, one column per receptor (and the other solution's). */

@@ -235,6 +235,17 @@ export const caseSchemaV3 = caseSchemaV2.extend({
     saturatedThickness: quantity('length').nullable().optional(),
   }),
   uncertainty: uncertaintySettings.default(DEFAULT_UNCERTAINTY),
+  /**
+   * the unit system everything is shown in, with per-field overrides (version 3; unitSystem.ts;
+   * absent: SI, each field shown in the unit it was typed in). Stored quantities keep their typed unit.
+   */
+  units: z
+    .object({
+      system: z.enum(['SI', 'US']),
+      /** case field path → the unit that field is shown in */
+      fields: z.record(z.string().max(120), z.string().max(20)).default({}),
+    })
+    .optional(),
   /** monitoring wells and sampling results (monitoring.ts); default: none */
   monitoring: monitoringSchema.default(DEFAULT_MONITORING),
 });

@@ -6,11 +6,12 @@
  */
 import { useState, useEffect } from 'preact/hooks';
 import type { ComponentChildren } from 'preact';
-import { UNITS, unitsOf, convert, type Dimension } from '../core/units';
+import { UNITS, unitsOf, type Dimension } from '../core/units';
+import { shownQuantity, withFieldUnit } from '../case/unitSystem';
 import type { Quantity } from '../case/schema';
 import { fieldIssue, fieldWarnings } from './validity';
 import { formatSig } from '../case/numbers';
-import { historyEpoch } from './state';
+import { currentCase, historyEpoch, updateCase } from './state';
 import { fieldInfo } from '../case/fields';
 
 /** The props with the label filled in from the field catalogue. */
@@ -136,7 +137,10 @@ export function QuantityField(
 ) {
   const props = labelled(raw);
   const id = useId('q');
-  const { value, onChange } = props;
+  const { onChange } = props;
+  // shown in the case's unit system or the field's own unit; the stored value stays as typed
+  // until a new value is typed (src/case/unitSystem.ts), so switching units never rounds it
+  const value = shownQuantity(currentCase.value, props.field, props.value);
   const [localError, setLocalError] = useState<string | null>(null);
   const units = unitsOf(props.dimension);
   return (
@@ -158,10 +162,9 @@ export function QuantityField(
           value={value.unit}
           onChange={(e) => {
             const unit = (e.target as HTMLSelectElement).value;
-            // the quantity stays the same; only the way it is written changes
-            const v = convert(value.value, value.unit, unit);
+            // only the way it is shown changes: the stored value stays exactly as typed
             setLocalError(null);
-            onChange({ value: Number(v.toPrecision(12)), unit });
+            updateCase((d) => void (d.units = withFieldUnit(d, props.field, unit)));
           }}
         >
           {units.map((u) => (

@@ -1,15 +1,28 @@
 /**
- * Display of results (internal m, d, mg/L) in the units the user works in: lengths in the unit of
- * the source width field (m or ft family), concentrations in the unit of the limit, times in days
- * below a year and in years above.
+ * Display of results (internal m, d, mg/L) in the units the user works in: lengths and velocities
+ * in the case's unit system (src/case/unitSystem.ts: SI m, m/d; US customary ft, ft/d),
+ * concentrations in the unit of the limit, times in days below a year and in years above.
  */
 import { fromInternal, UNITS } from '../core/units';
 import { currentCase } from './state';
 import { formatDuration, screenNumber } from '../case/numbers';
+import { resultUnit, shownQuantity } from '../case/unitSystem';
+import type { Quantity } from '../case/schema';
 
 export function lengthUnit(): string {
-  const u = currentCase.value.site.source.width.unit;
-  return UNITS[u]?.system === 'US' ? 'ft' : 'm';
+  return resultUnit(currentCase.value, 'length');
+}
+
+/** A seepage velocity (internal m/d) in the case's system. */
+export function fmtVelocity(mPerDay: number, digits?: number): string {
+  const u = resultUnit(currentCase.value, 'velocity');
+  return `${screenNumber(mPerDay, 'velocity', fromInternal(mPerDay, u), digits)} ${UNITS[u].label}`;
+}
+
+/** A stored input quantity as its field shows it (the case's system, or the field's own unit). */
+export function fmtInput(field: string, q: Quantity, digits = 4): string {
+  const s = shownQuantity(currentCase.value, field, q);
+  return `${screenNumber(s.value, 'ratio', s.value, digits)} ${UNITS[s.unit]?.label ?? s.unit}`;
 }
 
 export function concUnit(): string {

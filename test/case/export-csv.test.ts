@@ -74,6 +74,15 @@ describe('screening tables', () => {
   const c = demoCase('fuel-release-farm-well.json');
   const r = exportResultsFor(c);
 
+  it('receptor table in US customary units: lengths in ft, named in the headers (issue 13 item 4)', () => {
+    const rows = readRfc4180(receptorTableCsv(r, 'ft'));
+    expect(rows[0][2]).toBe('distance from source (ft)');
+    expect(rows[0][5]).toBe('screen top below water table (ft)');
+    expect(rows[0][10]).toBe('at horizon (mg/L)');
+    // foot = 0.3048 m exactly (NIST SP 811, Appendix B); 10 significant digits in files
+    rows.slice(1, -1).forEach((row, k) => expect(Math.abs((Number(row[2]) * 0.3048) / r.receptors[k].distance - 1)).toBeLessThanOrEqual(5e-10));
+  });
+
   it('receptor table: one record per receptor, every record the same width, values round-trip', () => {
     const rows = readRfc4180(receptorTableCsv(r));
     expect(rows[0]).toEqual([...RECEPTOR_TABLE_HEADER]);

@@ -10,7 +10,7 @@ import { currentCase, currentResults } from '../state';
 import { prepareCase, type PreparedCase } from '../../case/prepare';
 import { ASSUMPTIONS, SCREENING_CAUTION } from '../../case/caution';
 import { BreakthroughChart } from '../charts/Charts';
-import { fmtConc, fmtLength, fmtTime } from '../format';
+import { fmtConc, fmtLength, fmtTime, fmtVelocity } from '../format';
 import { SOLUTIONS_DIFFER_ABOVE, statusText } from '../../core/results';
 import { screenNumber } from '../../case/numbers';
 import { saveState } from '../../app/session';
@@ -229,7 +229,7 @@ export function Report() {
         </table>
         {results && (
           <p class="dg-report-note">
-            Derived: seepage velocity v = K·i/nₑ = {screenNumber(results.derived.v, 'velocity')} m/d · retardation factor R = {screenNumber(results.derived.R, 'ratio')} · Kd ={' '}
+            Derived: seepage velocity v = K·i/nₑ = {fmtVelocity(results.derived.v)} · retardation factor R = {screenNumber(results.derived.R, 'ratio')} · Kd ={' '}
             {screenNumber(results.derived.kd, 'ratio')} L/kg · dispersivities αL {fmtLength(results.derived.ax)}, αT {fmtLength(results.derived.ay)}, αV{' '}
             {fmtLength(results.derived.az)} · decay rate λ = {screenNumber(results.derived.decay, 'ratio')} 1/d.
           </p>

@@ -1,6 +1,7 @@
 /**
  * The files the app writes for the open case, built from the case and the latest results.
  */
+import { resultUnit } from '../../case/unitSystem';
 import type { Case } from '../../case/schema';
 import { serializeCase } from '../../case/io';
 import { caseToGeoJSON } from '../../case/export-geojson';
@@ -42,7 +43,7 @@ export function geojsonFile(c: Case, r: Evaluation | null): Built {
 export function receptorCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Receptor table: ${NOT_READY}` };
-  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res) } };
+  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res, resultUnit(c, 'length') === 'ft' ? 'ft' : 'm') } };
 }
 
 export function curvesCsvFile(c: Case, r: Evaluation | null): Built {

@@ -7,7 +7,7 @@ import { currentCase, updateCase, currentResults } from '../state';
 import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
 import { MATERIAL_PRESETS, materialPreset, materialOfConductivity, typicalConductivity, FIELD_RANGES, citeValue } from '../../case/presets';
 import { toInternal } from '../../core/units';
-import { fmtLength } from '../format';
+import { fmtInput, fmtLength } from '../format';
 import { derivedForScreen } from '../evaluation';
 
 function rangeHelp(field: string, unit: string, lead = 'Usual range'): string {
@@ -25,7 +25,7 @@ export function AquiferPanel() {
   // the material that filled K in stays shown until K is changed to anything else
   const material = materialOfConductivity(toInternal(k.value, k.unit));
   const summary =
-    `K ${fmtNum(k.value)} ${unitLabel(k.unit)}, nₑ ${fmtNum(a.effectivePorosity)}` +
+    `K ${fmtInput('aquifer.hydraulicConductivity', k)}, nₑ ${fmtNum(a.effectivePorosity)}` +
     (dv ? `; R ${fmtNum(dv.R, 3)}, αL ${fmtLength(dv.ax)}` : '');
   return (
     <Section id="aquifer" title="What is the ground like?" summary={summary}>

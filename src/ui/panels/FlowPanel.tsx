@@ -9,7 +9,7 @@ import { QuantityField, NumberField, Segmented, fmtNum } from '../fields';
 import { mapTool, selectedId, lastDeleted } from '../view';
 import { UndoDelete } from './ReceptorsPanel';
 import type { Case, HeadReading } from '../../case/schema';
-import { fmtLength } from '../format';
+import { fmtLength, fmtVelocity } from '../format';
 import { fieldIssue } from '../validity';
 import { derivedForScreen } from '../evaluation';
 
@@ -21,7 +21,7 @@ export function FlowPanel() {
     (flow.method === 'direction'
       ? `Towards ${fmtNum(flow.azimuthDeg)}°, gradient ${fmtNum(flow.gradient)}`
       : `From ${flow.readings.length} water levels${dv ? `: towards ${fmtNum(dv.azimuthDeg, 3)}°, gradient ${fmtNum(dv.gradient, 2)}` : ''}`) +
-    (dv ? `; v ${fmtNum(dv.v, 3)} m/d` : '');
+    (dv ? `; v ${fmtVelocity(dv.v, 3)}` : '');
   return (
     <Section id="flow" title="Which way does the water go?" summary={summary}>
       <Segmented
@@ -68,7 +68,7 @@ export function FlowPanel() {
       {dv && (
         <p class="dg-derived" data-testid="flow-derived">
           Flow towards <strong>{fmtNum(dv.azimuthDeg, 4)}°</strong>, gradient <strong>{fmtNum(dv.gradient, 3)}</strong>;
-          seepage velocity v = K·i/nₑ = <strong>{fmtNum(dv.v, 3)} m/d</strong> ({fmtLength(dv.v * 365.25)}/yr), retardation
+          seepage velocity v = K·i/nₑ = <strong>{fmtVelocity(dv.v, 3)}</strong> ({fmtLength(dv.v * 365.25)}/yr), retardation
           factor R = <strong>{fmtNum(dv.R, 3)}</strong> (plume front moves at v/R).
         </p>
       )}

@@ -6,7 +6,7 @@ import { mapTool } from '../view';
 import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, type ContaminantPreset } from '../../case/presets';
 import type { Case } from '../../case/schema';
 import { convert } from '../../core/units';
-import { fmtLength } from '../format';
+import { fmtInput, fmtLength } from '../format';
 import { moveSource, dropFootprint } from '../frame';
 import { derivedForScreen } from '../evaluation';
 
@@ -16,7 +16,7 @@ export function ReleasePanel() {
   // the width across the flow as the engine takes it, for the case on screen
   const width = derivedForScreen()?.width ?? null;
   const outline = src.footprint !== null;
-  const summary = `${outline ? 'Traced outline' : 'Point'}, ${width !== null ? fmtLength(width) : fmtNum(src.width.value) + ' ' + unitLabel(src.width.unit)} across the flow; ${c.contaminant.name || 'contaminant'} at ${fmtNum(c.source.concentration.value)} ${unitLabel(c.source.concentration.unit)}`;
+  const summary = `${outline ? 'Traced outline' : 'Point'}, ${width !== null ? fmtLength(width) : fmtInput('site.source.width', src.width)} across the flow; ${c.contaminant.name || 'contaminant'} at ${fmtNum(c.source.concentration.value)} ${unitLabel(c.source.concentration.unit)}`;
   return (
     <Section id="release" title="Where is the release?" summary={summary}>
       <Segmented

@@ -8,6 +8,7 @@ import { useState } from 'preact/hooks';
 import { memo } from 'preact/compat';
 import { currentCase, currentResults, updateCase } from '../state';
 import { Segmented } from '../fields';
+import { unitSystem, withUnitSystem } from '../../case/unitSystem';
 import { selectedId } from '../view';
 import { inputIssue } from '../validity';
 import { evaluationState, evaluationError } from '../evaluation';
@@ -41,6 +42,15 @@ export function ResultsPanel() {
           { id: 'exact', label: 'Exact rectangular source' },
         ]}
         onChange={(v) => updateCase((d) => void (d.evaluation.solution = v))}
+      />
+      <Segmented
+        label="Units"
+        value={unitSystem(c)}
+        options={[
+          { id: 'SI', label: 'SI (metres)' },
+          { id: 'US', label: 'US (feet)' },
+        ]}
+        onChange={(v) => updateCase((d) => void (d.units = withUnitSystem(d, v)))}
       />
       {issue && (
         <p class="dg-banner dg-banner-error" role="alert" data-testid="input-issue">
