@@ -19,6 +19,10 @@ import type { PreparedCase } from './prepare';
 import {
   ValidationError,
   checkSeed,
+  gridConcentration,
+  gridFrames,
+  plumeLength,
+  type WalkGrid,
   emptyTally,
   observerConcentrations,
   prepareFlow,
@@ -163,4 +167,43 @@ export function runCaseParticles(c: Case, p: PreparedCase, w: CaseWells, opts: P
     steps: tally.steps,
     warnings,
   };
+}
+
+/** The density layer keeps the grid at every GRID_EVERY-th output time (20 frames over the horizon). */
+export const GRID_EVERY = 5;
+
+/**
+ * The flow-frame grid of the particle density layer: from 20 % of its length upgradient of the
+ * source (dispersion and a pumping well upgradient draw solute back) to past the analytical
+ * plume's reach at the horizon and the farthest receptor; across, the source width plus four
+ * transverse spreading lengths and every receptor. size × size cells.
+ */
+export function particleGrid(p: PreparedCase, size = 64): WalkGrid {
+  const m = p.model;
+  const reach = plumeLength(m, p.limit, 0, p.horizon) ?? 0;
+  const far = Math.max(0, ...p.receptors.map((r) => r.x));
+  const X = Math.max(1.2 * reach, 1.15 * far, 4 * m.width, 20);
+  const x0 = -0.2 * X;
+  const Y = Math.max(m.width / 2 + 8 * Math.sqrt(m.ay * X), 1.15 * Math.max(0, ...p.receptors.map((r) => Math.abs(r.y))), m.width);
+  return { x0, y0: -Y, dx: (X - x0) / size, dy: (2 * Y) / size, nx: size, ny: size, every: GRID_EVERY };
+}
+
+/**
+ * The density layer at the grid frame nearest time t (d): depth-averaged concentration (mg/L) on
+ * the cell centres, laid out as the map lattice (values[i·ny + j] at (xs[i], ys[j])), and the
+ * frame's time.
+ */
+export function particleDensity(walk: PreparedWalk, tally: WalkTally, t: number): { xs: Float64Array; ys: Float64Array; values: Float64Array; time: number } {
+  const g = walk.input.grid;
+  if (!g) throw new ValidationError('grid', g, 'a grid given to the walk');
+  const every = g.every ?? 1;
+  const frames = gridFrames(walk);
+  let k = 0;
+  for (let f = 0; f < frames; f++) if (Math.abs(walk.times[(f + 1) * every - 1] - t) < Math.abs(walk.times[(k + 1) * every - 1] - t)) k = f;
+  const c = gridConcentration(walk, tally, k);
+  const xs = Float64Array.from({ length: g.nx }, (_, i) => g.x0 + (i + 0.5) * g.dx);
+  const ys = Float64Array.from({ length: g.ny }, (_, j) => g.y0 + (j + 0.5) * g.dy);
+  const values = new Float64Array(g.nx * g.ny);
+  for (let i = 0; i < g.nx; i++) for (let j = 0; j < g.ny; j++) values[i * g.ny + j] = c[j * g.nx + i];
+  return { xs, ys, values, time: walk.times[(k + 1) * every - 1] };
 }

@@ -171,13 +171,24 @@ export function wellCaptures(p: PreparedCase, w: CaseWells): WellCapture[] {
 
 export const TRAVEL_TIME_MARKS_YEARS = [1, 5, 10, 25] as const;
 
+export interface TravelMark {
+  readonly years: number;
+  readonly ring: Position[];
+  readonly front: Position[][];
+  readonly closed: boolean;
+}
+
 export interface MapCaptureZone {
   readonly receptorId: string;
   /** the traced zone's outline (map positions; core sweptOutline, as far as 4 × 25 years of water travel) */
   readonly envelope: Position[];
-  /** time-of-travel outlines (sweptOutline) for water and for the contaminant (× R), each at 1, 5, 10 and 25 years */
-  readonly water: { years: number; ring: Position[] }[];
-  readonly contaminant: { years: number; ring: Position[] }[];
+  /**
+   * time-of-travel marks for water and for the contaminant (× R), each at 1, 5, 10 and 25 years:
+   * the ground within that travel time (`ring`, core sweptOutline) and the front as drawn
+   * (`front`: its pieces, `closed` when it is one ring around the well; core isochroneFront)
+   */
+  readonly water: TravelMark[];
+  readonly contaminant: TravelMark[];
   readonly fromBoundary: number[];
 }
 
@@ -191,14 +202,20 @@ export function mapCaptureZones(p: PreparedCase, w: CaseWells): MapCaptureZone[]
     for (let i = 0; i < a.length; i += 2) out.push(p.toMap(a[i], a[i + 1]));
     return out;
   };
+  const mark = (iso: { outline: Float64Array; front: { pieces: Float64Array[]; closed: boolean } }, k: number): TravelMark => ({
+    years: TRAVEL_TIME_MARKS_YEARS[k],
+    ring: ring(iso.outline),
+    front: iso.front.pieces.map(ring),
+    closed: iso.front.closed,
+  });
   return f.wells.map((_, j) => {
     const water = captureZone(f, j, { times: days, maxTime: 4 * days[days.length - 1] });
     const solute = captureZone(f, j, { times: days, retardation: p.model.R, maxTime: 4 * days[days.length - 1] });
     return {
       receptorId: p.receptors[w.receptorOf[j]].id,
       envelope: ring(water.outline),
-      water: water.isochrones.map((iso, k) => ({ years: TRAVEL_TIME_MARKS_YEARS[k], ring: ring(iso.outline) })),
-      contaminant: solute.isochrones.map((iso, k) => ({ years: TRAVEL_TIME_MARKS_YEARS[k], ring: ring(iso.outline) })),
+      water: water.isochrones.map((iso, k) => mark(iso, k)),
+      contaminant: solute.isochrones.map((iso, k) => mark(iso, k)),
       fromBoundary: water.fromBoundary,
     };
   });

@@ -28,6 +28,8 @@ import { notify } from '../app/session';
 import 'leaflet/dist/leaflet.css';
 import './app.css';
 
+// the pumping wells and particles, loaded after the first screen (src/ui/lazy.tsx)
+const WellsPanel = lazyPart(() => import('./panels/WellsPanel').then((m) => m.WellsPanel), 'wells panel');
 // opened from the header; loaded when first opened (src/ui/lazy.tsx)
 // the map and Leaflet (a third of the first screen's JavaScript): the inputs and the receptor table
 // are usable while its chunk arrives on a poor link (precached: offline it opens at once)
@@ -108,6 +110,7 @@ const PANELS: [string, preact.ComponentType][] = [
   ['The aquifer inputs', AquiferPanel],
   ['The receptors', ReceptorsPanel],
   ['The results', ResultsPanel],
+  ['The pumping wells', () => <WellsPanel />],
   ['How sure it is', UncertaintyPanel],
   ['What was measured', MonitoringPanel],
 ];

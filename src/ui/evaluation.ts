@@ -29,6 +29,7 @@ import { currentCase, currentResults, publishResults } from './state';
 import { playTime } from './view';
 import { settings } from './settings';
 import { inputIssue } from './validity';
+import { particleRun } from './particleState';
 
 /** 'busy' while a worker job for the current inputs is running */
 export const evaluationState = signal<'idle' | 'busy' | 'error'>('idle');
@@ -289,7 +290,7 @@ export function startEvaluation(): () => void {
   });
   // read by the latency benchmark (bench/ui-latency.mjs) and the browser tests: the samples and the
   // case on screen; absent from production builds
-  if (INSTRUMENTED) (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek() };
+  if (INSTRUMENTED) (globalThis as { __downgradient?: unknown }).__downgradient = { latencySamples, currentCase: () => currentCase.peek(), particleRun: () => particleRun.peek() };
   return () => {
     stop();
     clearPause();

@@ -3,7 +3,7 @@ import type { FeatureCollection, MultiPolygon } from 'geojson';
 import { packedToGeoJSON } from '../geo/contours';
 import type { PlumeLayer } from '../worker/protocol';
 
-export type { Evaluation, PlumeLayer, ReceptorRow, ReceptorStatus, WarningItem } from '../worker/protocol';
+export type { Evaluation, PlumeLayer, ReceptorRow, ReceptorStatus, WarningItem, WellsLayer } from '../worker/protocol';
 
 export type PlumeGeoJSON = FeatureCollection<MultiPolygon, { threshold: number; multiple: number; label: string; unit: string }>;
 

@@ -4,7 +4,7 @@
  */
 import { signal } from '@preact/signals';
 
-export type MapTool = 'move' | 'trace-footprint' | 'place-source' | 'add-receptor' | 'add-head' | 'add-monitoring';
+export type MapTool = 'move' | 'trace-footprint' | 'place-source' | 'add-receptor' | 'add-head' | 'add-monitoring' | 'add-boundary';
 
 export const mapTool = signal<MapTool>('move');
 /** id of the selected receptor, head reading or monitoring well */
@@ -20,7 +20,7 @@ export function selectFromMap(id: string): void {
 export const playTime = signal<number | null>(null);
 /** 'ok' tiles load; 'failed' none could load (offline, no signal) so the site grid shows; 'off' no tile URL */
 export const tileState = signal<'loading' | 'ok' | 'failed' | 'off'>('loading');
-export type SectionId = 'release' | 'flow' | 'aquifer' | 'risk' | 'results' | 'uncertainty' | 'monitoring';
+export type SectionId = 'release' | 'flow' | 'aquifer' | 'risk' | 'results' | 'wells' | 'uncertainty' | 'monitoring';
 /** which panel sections are open (several may be) */
 export const openSections = signal<Set<SectionId>>(new Set<SectionId>(['release', 'results']));
 

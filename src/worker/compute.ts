@@ -12,7 +12,8 @@ import { screenCase } from '../case/screen';
 import { prepareCase, type PreparedCase } from '../case/prepare';
 import { breakthroughCurve, concentrationGrid, plumeLength, sampleTimes, concentration, type ScreeningModel } from '../core';
 import { contourBands, packContours } from '../geo/contours';
-import type { Evaluation, PlumeLayer, ReceptorRow } from './protocol';
+import type { Evaluation, PlumeLayer, ReceptorRow, WellsLayer } from './protocol';
+import { mapCaptureZones } from '../case/wells';
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
@@ -69,10 +70,25 @@ export function evaluateCase(c: Case): Evaluation {
     plumeLengthSteady: s.plumeLength.steady,
     profile,
     plume: null,
+    wells: wellsLayer(s),
     warnings: s.warnings.map((w) => ({ ...w })),
     caution: s.caution,
     timing: { screenMs: t1 - t0, curvesMs: t2 - t1 },
   };
+}
+
+/** The well field's figures and capture zones for the screen (see WellsLayer). */
+function wellsLayer(s: ReturnType<typeof screenCase>): WellsLayer | null {
+  const w = s.wells;
+  if (!w.field || w.thickness === null) return null;
+  let zones: WellsLayer['zones'] = [];
+  let zoneError: string | null = null;
+  try {
+    zones = mapCaptureZones(s.prepared, w);
+  } catch (e) {
+    zoneError = e instanceof Error ? e.message : String(e);
+  }
+  return { thickness: w.thickness, captures: s.captures.map((c) => ({ ...c })), zones, zoneError };
 }
 
 /**

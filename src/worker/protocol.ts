@@ -7,6 +7,22 @@
 import type { PackedBands } from '../geo/contours';
 import type { ExportReceptorResult } from '../case/export-results';
 import type { ReceptorResult } from '../core';
+import type { MapCaptureZone, WellCapture } from '../case/wells';
+
+/**
+ * The steady well field of the case (pumping receptors with rates, boundary lines): per pumping
+ * well its capture of the source, and its capture zone with time-of-travel marks as map positions.
+ * null when the case has nothing to model (no pumping well with a rate and no boundary line, or no
+ * saturated thickness: then a warning says so).
+ */
+export interface WellsLayer {
+  /** saturated thickness B, m */
+  thickness: number;
+  captures: WellCapture[];
+  zones: MapCaptureZone[];
+  /** why the zones could not be traced (the captures may still be there), or null */
+  zoneError: string | null;
+}
 
 export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-horizon';
 
@@ -91,6 +107,7 @@ export interface Evaluation {
   plumeLengthSteady: number | null;
   profile: { xs: number[]; values: number[]; alternate: number[] | null; time: number };
   plume: PlumeLayer | null;
+  wells: WellsLayer | null;
   warnings: WarningItem[];
   caution: string;
   timing: { screenMs: number; curvesMs: number };

@@ -299,6 +299,8 @@ export interface Isochrone {
   readonly polygon: Float64Array;
   /** the outline of the ground from which water reaches the well within that time (sweptOutline) */
   readonly outline: Float64Array;
+  /** the mark as drawn: the front at that time (isochroneFront) */
+  readonly front: { pieces: Float64Array[]; closed: boolean };
 }
 
 export interface CaptureZone {
@@ -379,7 +381,7 @@ export function captureZone(f: FlowField, j: number, opts: CaptureOptions = {}):
       poly[2 * k] = p.x;
       poly[2 * k + 1] = p.y;
     });
-    return { time: T, polygon: poly, outline: sweptOutline(streamlines, waterMarks[i], tip) };
+    return { time: T, polygon: poly, outline: sweptOutline(streamlines, waterMarks[i], tip), front: isochroneFront(streamlines, waterMarks[i]) };
   });
   return { well: j, streamlines, envelope, outline: sweptOutline(streamlines, Infinity, tip), isochrones, fromBoundary: counts.map((c) => c / M), fromRegional: regional / M };
 }
@@ -410,8 +412,10 @@ const SPLIT_FACTOR = 4;
  * The outline of the ground swept by a fan of streamlines traced backward from a well (in angle
  * order) within water travel time T (Infinity: as far as traced): the region from which water
  * reaches the well within T. Where two neighbouring streamlines stay together, the outline joins
- * their positions at T; where they split around a stagnation point (their positions at T lie more
- * than SPLIT_FACTOR times the median spacing apart), it runs back along the first of them to its
+ * their positions at T. Where those lie more than SPLIT_FACTOR times the median spacing apart,
+ * either one stopped short beside the other (it lingered by a stagnation point; both traced for
+ * T), and the outline follows the longer one back (or forward) to beside the shorter one's end; or they split around a
+ * stagnation point (each end far from the other's path), and the outline runs back along the first of them to its
  * slowest point (the one nearest the stagnation point), through the stagnation point itself when
  * `tip` finds it (captureZone: Newton on the complex discharge from between the two slowest
  * points), and out along the second from its own slowest point, so the outline follows the
@@ -436,14 +440,49 @@ export function sweptOutline(
     if (!(gaps[k] > SPLIT_FACTOR * median) || M < 3) continue;
     const a = truncated(streamlines[k], T);
     const b = truncated(streamlines[next], T);
-    const ia = slowest(a);
-    const ib = slowest(b);
-    for (let i = a.x.length - 2; i >= ia; i--) out.push(a.x[i], a.y[i]);
-    const z = tip?.({ x: a.x[ia], y: a.y[ia] }, { x: b.x[ib], y: b.y[ib] });
-    if (z) out.push(z.x, z.y);
-    for (let j = ib; j < b.x.length - 1; j++) out.push(b.x[j], b.y[j]);
+    const na = nearest(a, ends[next]);
+    const nb = nearest(b, ends[k]);
+    if (na.d > SPLIT_FACTOR * median && nb.d > SPLIT_FACTOR * median) {
+      // they split around a stagnation point: back along a, through it, out along b
+      const ia = slowest(a);
+      const ib = slowest(b);
+      for (let i = a.x.length - 2; i >= ia; i--) out.push(a.x[i], a.y[i]);
+      const z = tip?.({ x: a.x[ia], y: a.y[ia] }, { x: b.x[ib], y: b.y[ib] });
+      if (z) out.push(z.x, z.y);
+      for (let j = ib; j < b.x.length - 1; j++) out.push(b.x[j], b.y[j]);
+    } else if (na.d <= nb.d) {
+      // b ends beside a, short of a's end (at a boundary or a well, or at T after lingering by a
+      // stagnation point): back along a to there; an end set by the tracing limits is not followed
+      if (realEnd(streamlines[next], T)) for (let i = a.x.length - 2; i > na.i; i--) out.push(a.x[i], a.y[i]);
+    } else if (realEnd(streamlines[k], T)) {
+      // a ends beside b, short of b's end: along b from there
+      for (let j = nb.i + 1; j < b.x.length - 1; j++) out.push(b.x[j], b.y[j]);
+    }
   }
   return Float64Array.from(out);
+}
+
+/** Whether a streamline's position at T is a real end: reached at T, or where it met a well, a boundary or a stagnation point. */
+function realEnd(s: Streamline, T: number): boolean {
+  return (Number.isFinite(T) && s.t[s.t.length - 1] >= T) || s.end === 'well' || s.end === 'boundary' || s.end === 'stagnation';
+}
+
+/** The point of a path (its points joined by straight segments) nearest to p: the segment's first index and the distance. */
+function nearest(path: { x: number[]; y: number[] }, p: { x: number; y: number }): { i: number; d: number } {
+  let i = 0;
+  let d = Math.hypot(path.x[0] - p.x, path.y[0] - p.y);
+  for (let k = 0; k + 1 < path.x.length; k++) {
+    const ex = path.x[k + 1] - path.x[k];
+    const ey = path.y[k + 1] - path.y[k];
+    const len2 = ex * ex + ey * ey;
+    const u = len2 > 0 ? Math.max(0, Math.min(1, ((p.x - path.x[k]) * ex + (p.y - path.y[k]) * ey) / len2)) : 0;
+    const e = Math.hypot(path.x[k] + u * ex - p.x, path.y[k] + u * ey - p.y);
+    if (e < d) {
+      d = e;
+      i = k;
+    }
+  }
+  return { i, d };
 }
 
 /** Index of the point after the slowest stretch of a traced path (distance per travel time). */
@@ -477,4 +516,41 @@ function truncated(s: Streamline, T: number): { x: number[]; y: number[]; t: num
   y.push(e.y);
   t.push(Math.min(T, s.t[s.t.length - 1]));
   return { x, y, t };
+}
+
+/**
+ * The time-of-travel mark at water time T as drawn: the fan's positions at T in angle order (each
+ * streamline's point from which water takes T to reach the well), leaving out streamlines that
+ * ended before T (at a boundary line, another well or the tracing limit: their water reaches the
+ * well sooner from anywhere along them) and broken where neighbours split around a stagnation
+ * point (as in sweptOutline). One closed ring while every streamline reaches T and none split
+ * (a small T: a ring around the well); otherwise the longest open piece, the front across the
+ * zone (x, y interleaved). The pieces left out run along the zone's sides towards a stagnation
+ * point, where travel times grow without bound; drawn, they would double the zone's outline.
+ */
+export function isochroneFront(streamlines: readonly Streamline[], T: number): { pieces: Float64Array[]; closed: boolean } {
+  const M = streamlines.length;
+  const at = streamlines.map((s) => positionAt(s, T));
+  const reached = streamlines.map((s) => s.t[s.t.length - 1] >= T);
+  const gap = (k: number) => Math.hypot(at[(k + 1) % M].x - at[k].x, at[(k + 1) % M].y - at[k].y);
+  const gaps = at.map((_, k) => gap(k));
+  const median = [...gaps].sort((a, b) => a - b)[Math.floor(M / 2)];
+  const breakAfter = (k: number) => !reached[k] || !reached[(k + 1) % M] || gaps[k] > SPLIT_FACTOR * median;
+  const breaks = at.map((_, k) => breakAfter(k));
+  if (!breaks.some(Boolean) && reached.every(Boolean)) return { pieces: [Float64Array.from(at.flatMap((p) => [p.x, p.y]))], closed: true };
+  // start just after a break, so no piece wraps around the fan's ends
+  const start = (breaks.indexOf(true) + 1) % M;
+  const pieces: Float64Array[] = [];
+  let cur: number[] = [];
+  for (let i = 0; i < M; i++) {
+    const k = (start + i) % M;
+    if (reached[k]) cur.push(at[k].x, at[k].y);
+    if (breaks[k]) {
+      if (cur.length >= 4) pieces.push(Float64Array.from(cur));
+      cur = [];
+    }
+  }
+  if (cur.length >= 4) pieces.push(Float64Array.from(cur));
+  const longest = pieces.reduce<Float64Array | null>((a, b) => (!a || b.length > a.length ? b : a), null);
+  return { pieces: longest ? [longest] : [], closed: false };
 }

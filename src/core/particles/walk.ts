@@ -74,6 +74,8 @@ export interface WalkGrid {
   readonly dy: number;
   readonly nx: number;
   readonly ny: number;
+  /** record the grid at every `every`-th output time only (frames at output times every−1, 2·every−1, …); default 1 */
+  readonly every?: number;
 }
 
 export interface WalkInput {
@@ -109,7 +111,7 @@ export interface WalkTally {
   /** per extraction well × time interval (0, t₀], (t₀, t₁], …: captured mass, Σm² */
   wellMass: Float64Array;
   wellMass2: Float64Array;
-  /** per time × grid cell: mass */
+  /** per grid frame × grid cell: mass (frames: see WalkGrid.every) */
   gridMass: Float64Array;
   /** mass in the aquifer at each output time */
   aquiferMass: Float64Array;
@@ -158,6 +160,14 @@ export function prepareWalk(input: WalkInput): PreparedWalk {
   }
   const eps = input.epsilon === undefined ? 0.1 : requireInRange('epsilon', input.epsilon, 0, 1, true, false);
   for (const [i, o] of (input.observers ?? []).entries()) requirePositive(`observers[${i}].radius`, o.radius);
+  const g = input.grid;
+  if (g) {
+    requirePositive('grid.dx', g.dx);
+    requirePositive('grid.dy', g.dy);
+    for (const [k, v] of [['grid.nx', g.nx], ['grid.ny', g.ny]] as const) if (!Number.isInteger(v) || v < 1 || v > 4096) throw new ValidationError(k, v, 'a whole number from 1 to 4096');
+    if (g.every !== undefined && (!Number.isInteger(g.every) || g.every < 1 || g.every > times.length))
+      throw new ValidationError('grid.every', g.every, `a whole number from 1 to ${times.length} (the output times)`);
+  }
   const sinks = f.wells
     .map((w, index) => ({ w, index }))
     .filter(({ w }) => w.rate > 0)
@@ -186,7 +196,7 @@ export function emptyTally(p: PreparedWalk): WalkTally {
     obsMass2: new Float64Array(no * nt),
     wellMass: new Float64Array(p.sinks.length * nt),
     wellMass2: new Float64Array(p.sinks.length * nt),
-    gridMass: new Float64Array(g ? g.nx * g.ny * nt : 0),
+    gridMass: new Float64Array(g ? g.nx * g.ny * gridFrames(p) : 0),
     aquiferMass: new Float64Array(nt),
     released: 0,
     captured: 0,
@@ -195,6 +205,39 @@ export function emptyTally(p: PreparedWalk): WalkTally {
     stalled: 0,
     steps: 0,
     particlesDone: 0,
+  };
+}
+
+/** Number of grid frames kept (output times every−1, 2·every−1, … of the walk). */
+export function gridFrames(p: PreparedWalk): number {
+  const g = p.input.grid;
+  return g ? Math.floor(p.times.length / gridEvery(g)) : 0;
+}
+
+function gridEvery(g: WalkGrid): number {
+  return g.every === undefined ? 1 : g.every;
+}
+
+/**
+ * A tally of part of the particles, scaled to stand for all of them: masses × f, sums of squared
+ * masses × f² (so standard errors scale by f). With particles walked in an interleaved subset
+ * (walkParticles' stride), f = N / particles walked gives an unbiased estimate of the whole run:
+ * every subset spans the whole release period. The counts (particlesDone, steps, stalled) are kept.
+ */
+export function scaledTally(t: WalkTally, f: number): WalkTally {
+  const mul = (a: Float64Array, k: number) => a.map((v) => v * k);
+  return {
+    ...t,
+    obsMass: mul(t.obsMass, f),
+    obsMass2: mul(t.obsMass2, f * f),
+    wellMass: mul(t.wellMass, f),
+    wellMass2: mul(t.wellMass2, f * f),
+    gridMass: mul(t.gridMass, f),
+    aquiferMass: mul(t.aquiferMass, f),
+    released: t.released * f,
+    captured: t.captured * f,
+    outflow: t.outflow * f,
+    decayed: t.decayed * f,
   };
 }
 
@@ -281,10 +324,13 @@ function rotl(x: number, k: number): number {
 const MAX_STEPS_PER_PARTICLE = 200_000;
 
 /**
- * Walks particles j0 … j1−1 into `tally`. `shouldStop` is polled every 256 particles (cancel).
- * Returns the number walked.
+ * Walks particles j0, j0 + stride, … below j1 into `tally`. `shouldStop` is polled every 256
+ * particles (cancel). Returns the number walked. A stride > 1 walks an interleaved subset that
+ * spans the whole release period (particles are stratified in release time by j), so a run split
+ * into offsets 0 … stride−1 gives a usable partial result after each (scaledTally).
  */
-export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: WalkTally, shouldStop?: () => boolean): number {
+export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: WalkTally, shouldStop?: () => boolean, stride = 1): number {
+  if (!Number.isInteger(stride) || stride < 1) throw new ValidationError('stride', stride, 'a whole number ≥ 1');
   const inp = p.input;
   const f = inp.field;
   const src = inp.source;
@@ -301,6 +347,8 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
   const obs = inp.observers ?? [];
   const no = obs.length;
   const grid = inp.grid;
+  const every = grid ? gridEvery(grid) : 1;
+  const frames = gridFrames(p);
   const sinks = p.sinks;
   const ns = sinks.length;
   const lines = f.lines;
@@ -313,7 +361,7 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
   const active = p.activeEnd;
   const massScale = src.c0 * src.thickness * src.width * (active / N);
   let done = 0;
-  for (let j = j0; j < j1; j++) {
+  for (let j = j0; j < j1; j += stride) {
     if ((done & 255) === 0 && done > 0 && shouldStop?.()) break;
     done++;
     rng.reset(j);
@@ -447,10 +495,11 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
             tally.obsMass2[o * nt + k] += m * m * obsArea[o] * obsArea[o];
           }
         }
-        if (grid) {
+        if (grid && (k + 1) % every === 0 && (k + 1) / every <= frames) {
           const ix = Math.floor((x - grid.x0) / grid.dx);
           const iy = Math.floor((y - grid.y0) / grid.dy);
-          if (ix >= 0 && iy >= 0 && ix < grid.nx && iy < grid.ny) tally.gridMass[(k * grid.ny + iy) * grid.nx + ix] += m;
+          const frame = (k + 1) / every - 1;
+          if (ix >= 0 && iy >= 0 && ix < grid.nx && iy < grid.ny) tally.gridMass[(frame * grid.ny + iy) * grid.nx + ix] += m;
         }
         k++;
       }
@@ -509,10 +558,15 @@ export function wellConcentrations(p: PreparedWalk, t: WalkTally): (ParticleEsti
   });
 }
 
-/** Depth-averaged concentration (mg/L) on the grid at output time k. */
+/**
+ * Depth-averaged concentration (mg/L) on the grid at frame k (output time k when the grid is
+ * recorded at every output time; output time (k+1)·every − 1 otherwise). Box estimator: the mass
+ * in a cell over its pore volume, nₑ·B·R·dx·dy.
+ */
 export function gridConcentration(p: PreparedWalk, t: WalkTally, k: number): Float64Array {
   const g = p.input.grid;
   if (!g) throw new ValidationError('grid', g, 'a grid given to the walk');
+  if (!(k >= 0 && k < gridFrames(p))) throw new ValidationError('frame', k, `a grid frame from 0 to ${gridFrames(p) - 1}`);
   const n = g.nx * g.ny;
   const out = new Float64Array(n);
   const scale = 1 / (g.dx * g.dy * p.input.field.porosity * p.input.field.thickness * p.input.R);

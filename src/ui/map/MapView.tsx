@@ -9,6 +9,7 @@ import { ExceedanceKey } from './ExceedanceKey';
 import { currentPlume } from '../evaluation';
 import { fmtTime } from '../format';
 import { swatchBackground } from './bandStyle';
+import { WellsKey } from './WellsKey';
 
 import { setActiveSiteMap } from './active';
 
@@ -73,6 +74,7 @@ function LiveMap({ frameKey }: { frameKey: string }) {
         )}
         <PlumeKey />
         <ExceedanceKey />
+        <WellsKey />
         <TimeBar />
       </div>
     </div>
@@ -90,6 +92,7 @@ const TOOLS: { id: MapTool; label: string; hint: string }[] = [
 /** Tools started from a panel rather than the tool bar (the bar keeps one row on a tablet), with their hints. */
 const PANEL_TOOL_HINTS: Partial<Record<MapTool, string>> = {
   'add-monitoring': 'Tap the map where the monitoring well is; then enter its results in “What was measured?”',
+  'add-boundary': 'Tap two points along a river bank, lake shore or barrier (the line runs on beyond them); set its kind under “Which way does the water go?”',
 };
 
 /** What the active tool does, over the top of the map (so the map keeps its size: a tap lands where the finger is). */

@@ -25,6 +25,9 @@ import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource, setFootprint } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
+import { WellLayers, travelMarks } from './wellLayers';
+import { ParticleLayerView } from './particleLayer';
+import { particleCaseKey, particleLayer, particleRun, showParticleLayer } from '../particleState';
 
 export const toLatLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
 
@@ -77,6 +80,10 @@ export class SiteMap {
   private traceLine: L.Polyline;
   private tileLoads = 0;
   private tileErrors = 0;
+  /** capture zones, time-of-travel marks and boundary lines (wellLayers.ts) */
+  private wells: WellLayers;
+  /** the particle plume (particleLayer.ts) */
+  private particles: ParticleLayerView;
   /** called after contours are on screen (latency measurement) */
   onPlumeDrawn: ((p: PlumeLayer) => void) | null = null;
 
@@ -124,6 +131,8 @@ export class SiteMap {
     });
     for (const l of [this.footprint, this.sourcePlane, this.flowLine, this.traceLine, this.source]) l.addTo(this.map);
 
+    this.wells = new WellLayers(this.map);
+    this.particles = new ParticleLayerView(this.map);
     this.wireGestures();
     this.fitTo(this.frameTargets(c, null));
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
@@ -134,6 +143,15 @@ export class SiteMap {
       this.placeLabels();
       if (this.synced && moved.length && !this.innerView().contains(L.latLngBounds(moved))) this.bringIntoView(L.latLngBounds(moved));
     });
+    this.disposers.push(effect(() => guarded('capture zones', () => this.wells.syncZones(currentResults.value?.wells ?? null, travelMarks.value))));
+    this.disposers.push(effect(() => guarded('boundary lines', () => this.wells.syncBoundaries(currentCase.value))));
+    this.disposers.push(
+      effect(() => {
+        const run = particleRun.value;
+        const current = run.caseKey === particleCaseKey(currentCase.value);
+        guarded('particles', () => this.particles.sync(particleLayer.value, showParticleLayer.value, current, run.status === 'done'));
+      }),
+    );
     this.disposers.push(effect(() => (playTime.value === null ? guarded('frame', () => this.framePlume()) : undefined)));
     this.disposers.push(
       effect(() => {
@@ -155,7 +173,8 @@ export class SiteMap {
         const tracing = mapTool.value === 'trace-footprint';
         if (tracing) this.map.dragging.disable();
         else this.map.dragging.enable();
-        for (const m of [this.source, this.flowHandle, ...this.receptors.values(), ...this.heads.values()]) {
+        if (mapTool.value !== 'add-boundary') this.wells.cancelTap();
+        for (const m of [this.source, this.flowHandle, ...this.receptors.values(), ...this.heads.values(), ...this.wells.handles()]) {
           if (!m.dragging) continue;
           if (tracing) m.dragging.disable();
           else m.dragging.enable();
@@ -180,6 +199,7 @@ export class SiteMap {
     for (const d of this.disposers) d();
     this.monitoring?.destroy();
     this.exceedance?.destroy();
+    this.wells.destroy();
     registerMapElement(null);
     this.map.remove();
   }
@@ -508,6 +528,8 @@ export class SiteMap {
         updateCase((d) => void d.site.receptors.push(newReceptor(at, d.site.receptors.length, id)));
         selectedId.value = id;
         mapTool.value = 'move';
+      } else if (tool === 'add-boundary') {
+        if (this.wells.tap(e.latlng)) mapTool.value = 'move';
       } else if (tool === 'add-head') {
         const id = newId();
         updateCase((d) => {

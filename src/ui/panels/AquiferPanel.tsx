@@ -9,6 +9,7 @@ import { MATERIAL_PRESETS, materialPreset, materialOfConductivity, typicalConduc
 import { toInternal } from '../../core/units';
 import { fmtInput, fmtLength } from '../format';
 import { derivedForScreen } from '../evaluation';
+import { SaturatedThicknessField } from './WellInputs';
 
 function rangeHelp(field: string, unit: string, lead = 'Usual range'): string {
   const r = FIELD_RANGES.find((x) => x.field === field);
@@ -100,6 +101,7 @@ export function AquiferPanel() {
         ) : (
           <p class="dg-help">ρb = 2.65 (1 − n) g/cm³ = {fmtNum(2.65 * (1 - a.totalPorosity), 3)} g/cm³ (quartz grains; common practice).</p>
         )}
+        <SaturatedThicknessField />
         <h3>Dispersivity</h3>
         <Segmented
           label="Dispersivity"

@@ -12,6 +12,7 @@ import type { Case, HeadReading } from '../../case/schema';
 import { fmtLength, fmtVelocity } from '../format';
 import { fieldIssue } from '../validity';
 import { derivedForScreen } from '../evaluation';
+import { BoundaryLines } from './WellInputs';
 
 export function FlowPanel() {
   const c = currentCase.value;
@@ -72,6 +73,7 @@ export function FlowPanel() {
           factor R = <strong>{fmtNum(dv.R, 3)}</strong> (plume front moves at v/R).
         </p>
       )}
+      <BoundaryLines />
     </Section>
   );
 }

@@ -9,6 +9,8 @@ import { fmtConc, fmtLength, fmtTime } from '../format';
 import type { Evaluation, ReceptorRow } from '../results';
 import { SOLUTIONS_DIFFER_ABOVE, statusText } from '../../core/results';
 import { ScrollX } from '../ScrollX';
+import { currentCase } from '../state';
+import { particleCaseKey, particleRun } from '../particleState';
 
 
 const SOLUTION_SHORT: Record<'domenico' | 'exact', string> = { domenico: 'Domenico', exact: 'exact' };
@@ -30,6 +32,34 @@ function Alt({ alt, figure, text }: { alt: ReceptorRow['alternate']; figure: 'ar
 
 const arrivalText = (a: number | null) => (a === null ? 'not within horizon' : fmtTime(a));
 
+/** A pumping well's capture of the release (well field; see WellsPanel), under its name. */
+function Capture({ r, id }: { r: Evaluation; id: string }) {
+  const x = r.wells?.captures.find((c) => c.receptorId === id);
+  if (!x) return null;
+  return (
+    <span class="dg-alt" data-col="capture">
+      {x.capturesSource
+        ? `Release in its capture zone: contaminant arrives in about ${fmtTime(x.travelTimeFromSource)} (advective; water ${fmtTime(x.waterTravelTime)})`
+        : 'Release outside its capture zone'}
+    </span>
+  );
+}
+
+/** The particle figure under the analytical one, when a run for these inputs has figures. */
+function Particles({ id, figure }: { id: string; figure: 'horizon' | 'arrival' }) {
+  const run = particleRun.value;
+  if (!run.receptors || run.caseKey !== particleCaseKey(currentCase.value)) return null;
+  const x = run.receptors.find((p) => p.id === id);
+  if (!x) return null;
+  const partial = run.status !== 'done' ? ' (partial)' : '';
+  return (
+    <span class="dg-alt" data-col={`particles-${figure}`}>
+      Particles{partial}:{' '}
+      {figure === 'horizon' ? `${fmtConc(x.concentrationAtHorizon)} ± ${fmtConc(x.standardError)}` : x.arrival === null ? 'not within horizon' : `about ${fmtTime(x.arrival)}`}
+    </span>
+  );
+}
+
 export function ReceptorTable({ r }: { r: Evaluation }) {
   const reveal = revealRequest.value;
   const body = useRef<HTMLTableSectionElement>(null);
@@ -41,12 +71,19 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
   }, [reveal]);
   if (r.receptors.length === 0) return <p class="dg-help">Add receptors on the map to see what each one will see.</p>;
   const otherName = r.solution === 'domenico' ? 'exact' : 'Domenico';
+  const run = particleRun.value;
+  const particles = !!run.receptors && run.caseKey === particleCaseKey(currentCase.value);
   return (
     <>
       {/* the table's description stays above its sideways scroll; the caption names the table */}
       <p class="dg-table-note" id="dg-receptor-table-note">
         Each receptor against the limit {fmtConc(r.limit)} over {fmtTime(r.horizon)}. Where the {otherName} solution gives another
-        result, or any figure differs by more than {SOLUTIONS_DIFFER_ABOVE * 100} %, its figures are shown under the chosen one's.
+        result, or any figure differs by more than {SOLUTIONS_DIFFER_ABOVE * 100} %, its figures are shown under the chosen one's. Method: analytical (
+        {r.solution === 'domenico' ? 'Domenico 1987' : 'exact rectangular source'}, uniform flow, no pumping).
+        {r.wells ? ' Pumping wells: capture of the release from the steady well field.' : ''}
+        {particles
+          ? ` Particles: random walk in the well field, ${run.particles.toLocaleString('en')} particles, seed ${run.seed}, depth-averaged, ± one standard error.`
+          : ''}
       </p>
       <ScrollX label="Receptor results table">
         <table class="dg-table dg-receptor-table" data-testid="receptor-table" aria-describedby="dg-receptor-table-note">
@@ -83,6 +120,7 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
                         {SOLUTION_SHORT[alt.solution]}: {statusText(alt.status, true)}
                       </span>
                     )}
+                    <Capture r={r} id={x.id} />
                   </th>
                   <td>
                     {upgradient ? (
@@ -95,10 +133,12 @@ export function ReceptorTable({ r }: { r: Evaluation }) {
                   <td data-col="arrival">
                     {upgradient ? 'never (upgradient)' : arrivalText(x.arrival)}
                     <Alt alt={alt} figure="arrival" text={arrivalText(alt?.arrival ?? null)} />
+                    <Particles id={x.id} figure="arrival" />
                   </td>
                   <td data-col="horizon">
                     {upgradient ? '—' : fmtConc(x.atHorizon)}
                     <Alt alt={alt} figure="atHorizon" text={fmtConc(alt?.atHorizon ?? 0)} />
+                    <Particles id={x.id} figure="horizon" />
                   </td>
                   <td data-col="peak">
                     {upgradient ? '—' : `${fmtConc(x.peak.c)} (${fmtTime(x.peak.t)})`}

@@ -10,6 +10,7 @@ import { KIND_LABEL } from '../../case/receptorKinds';
 import { Fragment } from 'preact';
 import { useEffect, useRef } from 'preact/hooks';
 import { activeSiteMap } from '../map/active';
+import { PumpingRateField } from './WellInputs';
 
 export { KIND_LABEL };
 
@@ -133,8 +134,9 @@ export function ReceptorsPanel() {
                   checked={r.pumping}
                   onChange={(e) => updateCase((d) => void (d.site.receptors[i].pumping = (e.target as HTMLInputElement).checked))}
                 />
-                <span>Pumps {r.pumping && <em>— noted; pumping is not yet represented, so a pumping well may see the plume sooner.</em>}</span>
+                <span>Pumps (a supply or extraction well)</span>
               </label>}
+              {r.kind === 'well' && <PumpingRateField index={i} r={r} />}
               <div class="dg-btn-row">
                 <button
                   type="button"

@@ -1,0 +1,64 @@
+/**
+ * Legend of the well-field layers under the map: the capture zones with the choice of
+ * time-of-travel marks (water, as for wellhead protection, or the contaminant, slowed by R), and
+ * the particle plume with its run (particles, seed, partial or out of date) and a switch to hide it.
+ */
+import { currentCase, currentResults } from '../state';
+import { travelMarks } from './wellLayers';
+import { particleCaseKey, particleLayer, particleRun, showParticleLayer } from '../particleState';
+import { fmtTime } from '../format';
+import '../wells.css';
+
+export function WellsKey() {
+  const w = currentResults.value?.wells ?? null;
+  const layer = particleLayer.value;
+  const run = particleRun.value;
+  if (!(w && w.zones.length) && !layer) return null;
+  const current = run.caseKey === particleCaseKey(currentCase.value);
+  return (
+    <div class="dg-plume-key dg-wells-key" aria-label="Well field legend">
+      {w && w.zones.length > 0 && (
+        <div class="dg-key-row">
+          <Sample kind="capture" />
+          <span>Capture zone (steady flow, traced to 100 years of travel);</span>
+          <Sample kind="mark" />
+          <span>years of travel to the well for</span>
+          <span class="dg-seg" role="group" aria-label="Time-of-travel marks for">
+            {(['water', 'contaminant'] as const).map((m) => (
+              <button type="button" key={m} class={travelMarks.value === m ? 'dg-on' : ''} aria-pressed={travelMarks.value === m} onClick={() => (travelMarks.value = m)}>
+                {m === 'water' ? 'water' : 'the contaminant (× R)'}
+              </button>
+            ))}
+          </span>
+        </div>
+      )}
+      {layer && (
+        <div class="dg-key-row">
+          <Sample kind="particles" />
+          <span>
+            Particles (random walk, {run.status === 'done' ? run.particles : `${layer.particlesDone} of ${run.particles}`} particles, seed {run.seed})
+            {' '}≥ limit, 10×, … after {fmtTime(layer.time)}
+            {!current ? ' — out of date' : run.status !== 'done' ? ' — partial' : ''}
+          </span>
+          <label class="dg-check dg-key-check">
+            <input type="checkbox" checked={showParticleLayer.value} onChange={(e) => (showParticleLayer.value = (e.target as HTMLInputElement).checked)} />
+            <span>show</span>
+          </label>
+        </div>
+      )}
+    </div>
+  );
+}
+
+/** A sample of the line or area as drawn on the map (the map's own classes, so the colours match). */
+function Sample({ kind }: { kind: 'capture' | 'mark' | 'particles' }) {
+  return (
+    <svg class="dg-key-sample" viewBox="0 0 30 14" width="30" height="14" aria-hidden="true">
+      {kind === 'capture' ? (
+        <rect class="dg-capture-zone" x="1.5" y="1.5" width="27" height="11" rx="2" stroke-width="2" />
+      ) : (
+        <path class={kind === 'mark' ? 'dg-travel-mark' : 'dg-particle-band'} d="M1 7H29" stroke-width="2.5" fill="none" />
+      )}
+    </svg>
+  );
+}

@@ -1,0 +1,143 @@
+// Pumping wells in the app, on the invented riverside demo: the capture zone and its time-of-travel
+// marks are drawn on the map, the receptor table says the release lies in the supply well's capture
+// zone, a particle run in workers shows progress with time left, can be cancelled (keeping a partial
+// result, said to be partial), and finishes with per-receptor figures ± standard errors that agree
+// with the command line's code for the same case, particles and seed (the walk does not depend on
+// how the particles are split across workers; summation order aside); the particle plume is drawn.
+// Screenshots at 1024×768, 768×1024 and 390×844 go to test-artifacts/; axe-core finds no serious issue.
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { readFileSync } from 'node:fs';
+import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { axe } from './axe-helpers';
+import { parseCaseFile } from '../../src/case/io';
+import { screenCase } from '../../src/case/screen';
+import { runCaseParticles } from '../../src/case/particles';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const PHONE = { width: 390, height: 844 };
+
+async function openRiverside(viewport: { width: number; height: number }): Promise<{ page: Page; errors: string[]; close: () => Promise<void> }> {
+  const context = await browser.newContext({ viewport, deviceScaleFactor: 1, hasTouch: true, serviceWorkers: 'block' });
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto(inject('baseUrl'));
+  await page.waitForSelector('.dg-mark-source');
+  const ok = page.locator('button', { hasText: /^OK$/ });
+  if (await ok.isVisible().catch(() => false)) await ok.click();
+  await page.selectOption('select.dg-demo', 'riverside-supply-well.json');
+  await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === 2);
+  await page.waitForSelector('path.dg-capture-zone', { state: 'attached' });
+  return { page, errors, close: () => context.close() };
+}
+
+async function setNumber(page: Page, label: string, value: number): Promise<void> {
+  const input = page.getByLabel(label, { exact: true });
+  await input.fill(String(value));
+  await input.press('Tab');
+}
+
+async function openWells(page: Page): Promise<void> {
+  const toggle = page.locator('#sec-wells button');
+  await toggle.waitFor();
+  if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click();
+  await page.waitForSelector('[data-testid=wells-table]');
+}
+
+describe('pumping wells: capture zones and particles', () => {
+  it('draws the capture zone with travel-time marks and the river; the table says the release is in the supply well’s zone', async () => {
+    const { page, errors, close } = await openRiverside(LANDSCAPE);
+    expect(await page.locator('path.dg-capture-zone').count()).toBe(1);
+    expect(await page.locator('.leaflet-pane path.dg-travel-mark').count()).toBe(4);
+    await expect(page.locator('.dg-travel-label').allInnerTexts()).resolves.toEqual(['1 yr', '5 yr', '10 yr', '25 yr']);
+    expect(await page.locator('path.dg-boundary-constant-head').count()).toBe(2);
+    const row = page.locator('[data-testid=receptor-table] tr[data-receptor=supply-well]');
+    await expect(row.locator('[data-col=capture]').innerText()).resolves.toMatch(/Release in its capture zone: contaminant arrives in about 1\.7\d* yr/);
+    await expect(page.locator('[data-testid=receptor-table] caption').innerText()).resolves.toContain('Method: analytical');
+    await openWells(page);
+    await expect(page.locator('[data-testid=wells-table] tr[data-well=supply-well]').getAttribute('data-captures')).resolves.toBe('true');
+    // the contaminant's marks lie inside the water's (R > 1)
+    await page.getByRole('button', { name: 'the contaminant (× R)' }).click();
+    await page.waitForSelector('path.dg-travel-mark');
+    await page.screenshot({ path: artifactPath('wells-map-1024x768.png') });
+    expect(errors).toEqual([]);
+    await close();
+  });
+
+  it('a particle run shows progress and time left, can be cancelled, and finishes with figures ± SE equal to the shared code', async () => {
+    const { page, errors, close } = await openRiverside(LANDSCAPE);
+    await openWells(page);
+    await setNumber(page, 'Particles', 200000);
+    await setNumber(page, 'Seed', 7);
+    await page.getByRole('button', { name: 'Run particles' }).click();
+    const progress = page.locator('[data-testid=particle-progress]');
+    await progress.waitFor();
+    await page.waitForFunction(() => /s left/.test(document.querySelector('[data-testid=particle-progress]')?.textContent ?? ''), null, { timeout: 30_000 });
+    await expect(progress.innerText()).resolves.toMatch(/of 200,000 particles on \d worker/);
+    // the map and the analytical results stay usable meanwhile: the solution can be switched
+    await page.getByRole('radio', { name: 'Exact rectangular source' }).click();
+    await page.waitForFunction(() => document.querySelector('[data-testid=summary]')?.textContent?.includes('exact solution'));
+    await page.getByRole('radio', { name: 'Domenico (1987, approximate)' }).click();
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await page.waitForSelector('[data-testid=particle-cancelled]');
+    await expect(page.locator('[data-testid=particle-method]').innerText()).resolves.toMatch(/of 200,000 particles, seed 7, partial/);
+
+    // a whole run, compared with the command line's code for the same case, particles and seed
+    await setNumber(page, 'Particles', 4000);
+    await page.locator('[data-action=run-particles]').click();
+    await page.waitForFunction(() => document.querySelector('[data-action=run-particles]') && !document.querySelector('[data-testid=particle-progress]'), null, { timeout: 60_000 });
+    const parsed = parseCaseFile(readFileSync('cases/riverside-supply-well.json', 'utf8'));
+    if (!parsed.ok) throw new Error('demo case unreadable');
+    const s = screenCase(parsed.case);
+    const expected = runCaseParticles(parsed.case, s.prepared, s.wells, { particles: 4000, seed: 7 });
+    const shown = await page.evaluate(() => (window as unknown as { __downgradient: { particleRun: () => { receptors: { concentrationAtHorizon: number; standardError: number }[] } } }).__downgradient.particleRun());
+    expected.receptors.forEach((r, j) => {
+      // same particles and streams; only the order of summation differs (1e-9 relative)
+      expect(shown.receptors[j].concentrationAtHorizon).toBeCloseTo(r.concentrationAtHorizon, 12);
+      expect(Math.abs(shown.receptors[j].concentrationAtHorizon - r.concentrationAtHorizon)).toBeLessThanOrEqual(1e-9 * r.concentrationAtHorizon);
+      expect(Math.abs(shown.receptors[j].standardError - r.standardError)).toBeLessThanOrEqual(1e-9 * r.standardError);
+    });
+    const rows = await page.locator('[data-testid=particle-results] tbody tr').allInnerTexts();
+    expect(rows).toHaveLength(2);
+    for (const r of rows) expect(r).toMatch(/±/);
+    await expect(page.locator('[data-testid=receptor-table] [data-col=particles-horizon]').first().innerText()).resolves.toMatch(/^Particles: .* ± /);
+    await expect(page.locator('[data-testid=particle-mass]').innerText()).resolves.toMatch(/pumped out by wells/);
+    await page.waitForSelector('.leaflet-pane path.dg-particle-band', { state: 'attached' });
+    await page.screenshot({ path: artifactPath('wells-particles-1024x768.png') });
+    await page.locator('[data-testid=particle-results]').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('wells-panel-1024x768.png') });
+    const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
+    expect(findings).toEqual([]);
+    expect(errors).toEqual([]);
+    await close();
+  });
+
+  it('portrait tablet and phone: the map layers, the wells panel and its run fit', async () => {
+    for (const [vp, name] of [
+      [PORTRAIT, '768x1024'],
+      [PHONE, '390x844'],
+    ] as const) {
+      const { page, errors, close } = await openRiverside(vp);
+      await page.screenshot({ path: artifactPath(`wells-map-${name}.png`) });
+      await openWells(page);
+      await setNumber(page, 'Particles', 3000);
+      await page.getByRole('button', { name: 'Run particles' }).click();
+      await page.waitForSelector('[data-testid=particle-results]', { timeout: 60_000 });
+      await page.waitForFunction(() => !document.querySelector('[data-testid=particle-progress]'), null, { timeout: 60_000 });
+      await page.locator('[data-testid=particle-results]').scrollIntoViewIfNeeded();
+      await page.screenshot({ path: artifactPath(`wells-panel-${name}.png`) });
+      const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
+      expect(findings).toEqual([]);
+      expect(errors).toEqual([]);
+      await close();
+    }
+  });
+});
