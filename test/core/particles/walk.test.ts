@@ -268,7 +268,7 @@ describe('particles with a pumping well and a stream', () => {
 
 describe('interleaved subsets (stride) and scaled partial tallies', () => {
   it('offsets 0 … S−1 with stride S merge into the whole run (round-off), and one offset scaled by S estimates it within its band', async () => {
-    const { prepareFlow, prepareWalk, emptyTally, walkParticles, mergeTally, scaledTally, observerConcentrations } = await import('../../src/core/index');
+    const { prepareFlow, prepareWalk, emptyTally, walkParticles, mergeTally, scaledTally, observerConcentrations } = await import('../../../src/core/index');
     const field = prepareFlow({ darcyFlux: 0.1, porosity: 0.25, thickness: 10, wells: [] });
     const input = {
       field,
