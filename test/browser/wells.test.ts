@@ -61,7 +61,7 @@ describe('pumping wells: capture zones and particles', () => {
     expect(await page.locator('path.dg-boundary-constant-head').count()).toBe(2);
     const row = page.locator('[data-testid=receptor-table] tr[data-receptor=supply-well]');
     await expect(row.locator('[data-col=capture]').innerText()).resolves.toMatch(/Release in its capture zone: contaminant arrives in about 1\.7\d* yr/);
-    await expect(page.locator('[data-testid=receptor-table] caption').innerText()).resolves.toContain('Method: analytical');
+    await expect(page.locator('#dg-receptor-table-note').innerText()).resolves.toContain('Method: analytical');
     await openWells(page);
     await expect(page.locator('[data-testid=wells-table] tr[data-well=supply-well]').getAttribute('data-captures')).resolves.toBe('true');
     // the contaminant's marks lie inside the water's (R > 1)
