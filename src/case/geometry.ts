@@ -9,7 +9,7 @@ import type { Case, Position, ReceptorKind } from './schema';
 import { ValidationError, fitHeadPlane, type Warning } from '../core';
 import { makeLocalFrame, type LocalFrame } from '../geo/projection';
 import { toFlow } from '../geo/flowFrame';
-import { footprintSourcePlane } from '../geo/footprint';
+import { cleanRing, footprintSourcePlane, planeAcross } from '../geo/footprint';
 import { normalizeDeg } from '../geo/angles';
 import { CaseFieldError, atField, readFraction, readQuantity, ruleFor } from './checked';
 import { bounds, NON_NEGATIVE } from './fields';
@@ -135,6 +135,24 @@ export function prepareSourcePlane(c: Case, sf: SiteFrame, planeAzimuthDeg: numb
   );
   if (!(plane.width > 0)) throw new CaseFieldError('site.source.footprint', undefined, null, 'an outline with a width across the flow', 'the traced outline has no width across the flow; trace it again');
   return { sourceEN: plane.centreEN, width: plane.width, widthFromFootprint: true };
+}
+
+/**
+ * A traced footprint's source plane for any flow direction of the datum plane, the footprint
+ * projected and checked once (prepareSourcePlane's result for that direction, without redoing the
+ * projection and the polygon checks): for a Monte Carlo run whose flow direction varies. Null for a
+ * point release.
+ */
+export function footprintPlaneFor(c: Case, sf: SiteFrame): ((planeAzimuthDeg: number) => SourcePlane) | null {
+  const fp = c.site.source.footprint;
+  if (!fp) return null;
+  prepareSourcePlane(c, sf, 0); // the footprint's own checks, once
+  const ring = cleanRing(fp.map((p, i) => sf.toEN(`site.source.footprint[${i}]`, p)));
+  return (az) => {
+    const plane = planeAcross(ring, az);
+    if (!(plane.width > 0)) throw new CaseFieldError('site.source.footprint', undefined, null, 'an outline with a width across the flow', 'the traced outline has no width across the flow; trace it again');
+    return { sourceEN: plane.centreEN, width: plane.width, widthFromFootprint: true };
+  };
 }
 
 /** Receptors in the flow frame, with the warning that pumping is not represented. */

@@ -27,7 +27,7 @@ import type { Case, UncertainInput, UncertainValue } from './schema';
 import { UNCERTAIN_INPUTS } from './schema';
 import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
 import { modelFor, type PhysicalInputs } from './physics';
-import { prepareFrame, prepareSourcePlane, receptorReach, type SourcePlane } from './geometry';
+import { footprintPlaneFor, prepareFrame, receptorReach, type SourcePlane } from './geometry';
 import { unitDef, type Dimension } from '../core/units';
 import type { ScreeningModel } from '../core/model';
 import { ValidationError, screenReceptorsInto, type Receptor } from '../core';
@@ -280,11 +280,7 @@ export function planUncertainty(c: Case, opts: RunOptions = {}): UncertaintyPlan
   }
   if (!inputs.length && !headPlane)
     throw new ValidationError('uncertainty.inputs', 'none', 'at least one uncertain input', 'no input has a distribution: give at least one uncertain input a distribution to run a Monte Carlo screening');
-  let sourcePlaneFor: UncertaintyPlan['sourcePlaneFor'] = null;
-  if (c.site.source.footprint) {
-    const sf = prepareFrame(c);
-    sourcePlaneFor = (az) => prepareSourcePlane(c, sf, az);
-  }
+  const sourcePlaneFor = footprintPlaneFor(c, prepareFrame(c));
   const curveTimes = opts.curves ? Float64Array.from({ length: BAND_TIMES }, (_, k) => (prepared.horizon * (k + 1)) / BAND_TIMES) : null;
   const map = opts.map ? exceedanceGrid(prepared, runs) : null;
   return { prepared, runs, seed, inputs, headPlane, columns: inputs.length + (headPlane ? 2 : 0), curveTimes, map, sourcePlaneFor };

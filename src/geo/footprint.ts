@@ -15,7 +15,8 @@
  * vertices, non-finite coordinates, zero area, or edges that cross or touch (self-intersection).
  * A closing vertex equal to the first, and repeated consecutive vertices, are dropped first.
  */
-import { toFlow, fromFlow } from './flowFrame';
+import { fromFlow } from './flowFrame';
+import { sinCosDeg } from './angles';
 import { openRing, ringArea } from './rings';
 
 export interface SourcePlane {
@@ -30,7 +31,7 @@ export interface SourcePlane {
 }
 
 /** Footprint vertices, checked finite, without repeated consecutive points or a closing duplicate. */
-function cleanRing(footprintEN: readonly (readonly [number, number])[]): [number, number][] {
+export function cleanRing(footprintEN: readonly (readonly [number, number])[]): [number, number][] {
   if (!Array.isArray(footprintEN)) throw new Error('source footprint must be a list of [east, north] vertices');
   footprintEN.forEach((p, k) => {
     if (!Array.isArray(p) || p.length < 2 || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
@@ -114,16 +115,27 @@ export function footprintSourcePlane(
   // a simple polygon that is not flat has positive area; kept as a guard
   if (!(Math.abs(area) > flat / 2)) throw new Error('source footprint has zero area');
 
+  return { ...planeAcross(ring, azimuthDeg), area: Math.abs(area) };
+}
+
+/**
+ * The source plane of a footprint already checked by footprintSourcePlane (`ring` its vertices),
+ * for another flow direction: only the extents along and across the flow, no checks. For work
+ * that turns the flow many times (a Monte Carlo run with an uncertain direction).
+ */
+export function planeAcross(ring: readonly (readonly [number, number])[], azimuthDeg: number): Omit<SourcePlane, 'area'> {
   const origin = ring[0];
+  const [s, c] = sinCosDeg(azimuthDeg);
   let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
   for (const p of ring) {
-    const { x, y } = toFlow(origin, azimuthDeg, p);
+    // geo/flowFrame.ts toFlow, its sine and cosine once for the ring
+    const de = p[0] - origin[0], dn = p[1] - origin[1];
+    const x = de * s + dn * c, y = -de * c + dn * s;
     minX = Math.min(minX, x); maxX = Math.max(maxX, x); minY = Math.min(minY, y); maxY = Math.max(maxY, y);
   }
   return {
-    centreEN: fromFlow(origin, azimuthDeg, { x: maxX, y: (minY + maxY) / 2 }),
+    centreEN: fromFlow(origin as [number, number], azimuthDeg, { x: maxX, y: (minY + maxY) / 2 }),
     width: maxY - minY,
     upgradientLength: maxX - minX,
-    area: Math.abs(area),
   };
 }
