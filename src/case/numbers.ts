@@ -79,9 +79,36 @@ export function screenNumber(internal: number, kind: NumberKind, shown = interna
 
 const YEAR_D = 365.25;
 
-/** A time span in days as read on screen: days below a (Julian) year, years above. */
-export function formatDuration(d: number, digits?: number): string {
+export type TimeUnit = 'd' | 'yr';
+
+/**
+ * The one time unit of a screen (its table, charts, summaries and the printed report): years when
+ * the horizon is longer than two (Julian) years, days otherwise, so "102 d" never stands beside
+ * "0.279 years".
+ */
+export function timeUnitFor(horizonDays: number): TimeUnit {
+  return horizonDays > 2 * YEAR_D ? 'yr' : 'd';
+}
+
+/**
+ * A time span in days as read on screen: in `unit` when given (the screen's unit, timeUnitFor);
+ * otherwise days below a (Julian) year and years above.
+ */
+export function formatDuration(d: number, digits?: number, unit?: TimeUnit): string {
   if (d === Infinity) return 'steady state';
-  if (Math.abs(d) < YEAR_D) return `${screenNumber(d, 'time', d, digits)} d`;
+  const u = unit ?? (Math.abs(d) < YEAR_D ? 'd' : 'yr');
+  if (u === 'd') return `${screenNumber(d, 'time', d, digits)} d`;
   return `${screenNumber(d, 'time', d / YEAR_D, digits)} yr`;
+}
+
+const pad2 = (n: number) => String(n).padStart(2, '0');
+
+/**
+ * A moment as the report and exports write it, in the device's local time: 'YYYY-MM-DD HH:MM'
+ * (ISO 8601's order, as the monitoring dates 'YYYY-MM-DD' are written), one format throughout.
+ */
+export function dateTimeText(t: Date | string | number): string {
+  const d = new Date(t);
+  if (!Number.isFinite(d.getTime())) return String(t);
+  return `${d.getFullYear()}-${pad2(d.getMonth() + 1)}-${pad2(d.getDate())} ${pad2(d.getHours())}:${pad2(d.getMinutes())}`;
 }

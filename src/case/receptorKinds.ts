@@ -8,3 +8,8 @@ export const KIND_LABEL: Readonly<Record<ReceptorKind, string>> = Object.freeze(
   'property-line': 'Property line',
   other: 'Other point',
 });
+
+/** A kind in words (lower case, for the middle of a sentence); an unknown kind as it is. */
+export function kindText(kind: string): string {
+  return (KIND_LABEL as Record<string, string>)[kind]?.toLowerCase() ?? kind;
+}

@@ -1,11 +1,12 @@
 /**
  * Display of results (internal m, d, mg/L) in the units the user works in: lengths and velocities
  * in the case's unit system (src/case/unitSystem.ts: SI m, m/d; US customary ft, ft/d),
- * concentrations in the unit of the limit, times in days below a year and in years above.
+ * concentrations in the unit of the limit, times in one unit for the whole screen: years when the
+ * case's horizon is over two years, else days (numbers.ts timeUnitFor).
  */
-import { fromInternal, UNITS } from '../core/units';
+import { fromInternal, toInternal, UNITS } from '../core/units';
 import { currentCase } from './state';
-import { formatDuration, screenNumber } from '../case/numbers';
+import { formatDuration, screenNumber, timeUnitFor, type TimeUnit } from '../case/numbers';
 import { resultUnit, shownQuantity } from '../case/unitSystem';
 import type { Quantity } from '../case/schema';
 
@@ -39,7 +40,13 @@ export function fmtConc(mgL: number, digits?: number): string {
   return `${screenNumber(mgL, 'concentration', fromInternal(mgL, u), digits)} ${UNITS[u].label}`;
 }
 
+/** The time unit of the screen for the case on it (numbers.ts timeUnitFor). */
+export function timeUnit(): TimeUnit {
+  const h = currentCase.value.evaluation.horizon;
+  return timeUnitFor(toInternal(h.value, h.unit));
+}
+
 export function fmtTime(d: number | null, digits?: number): string {
   if (d === null) return '—';
-  return formatDuration(d, digits);
+  return formatDuration(d, digits, timeUnit());
 }

@@ -64,6 +64,79 @@ describe('printable report', () => {
     await viewer.close();
   });
 
+  it('issue 13 item 17: the site plan keeps its labels inside, colours receptors by status and its legend draws the map\'s symbols; kinds in words, one date format, page numbers, headings kept with their content', async () => {
+    const w = await watchedPage(getBrowser(), PORTRAIT);
+    const { page, context } = w;
+    await page.goto(w.base);
+    await waitSaved(page);
+    await openDemo(page, 'solvent-release-creek.json');
+    await openFiles(page);
+    await page.getByTestId('open-report').click();
+    await page.locator('[data-testid=report][data-ready=yes]').waitFor({ timeout: 30_000 });
+    const report = page.getByTestId('report');
+    const text = (await report.textContent()) ?? '';
+    // the receptor kinds in the screen's words, never the file's codes
+    expect(text).toMatch(/\(creek, pond or river\)/);
+    expect(text).toMatch(/\(property line\)/);
+    expect(text).not.toMatch(/surface-water|property-line/);
+    // one date format: both moments as YYYY-MM-DD HH:MM
+    const meta = (await page.locator('.dg-report-meta').innerText()).replace(/\s+/g, ' ');
+    expect(meta).toMatch(/Printed \d{4}-\d{2}-\d{2} \d{2}:\d{2}/);
+    expect(meta).toMatch(/Case last changed \d{4}-\d{2}-\d{2} \d{2}:\d{2}/);
+
+    const plan = page.getByTestId('site-plan');
+    const layout = await plan.evaluate((svg: SVGSVGElement) => {
+      const vb = svg.viewBox.baseVal;
+      const labels = [...svg.querySelectorAll<SVGTextElement>('.dg-plan-label')].map((t) => {
+        const b = t.getBBox();
+        return { text: t.textContent, left: b.x, right: b.x + b.width, top: b.y, bottom: b.y + b.height };
+      });
+      return { width: vb.width, height: vb.height, labels };
+    });
+    expect(layout.labels.map((l) => l.text)).toEqual(['Property line (south fence)', 'Mill creek bank']);
+    for (const l of layout.labels) {
+      expect(l.left, l.text!).toBeGreaterThanOrEqual(0);
+      expect(l.right, l.text!).toBeLessThanOrEqual(layout.width);
+      expect(l.top, l.text!).toBeGreaterThanOrEqual(0);
+      expect(l.bottom, l.text!).toBeLessThanOrEqual(layout.height);
+    }
+    // each receptor on the plan carries the status of its row in the table, in the map's status colour
+    const tableStatus = await page.locator('[data-testid=report-receptors] tbody tr td:nth-child(4)').allInnerTexts();
+    const planStatus = await plan.locator('.dg-plan-rec').evaluateAll((gs) => gs.map((g) => g.getAttribute('data-status')));
+    expect(planStatus.map((st) => ({ 'reaches-limit': 'reaches the limit within the horizon', 'below-limit': 'stays below the limit', 'not-reached-in-horizon': 'reaches the limit only after the horizon' })[st!])).toEqual(tableStatus);
+    const fills = await plan.locator('.dg-plan-rec > g > :first-child').evaluateAll((els) => els.map((e) => getComputedStyle(e).fill));
+    const mapColour: Record<string, string> = { 'reaches-limit': 'rgb(255, 82, 82)', 'below-limit': 'rgb(102, 209, 122)', 'not-reached-in-horizon': 'rgb(255, 179, 0)' };
+    expect(fills).toEqual(planStatus.map((st) => mapColour[st!]));
+    // the release is the map's hexagon on the plan and in its legend, not a square
+    expect(await plan.locator('.dg-plan-source polygon').count()).toBe(2);
+    expect(await plan.locator('rect.dg-plan-source').count()).toBe(0);
+    const key = page.getByTestId('site-plan-key');
+    expect(await key.locator('[data-key=release] polygon').first().getAttribute('points')).toBe(await plan.locator('.dg-plan-source polygon').first().getAttribute('points'));
+    expect(await key.locator('li').allInnerTexts()).toEqual(expect.arrayContaining(['release', 'creek, pond or river', 'property line', 'groundwater flow']));
+    await plan.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('report-site-plan-creek.png') });
+
+    // print: page numbers in the page's foot, and a heading never left alone at the foot of a page
+    await page.emulateMedia({ media: 'print' });
+    const pageRule = await page.evaluate(() => {
+      const all: string[] = [];
+      const walk = (rules: CSSRuleList) => {
+        for (const r of rules) {
+          if (r instanceof CSSPageRule) all.push(r.cssText);
+          else if ('cssRules' in r) walk((r as CSSGroupingRule).cssRules);
+        }
+      };
+      for (const sheet of document.styleSheets) walk(sheet.cssRules);
+      return all.join('\n');
+    });
+    expect(pageRule).toMatch(/@bottom-right\s*\{[^}]*counter\(page\)[^}]*counter\(pages\)/);
+    const h2 = await page.locator('.dg-report h2').first().evaluate((h) => getComputedStyle(h).breakAfter);
+    expect(h2).toBe('avoid');
+    const pdf = await page.pdf({ format: 'A4', printBackground: true });
+    writeFileSync(artifactPath('report-creek.pdf'), pdf);
+    await context.close();
+  });
+
   it('a case with monitoring data gets the "Monitoring data" section: a row per well, rates, the model comparison and the cautions', async () => {
     const w = await watchedPage(getBrowser(), PORTRAIT);
     const { page, context } = w;

@@ -1,7 +1,7 @@
 // The one number-writing rule (src/case/numbers.ts). Reference values are exact decimal
 // arithmetic worked by hand; the resolutions are the module's own stated choices (common practice).
 import { describe, expect, it } from 'vitest';
-import { fileNumber, formatSig, isRoundOffZero, roundSig, screenNumber } from '../../src/case/numbers';
+import { dateTimeText, fileNumber, formatDuration, formatSig, isRoundOffZero, roundSig, screenNumber, timeUnitFor } from '../../src/case/numbers';
 import { convert } from '../../src/core/units';
 
 describe('number rule', () => {
@@ -40,5 +40,22 @@ describe('number rule', () => {
     // 1 mm in ft is 0.00328 ft: not zero; 1e-9 m in ft is zero within round-off
     expect(screenNumber(0.001, 'length', convert(0.001, 'm', 'ft'))).toBe('0.003281');
     expect(screenNumber(1e-9, 'length', convert(1e-9, 'm', 'ft'))).toBe('0');
+  });
+});
+
+describe('one time unit per screen, one date format (issue 13 items 17 and 19)', () => {
+  it('years when the horizon is over two Julian years (730.5 d), else days; every time on the screen in it', () => {
+    expect(timeUnitFor(730.5)).toBe('d');
+    expect(timeUnitFor(731)).toBe('yr');
+    // the field trial's pair: 102 d beside 0.279 years on a 10-year horizon
+    expect(formatDuration(102, undefined, timeUnitFor(3652.5))).toBe('0.279 yr'); // 102 / 365.25 = 0.27926
+    expect(formatDuration(7305, undefined, 'yr')).toBe('20 yr');
+    expect(formatDuration(100, undefined, 'd')).toBe('100 d');
+    expect(formatDuration(102)).toBe('102 d'); // without a screen unit: days below a year, as before
+  });
+
+  it('moments as YYYY-MM-DD HH:MM in local time', () => {
+    expect(dateTimeText(new Date(2026, 11, 3, 9, 5))).toBe('2026-12-03 09:05');
+    expect(dateTimeText('not a date')).toBe('not a date');
   });
 });

@@ -8,6 +8,7 @@
 import type { ComponentChildren } from 'preact';
 import { concentrationScale, linearScale, type Scale } from './axes';
 import { fromInternal, UNITS } from '../../core/units';
+import { timeUnitFor } from '../../case/numbers';
 
 /** The chart's drawing box (viewBox units) and margins, shared with charts/MonitoringCharts.tsx. */
 export const W = 360;
@@ -106,10 +107,6 @@ export function solutionKey(solution: string, withAlt: boolean): { main: string;
   return { main: name(solution), alt: withAlt ? name(solution === 'domenico' ? 'exact' : 'domenico') : null };
 }
 
-/** Time axis unit: years when the horizon is longer than two years, else days. */
-export function timeUnit(horizon: number): 'yr' | 'd' {
-  return horizon > 2 * 365.25 ? 'yr' : 'd';
-}
 
 /** Percentile bands of a receptor's breakthrough curves over Monte Carlo realisations (internal units: d, mg/L). */
 export interface CurveBands {
@@ -140,7 +137,7 @@ export function BreakthroughChart(props: {
   /** Monte Carlo percentile bands, drawn behind the deterministic curve */
   bands?: CurveBands | null;
 }) {
-  const tu = timeUnit(props.horizon);
+  const tu = timeUnitFor(props.horizon); // the screen's one time unit (numbers.ts)
   const cu = props.concUnit;
   const toT = (d: number) => fromInternal(d, tu);
   const toC = (c: number) => fromInternal(c, cu);

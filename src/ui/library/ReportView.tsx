@@ -12,7 +12,8 @@ import { ASSUMPTIONS, SCREENING_CAUTION } from '../../case/caution';
 import { BreakthroughChart } from '../charts/Charts';
 import { fmtConc, fmtLength, fmtTime, fmtVelocity } from '../format';
 import { SOLUTIONS_DIFFER_ABOVE, statusText } from '../../core/results';
-import { screenNumber } from '../../case/numbers';
+import { dateTimeText, screenNumber } from '../../case/numbers';
+import { kindText } from '../../case/receptorKinds';
 import { saveState } from '../../app/session';
 import { resultsFor } from './outputs';
 import { inputRows } from './reportInputs';
@@ -69,7 +70,7 @@ export function Report() {
   const prepared = safePrepare(c);
   const rows = inputRows(c, prepared);
   const saved = saveState.value;
-  const printed = new Date().toLocaleString(undefined, { dateStyle: 'long', timeStyle: 'short' });
+  const printed = dateTimeText(new Date());
   const groups = [...new Set(rows.map((r) => r.group))];
   return (
     <article class="dg-report" data-testid="report" data-ready={results ? 'yes' : 'no'}>
@@ -83,7 +84,7 @@ export function Report() {
           </div>
           <div>
             <dt>Case last changed</dt>
-            <dd>{new Date(c.modified).toLocaleString()}</dd>
+            <dd>{dateTimeText(c.modified)}</dd>
           </div>
           <div>
             <dt>App</dt>
@@ -134,7 +135,7 @@ export function Report() {
                   <tr key={r.id}>
                     <th scope="row">
                       {r.name}
-                      <small> ({r.kind})</small>
+                      <small> ({kindText(r.kind)})</small>
                     </th>
                     <td>{fmtLength(r.distance)}</td>
                     <td>

@@ -3,16 +3,46 @@
  * contours, the release (point and footprint), the receptors with their names, the flow arrow,
  * a scale bar and north. Drawn in local metres east/north of the datum (the geographic frame's
  * tangent plane), north up, one scale in both directions. The basemap is not printed: tiles may
- * be missing offline and their terms differ by server.
+ * be missing offline and their terms differ by server. The release and receptors are the map's
+ * own symbols (map/markShapes.ts), each receptor filled with its status colour as on the map;
+ * names sit beside their mark on whichever side keeps them inside the plan; a legend under it
+ * shows each symbol, colour and band used.
  */
 import type { Case } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import type { PreparedCase } from '../../case/prepare';
+import type { ReceptorKind } from '../../case/schema';
 import { plumeGeoJSON, type Evaluation } from '../results';
+import { RECEPTOR_SHAPES, SOURCE_SHAPE } from '../map/markShapes';
+import { kindText } from '../../case/receptorKinds';
+import { statusText } from '../../core/results';
+import { fmtTime } from '../format';
 
 const W = 680;
 const H = 420;
 const PAD = 36;
+
+/** the marks drawn at this scale of their 32-unit box */
+const MARK = 0.7;
+/** name labels: 13 px bold, about this wide per character (a generous estimate, so a label never runs off) */
+const CHAR_W = 8;
+const LABEL_MAX = 30;
+
+/**
+ * Where a mark's name goes: right of the mark, or left of it when that would run past the plan's
+ * edge; above the mark, or below it near the top. Names longer than LABEL_MAX characters are cut short.
+ */
+export function labelPlace(x: number, y: number, name: string, width = W, height = H): { x: number; y: number; anchor: 'start' | 'end'; text: string } {
+  const text = name.length > LABEL_MAX ? `${name.slice(0, LABEL_MAX - 1)}…` : name;
+  const w = text.length * CHAR_W;
+  const gap = 16 * MARK + 3;
+  const right = x + gap + w <= width - 4;
+  const left = x - gap - w >= 4;
+  const anchor = right || !left ? 'start' : 'end';
+  const lx = anchor === 'start' ? Math.min(x + gap, Math.max(4, width - 4 - w)) : x - gap;
+  const ly = y - 10 < 14 ? y + 22 : y - 8;
+  return { x: lx, y: Math.min(ly, height - 6), anchor, text };
+}
 
 function niceLength(target: number): number {
   const p = 10 ** Math.floor(Math.log10(target));
@@ -28,7 +58,8 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
   pts.push(src);
   const foot = c.site.source.footprint?.map(en) ?? null;
   if (foot) pts.push(...foot);
-  const recs = c.site.receptors.map((r) => ({ name: r.name, p: en(r.position), id: r.id }));
+  const statusOf = new Map(results?.receptors.map((r) => [r.id, r.status]) ?? []);
+  const recs = c.site.receptors.map((r) => ({ name: r.name, p: en(r.position), id: r.id, kind: r.kind, status: statusOf.get(r.id) ?? null }));
   pts.push(...recs.map((r) => r.p));
   const bands = (results?.plume ? plumeGeoJSON(results.plume).features : []).map((f) => ({
     threshold: f.properties.threshold,
@@ -80,15 +111,20 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
             <line x1={X(arrow[0][0])} y1={Y(arrow[0][1])} x2={X(arrow[1][0])} y2={Y(arrow[1][1])} marker-end="url(#dg-plan-head)" />
           </g>
         )}
-        <rect x={X(src[0]) - 5} y={Y(src[1]) - 5} width="10" height="10" class="dg-plan-source" />
-        {recs.map((r) => (
-          <g key={r.id} class="dg-plan-rec">
-            <circle cx={X(r.p[0])} cy={Y(r.p[1])} r="6" />
-            <text x={X(r.p[0]) + 9} y={Y(r.p[1]) - 8}>
-              {r.name}
-            </text>
-          </g>
-        ))}
+        <g class="dg-plan-source" transform={`translate(${X(src[0]).toFixed(1)} ${Y(src[1]).toFixed(1)}) scale(${MARK})`} dangerouslySetInnerHTML={{ __html: SOURCE_SHAPE }} />
+        {recs.map((r) => {
+          const x = X(r.p[0]);
+          const y = Y(r.p[1]);
+          const l = labelPlace(x, y, r.name);
+          return (
+            <g key={r.id} class={`dg-plan-rec${r.status ? ` dg-status-${r.status}` : ''}`} data-status={r.status ?? undefined}>
+              <g transform={`translate(${x.toFixed(1)} ${y.toFixed(1)}) scale(${MARK})`} dangerouslySetInnerHTML={{ __html: RECEPTOR_SHAPES[r.kind] }} />
+              <text x={l.x.toFixed(1)} y={l.y.toFixed(1)} text-anchor={l.anchor} class="dg-plan-label">
+                {l.text}
+              </text>
+            </g>
+          );
+        })}
         <g class="dg-plan-scale" transform={`translate(${PAD} ${H - 18})`}>
           <line x1="0" y1="0" x2={bar * s} y2="0" />
           <line x1="0" y1="-5" x2="0" y2="5" />
@@ -104,10 +140,79 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
           </text>
         </g>
       </svg>
+      <PlanKey kinds={[...new Set(recs.map((r) => r.kind))]} statuses={[...new Set(recs.map((r) => r.status).filter((x) => x !== null))]} bands={bands.length} multiples={limit ? bands.slice(1).map((b) => Math.round(b.threshold / limit)) : []} flow={!!arrow} />
       <figcaption>
-        Site plan{results?.plume ? `, contours at ${Number.isFinite(results.plume.time) ? `${Number((results.plume.time / 365.25).toPrecision(3))} yr` : 'steady state'}` : ''}: the outer line is the
-        limit; inner bands are multiples of it. ■ release · ● receptor · arrow: groundwater flow. North up; basemap not printed.
+        Site plan{results?.plume ? `, contours ${Number.isFinite(results.plume.time) ? `after ${fmtTime(results.plume.time)}` : 'at steady state'}` : ''}: the outer line is the limit; inner bands are
+        multiples of it. North up; basemap not printed.
       </figcaption>
     </figure>
+  );
+}
+
+/** One symbol of the legend, drawn as on the plan. */
+function KeySymbol({ children }: { children: preact.ComponentChildren }) {
+  return (
+    <svg viewBox="-16 -16 32 32" width="20" height="20" aria-hidden="true">
+      {children}
+    </svg>
+  );
+}
+
+const STATUS_ORDER = ['reaches-limit', 'not-reached-in-horizon', 'below-limit'];
+
+/** The plan's legend: the release, each kind of receptor and status colour present, the bands and the flow arrow. */
+function PlanKey({ kinds, statuses, bands, multiples, flow }: { kinds: ReceptorKind[]; statuses: string[]; bands: number; multiples: number[]; flow: boolean }) {
+  return (
+    <ul class="dg-plan-key" data-testid="site-plan-key">
+      <li data-key="release">
+        <KeySymbol>
+          <g class="dg-plan-source" dangerouslySetInnerHTML={{ __html: SOURCE_SHAPE }} />
+        </KeySymbol>
+        release
+      </li>
+      {kinds.map((k) => (
+        <li key={k} data-key={`kind-${k}`}>
+          <KeySymbol>
+            <g class="dg-plan-rec" dangerouslySetInnerHTML={{ __html: RECEPTOR_SHAPES[k] }} />
+          </KeySymbol>
+          {kindText(k)}
+        </li>
+      ))}
+      {STATUS_ORDER.filter((st) => statuses.includes(st)).map((st) => (
+        <li key={st} data-key={`status-${st}`}>
+          <KeySymbol>
+            <g class={`dg-plan-rec dg-status-${st}`}>
+              <circle r="11" class="dg-plan-status-swatch" />
+            </g>
+          </KeySymbol>
+          {statusText(st)}
+        </li>
+      ))}
+      {bands > 0 && (
+        <li data-key="band-limit">
+          <KeySymbol>
+            <rect x="-13" y="-9" width="26" height="18" class="dg-plan-band is-limit" />
+          </KeySymbol>
+          above the limit
+        </li>
+      )}
+      {multiples.length > 0 && (
+        <li data-key="band-multiple">
+          <KeySymbol>
+            <rect x="-13" y="-9" width="26" height="18" class="dg-plan-band" />
+          </KeySymbol>
+          above {multiples.map((m) => `${m}×`).join(', ')} the limit
+        </li>
+      )}
+      {flow && (
+        <li data-key="flow">
+          <KeySymbol>
+            <path d="M-13 0H7" class="dg-plan-key-arrow" />
+            <path d="M4 -6L13 0L4 6Z" class="dg-plan-key-head" />
+          </KeySymbol>
+          groundwater flow
+        </li>
+      )}
+    </ul>
   );
 }

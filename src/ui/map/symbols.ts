@@ -5,6 +5,7 @@
  */
 import * as L from 'leaflet';
 import type { ReceptorKind } from '../../case/schema';
+import { halo, RECEPTOR_SHAPES, SOURCE_SHAPE } from './markShapes';
 
 const TARGET = 44;
 
@@ -22,38 +23,14 @@ export function escapeHtml(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
-const halo = 'stroke="var(--mark-halo)" stroke-width="6" paint-order="stroke"';
-
-/** The release: a filled hexagon with a centre dot. */
+/** The release: a filled hexagon with a centre dot (markShapes.ts). */
 export function sourceIcon(): L.DivIcon {
-  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">
-    <polygon points="0,-13 11.3,-6.5 11.3,6.5 0,13 -11.3,6.5 -11.3,-6.5" fill="var(--mark-source)" ${halo}/>
-    <polygon points="0,-13 11.3,-6.5 11.3,6.5 0,13 -11.3,6.5 -11.3,-6.5" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
-    <circle r="3.5" fill="var(--mark-ink)"/></svg>`;
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">${SOURCE_SHAPE}</svg>`;
   return icon(svg, 'dg-mark-source', 'Release');
 }
 
-const receptorShapes: Record<ReceptorKind, string> = {
-  // a well: ring with a cross (the casing seen from above)
-  well: `<circle r="10" fill="var(--mark-receptor)" ${halo}/><circle r="10" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
-    <path d="M-10 0H10M0 -10V10" stroke="var(--mark-ink)" stroke-width="2"/>`,
-  // a spring: a teardrop
-  spring: `<path d="M0 -12 C7 -3 10 2 10 5 A10 10 0 0 1 -10 5 C-10 2 -7 -3 0 -12Z" fill="var(--mark-receptor)" ${halo}/>
-    <path d="M0 -12 C7 -3 10 2 10 5 A10 10 0 0 1 -10 5 C-10 2 -7 -3 0 -12Z" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>`,
-  // surface water: a square with two waves
-  'surface-water': `<rect x="-11" y="-11" width="22" height="22" rx="3" fill="var(--mark-receptor)" ${halo}/>
-    <rect x="-11" y="-11" width="22" height="22" rx="3" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>
-    <path d="M-7 -2q3.5 -4 7 0t7 0M-7 5q3.5 -4 7 0t7 0" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>`,
-  // a property line point: a flag on a post
-  'property-line': `<path d="M-8 12V-12H9L4 -6L9 0H-8" fill="var(--mark-receptor)" ${halo}/>
-    <path d="M-8 12V-12H9L4 -6L9 0H-8" fill="none" stroke="var(--mark-ink)" stroke-width="2" stroke-linejoin="round"/>`,
-  // anything else: a diamond
-  other: `<path d="M0 -12L12 0L0 12L-12 0Z" fill="var(--mark-receptor)" ${halo}/>
-    <path d="M0 -12L12 0L0 12L-12 0Z" fill="none" stroke="var(--mark-ink)" stroke-width="2"/>`,
-};
-
 export function receptorIcon(kind: ReceptorKind, name: string, status: string | null, selected: boolean): L.DivIcon {
-  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">${receptorShapes[kind]}</svg>`;
+  const svg = `<svg viewBox="-16 -16 32 32" width="32" height="32" aria-hidden="true">${RECEPTOR_SHAPES[kind]}</svg>`;
   return icon(svg, `dg-mark-receptor${status ? ' dg-status-' + status : ''}${selected ? ' dg-selected' : ''}`, name, name);
 }
 

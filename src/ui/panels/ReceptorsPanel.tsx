@@ -1,5 +1,7 @@
 /** What is at risk: the limit that governs, the time horizon, and the receptors on the map. */
 import { Section } from './Section';
+import { fmtTime } from '../format';
+import { toInternal } from '../../core/units';
 import { currentCase, updateCase } from '../state';
 import { QuantityField, NumberField, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId, lastDeleted } from '../view';
@@ -32,7 +34,7 @@ export function ReceptorsPanel() {
   const c = currentCase.value;
   const k = c.contaminant;
   const n = c.site.receptors.length;
-  const summary = `${n} receptor${n === 1 ? '' : 's'}; limit ${fmtNum(k.limit.value)} ${unitLabel(k.limit.unit)} (your local limit governs); horizon ${fmtNum(c.evaluation.horizon.value)} ${unitLabel(c.evaluation.horizon.unit)}`;
+  const summary = `${n} receptor${n === 1 ? '' : 's'}; limit ${fmtNum(k.limit.value)} ${unitLabel(k.limit.unit)} (your local limit governs); horizon ${fmtTime(toInternal(c.evaluation.horizon.value, c.evaluation.horizon.unit))}`; // in the screen's time unit
   return (
     <Section id="risk" title="What is at risk?" summary={summary}>
       <QuantityField
