@@ -10,6 +10,7 @@ import type { Browser, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
 import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
 import { axe } from './axe-helpers';
+import { openFiles } from './offline-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { screenCase } from '../../src/case/screen';
 import { runCaseParticles } from '../../src/case/particles';
@@ -116,6 +117,17 @@ describe('pumping wells: capture zones and particles', () => {
     await page.screenshot({ path: artifactPath('wells-panel-1024x768.png') });
     const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
     expect(findings).toEqual([]);
+    // the printed report carries the well field and the particle figures with their seed and errors
+    await openFiles(page);
+    await page.getByTestId('open-report').click();
+    const report = page.locator('[data-testid=report-wells]');
+    await report.waitFor({ timeout: 30_000 });
+    await expect(report.innerText()).resolves.toMatch(/4000 particles, seed 7/);
+    await expect(report.innerText()).resolves.toMatch(/--method particles --particles 4000 --seed 7/);
+    await expect(report.innerText()).resolves.toMatch(/±/);
+    await expect(report.innerText()).resolves.toMatch(/fully penetrating/);
+    await report.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('wells-report-1024x768.png') });
     expect(errors).toEqual([]);
     await close();
   });

@@ -20,6 +20,7 @@ import { inputRows } from './reportInputs';
 import { SitePlan } from './SitePlan';
 import { ReportObservations } from './ReportObservations';
 import { ReportUncertainty } from './ReportUncertainty';
+import { ReportWells } from './ReportWells';
 import { APP_VERSION } from './version';
 import { reportOpen } from './reportOpen';
 import '../print.css';
@@ -198,6 +199,7 @@ export function Report() {
 
       <ReportObservations c={c} prepared={prepared} />
       <ReportUncertainty c={c} />
+      <ReportWells c={c} results={results} />
 
       <section class="dg-report-section">
         <h2>Inputs and their sources</h2>
