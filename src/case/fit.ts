@@ -24,11 +24,12 @@ import { screenAverage } from '../core/results';
 import { fromInternal, toInternal } from '../core/units';
 import { levenbergMarquardt } from '../core/fit/levenbergMarquardt';
 import { ValidationError } from '../core/validation';
-import { normalCdf, normalQuantile } from '../core/uncertainty/normal';
+import { normalCdf } from '../core/uncertainty/normal';
 
 const normalPdf = (z: number) => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
 import type { Case, UncertainInput, UncertainValue } from './schema';
 import type { ObservationSummary } from './observations';
+import { distributionFromEstimate } from './uncertainty';
 import { prepareCase, type PreparedCase } from './prepare';
 import { comparedAnalyte, dayNumber, resultMgL, wellSeries } from './monitoring';
 
@@ -61,6 +62,8 @@ export interface FittedValue {
   readonly start: number;
   readonly value: number;
   readonly interval: readonly [number, number] | null;
+  /** linearised standard error in the same units (delta method for the log-fitted ones: value × SE of ln), null with the interval */
+  readonly standardError: number | null;
 }
 
 export interface FitResult {
@@ -234,7 +237,9 @@ export function fitCase(c: Case, chosen: readonly FitParameter[], confidence = 0
     const widened = iv && ([th - (th - iv[0]) * scale, th + (iv[1] - th) * scale] as const);
     const back = (t: number) => (q.log ? Math.exp(t) : t);
     const value = back(th);
+    const se = fit.stdErrors[i];
     return {
+      standardError: se === null || !iv ? null : (q.log ? value : 1) * se * scale,
       parameter: q.name,
       start: q.name === 'flowDirection' ? p.derived.azimuthDeg : q.start,
       value: q.name === 'flowDirection' ? p.derived.azimuthDeg + value : value,
@@ -290,32 +295,27 @@ function markVariant(v: Case, c: Case, newId: string, now: string, suffix: strin
 const endPercentile = (confidence: number) => round(50 * (1 - confidence), 6);
 
 /**
- * The fitted values' intervals as distributions of the uncertain inputs (src/case/uncertainty.ts
- * reads them), centred on the fitted values, in the units the case uses: the positive parameters,
- * fitted as logarithms, as log-normal distributions whose 2.5th and 97.5th percentiles are the
- * interval's ends (for a 95 % interval); the longitudinal dispersivity as the dispersivity factor
- * about the fitted value (αT and αV follow in proportion); the flow direction as a normal
- * distribution with sd = half the interval / z(97.5 %). Values without an interval are left out.
- * The linearised intervals carry the data's scatter only (fitLines says so), so these spreads are a
- * lower bound on the uncertainty of each input.
+ * The fitted values as distributions of the uncertain inputs (src/case/uncertainty.ts reads them),
+ * each from its estimate and linearised standard error by `distributionFromEstimate` (the one rule:
+ * log-normal about the estimate with ln gsd = SE/estimate, normal for the flow direction), in the
+ * units the case uses; the longitudinal dispersivity as the dispersivity factor about the fitted
+ * value (estimate 1, αT and αV follow in proportion). Values without a standard error are left
+ * out. The errors carry the data's scatter only (fitLines says so), so these spreads are a lower
+ * bound on the uncertainty of each input.
  */
 export function fitDistributions(c: Case, fit: FitResult): Partial<Record<UncertainInput, UncertainValue>> {
   const out: Partial<Record<UncertainInput, UncertainValue>> = {};
-  const pct = endPercentile(fit.confidence);
-  const note = () => `fitted to the monitoring data: ${round(fit.confidence * 100, 3)} % interval of the fit (the data's scatter only)`;
+  const note = 'fitted to the monitoring data: linearised standard error of the fit (the data\'s scatter only)';
   for (const f of fit.values) {
-    if (!f.interval) continue;
-    const [lo, hi] = f.interval;
+    const se = f.standardError;
+    if (se === null || !(se > 0)) continue;
     if (f.parameter === 'sourceConcentration' || f.parameter === 'halfLife') {
-      if (!(lo > 0 && hi > lo)) continue;
       const unit = f.parameter === 'sourceConcentration' ? c.source.concentration.unit : (c.contaminant.halfLife?.unit ?? 'yr');
-      out[f.parameter] = { kind: 'lognormal-range', low: round(fromInternal(lo, unit)), high: round(fromInternal(hi, unit)), percentile: pct, unit, note: note() };
+      out[f.parameter] = distributionFromEstimate(f.parameter, round(fromInternal(f.value, unit)), round(fromInternal(se, unit)), unit, note);
     } else if (f.parameter === 'longitudinalDispersivity') {
-      if (!(lo > 0 && hi > lo)) continue;
-      out.dispersivityFactor = { kind: 'lognormal-range', low: round(lo / f.value), high: round(hi / f.value), percentile: pct, note: note() };
+      out.dispersivityFactor = distributionFromEstimate('dispersivityFactor', 1, round(se / f.value), undefined, note);
     } else {
-      const z = normalQuantile(1 - pct / 100);
-      out.flowDirection = { kind: 'normal', mean: round(((f.value % 360) + 360) % 360, 5), sd: round((hi - lo) / (2 * z)), note: note() };
+      out.flowDirection = distributionFromEstimate('flowDirection', round(((f.value % 360) + 360) % 360, 5), round(se), undefined, note);
     }
   }
   return out;
@@ -324,8 +324,8 @@ export function fitDistributions(c: Case, fit: FitResult): Partial<Record<Uncert
 /**
  * The case with the fitted values, as a what-if variant: a new id, the case as parent, a name and
  * note that say what was fitted. Values are written in the units the case already uses. With
- * `withIntervals`, the fitted values' intervals also become the variant's uncertain inputs
- * (fitDistributions), replacing any the case gave those inputs, and the note says so.
+ * `withIntervals`, the fitted values with their standard errors also become the variant's
+ * uncertain inputs (fitDistributions), replacing any the case gave those inputs, and the note says so.
  */
 export function adoptFitAsVariant(c: Case, fit: FitResult, newId: string, now: string, withIntervals = false): Case {
   const v: Case = structuredClone(c);
@@ -355,7 +355,7 @@ export function adoptFitAsVariant(c: Case, fit: FitResult, newId: string, now: s
     const dist = fitDistributions(c, fit);
     const names = Object.keys(dist) as UncertainInput[];
     for (const k of names) v.uncertainty.inputs[k] = dist[k];
-    if (names.length) lines.push(`Uncertain inputs from the fit's intervals (a lower bound on their uncertainty): ${names.join(', ')}.`);
+    if (names.length) lines.push(`Uncertain inputs from the fit's standard errors (a lower bound on their uncertainty): ${names.join(', ')}.`);
   }
   return markVariant(v, c, newId, now, 'fitted to monitoring data', [
     `Fitted to ${fit.detected} detected results and ${fit.nonDetects} below the reporting limit on ${now.slice(0, 10)} ` +

@@ -125,28 +125,32 @@ describe('fitted values into the case: variants and uncertain inputs', () => {
   // (exp of the mean of the ends' logarithms); z(0.975) = 1.959964 (standard normal table).
   const depotCase = (): Case => migrateCase(JSON.parse(readFileSync('cases/depot-benzene-monitoring.json', 'utf8')));
 
-  it('the intervals become distributions centred on the fitted values, which a Monte Carlo run accepts', () => {
+  it('the fitted values become distributions about them (distributionFromEstimate), which a Monte Carlo run accepts', () => {
     const c = depotCase();
     const fit = fitCase(c, ['sourceConcentration', 'halfLife', 'longitudinalDispersivity', 'flowDirection']);
     const d = fitDistributions(c, fit);
     const byName = Object.fromEntries(fit.values.map((v) => [v.parameter, v]));
     const c0 = d.sourceConcentration!;
-    expect(c0).toMatchObject({ kind: 'lognormal-range', percentile: 2.5, unit: c.source.concentration.unit });
-    if (c0.kind !== 'lognormal-range') return;
-    expect(Math.sqrt(c0.low * c0.high)).toBeCloseTo(fromInternal(byName.sourceConcentration.value, c0.unit!), 2);
+    if (c0.kind !== 'lognormal') throw new Error('source concentration: expected a log-normal');
+    expect(c0.median / fromInternal(byName.sourceConcentration.value, c0.unit!)).toBeCloseTo(1, 3);
+    // the log-fitted interval is exp(ln value ± t·SE_ln): ln(hi/lo) / (2 ln gsd) is Student's t at 95 %
+    // for the fit's degrees of freedom (between z = 1.960 and t(30) = 2.042, statistical tables)
+    const [lo, hi] = byName.sourceConcentration.interval!;
+    const t = Math.log(hi / lo) / (2 * Math.log(c0.gsd));
+    expect(t).toBeGreaterThan(1.959);
+    expect(t).toBeLessThan(2.05);
     const hl = d.halfLife!;
-    if (hl.kind !== 'lognormal-range') throw new Error('half-life: expected a log-normal range');
-    expect(Math.sqrt(hl.low * hl.high) / fromInternal(byName.halfLife.value, hl.unit!)).toBeCloseTo(1, 3);
+    if (hl.kind !== 'lognormal') throw new Error('half-life: expected a log-normal');
+    expect(hl.median / fromInternal(byName.halfLife.value, hl.unit!)).toBeCloseTo(1, 3);
     const f = d.dispersivityFactor!;
-    if (f.kind !== 'lognormal-range') throw new Error('dispersivity: expected a log-normal range');
-    expect(Math.sqrt(f.low * f.high)).toBeCloseTo(1, 3);
+    if (f.kind !== 'lognormal') throw new Error('dispersivity: expected a log-normal');
+    expect(f.median).toBe(1);
     const dir = d.flowDirection!;
     if (dir.kind !== 'normal') throw new Error('direction: expected a normal distribution');
-    const iv = byName.flowDirection.interval!;
-    expect(dir.sd).toBeCloseTo((iv[1] - iv[0]) / (2 * 1.959964), 3);
+    expect(dir.sd).toBeCloseTo(byName.flowDirection.standardError!, 3);
     const v = adoptFitAsVariant(c, fit, 'v-1', '2026-01-02T00:00:00.000Z', true);
     expect(Object.keys(v.uncertainty.inputs).sort()).toEqual(['dispersivityFactor', 'flowDirection', 'halfLife', 'sourceConcentration']);
-    expect(v.notes).toMatch(/Uncertain inputs from the fit's intervals/);
+    expect(v.notes).toMatch(/Uncertain inputs from the fit's standard errors/);
     const plan = planUncertainty(v, { runs: 50, seed: 3 });
     expect(plan.inputs.length).toBe(4);
     expect(c.uncertainty.inputs).toEqual(depotCase().uncertainty.inputs); // the case itself unchanged

@@ -267,7 +267,7 @@ function FitStep() {
           ))}
           <label class="dg-check">
             <input type="checkbox" checked={withIntervals} data-testid="fit-with-intervals" onChange={(e) => setWithIntervals((e.target as HTMLInputElement).checked)} />
-            <span>Carry the {Math.round(current.confidence * 100)} % intervals into “How sure is it?” as distributions of these inputs</span>
+            <span>Carry the fitted values' standard errors into “How sure is it?” as distributions of these inputs (the data's scatter only: a lower bound)</span>
           </label>
           <div class="dg-btn-row">
             <button
