@@ -1,8 +1,10 @@
 /**
- * Schema problems in plain words: each zod issue becomes one line that names the case field
- * (e.g. "site.receptors[2].screenTop.unit") and what is accepted there.
+ * Schema problems in plain words: each zod issue becomes one line that names the case field as the
+ * screen labels it where the screen has it, with its place in the file (e.g. "Unit of screen top
+ * below water table of receptor 3 (site.receptors[2].screenTop.unit)"), and what is accepted there.
  */
 import type { z } from 'zod';
+import { CASE_FIELDS, fieldLabel, fieldPattern } from './fields';
 
 type Issue = z.core.$ZodIssue;
 type PathKey = PropertyKey;
@@ -15,6 +17,13 @@ export function fieldPath(path: readonly PathKey[]): string {
     else out += (out ? '.' : '') + String(k);
   }
   return out || '(the whole file)';
+}
+
+/** The field as the screen labels it, with its place in the file; the place alone for a field the screen does not show. */
+function named(path: readonly PathKey[]): string {
+  const at = fieldPath(path);
+  const shown = CASE_FIELDS[fieldPattern(at)] ?? (at.endsWith('.unit') ? CASE_FIELDS[fieldPattern(at.slice(0, -5))] : undefined);
+  return shown ? `${fieldLabel(at)} (${at})` : at;
 }
 
 function show(v: unknown): string {
@@ -51,7 +60,7 @@ function bound(issue: { origin?: string; inclusive?: boolean }, value: unknown, 
 
 function describe(issue: Issue, base: readonly PathKey[]): string[] {
   const path = [...base, ...issue.path];
-  const at = fieldPath(path);
+  const at = named(path);
   const input = (issue as { input?: unknown }).input;
   switch (issue.code) {
     case 'invalid_type': {

@@ -198,7 +198,7 @@ describe('versions and formats that cannot be read', () => {
     ['v1 both koc and kd', { ...minimalV1(), contaminant: { koc: 1, kd: 1, limit: 1 } }, /give either koc or kd/],
     ['v1 neither koc nor kd', { ...minimalV1(), contaminant: { limit: 1 } }, /give koc or kd \(L\/kg\), or a preset/],
     ['v1 unknown preset', { ...minimalV1(), contaminant: { preset: 'kryptonite', limit: 1 } }, /contaminant.preset: "kryptonite" is not a known preset; accepted values: "benzene"/],
-    ['v1 limit missing', { ...minimalV1(), contaminant: { koc: 1 } }, /contaminant.limit is missing: expected a number/],
+    ['v1 limit missing', { ...minimalV1(), contaminant: { koc: 1 } }, /Limit at the receptors \(contaminant\.limit\) is missing: expected a number/],
     ['v1 flow neither form', { ...minimalV1(), flow: { azimuth: 90 } }, /flow: does not match any accepted form/],
     ['v1 well position wrong', { ...minimalV1(), wells: [{ position: [1] }] }, /wells\[0\]\.position/],
   ];
