@@ -30,11 +30,13 @@ describe('unit system', () => {
     await page.screenshot({ path: artifactPath('units-us-landscape.png') });
     await units('SI');
     await expect.poll(() => unit.inputValue()).toBe('m');
-    expect(await thickness.inputValue()).toBe(typed);
-    // a field's own unit: m → ft → m through its selector, back exactly as typed
+    await expect.poll(() => thickness.inputValue()).toBe(typed);
+    // a field's own unit: m → ft → m through its selector, back exactly as typed (the field
+    // re-renders after the case edit: wait for it rather than read at once)
     await unit.selectOption('ft');
+    await expect.poll(() => thickness.inputValue()).not.toBe(typed);
     await unit.selectOption('m');
-    expect(await thickness.inputValue()).toBe(typed);
+    await expect.poll(() => thickness.inputValue()).toBe(typed);
     expect(w.pageErrors).toEqual([]);
     await context.close();
   });
