@@ -12,24 +12,14 @@
  */
 import type { Case, Quantity } from './schema';
 import { UNITS, convert, type Dimension } from '../core/units';
+import { INTERNAL_UNIT } from './fields';
 
 export type UnitSystem = 'SI' | 'US';
 
 /** The unit each dimension is shown in, per system (a field override or an SI unit typed in an SI case wins). */
 export const SYSTEM_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Dimension, string>>>> = {
-  SI: {
-    length: 'm',
-    time: 'd',
-    velocity: 'm/d',
-    conductivity: 'K:m/d',
-    concentration: 'mg/L',
-    density: 'g/cm3',
-    partition: 'L/kg',
-    diffusion: 'm2/d',
-    rate: '1/d',
-    flowRate: 'm3/d',
-    dimensionless: '-',
-  },
+  // SI shows each dimension in the engine's own unit
+  SI: INTERNAL_UNIT,
   US: {
     length: 'ft',
     time: 'd',

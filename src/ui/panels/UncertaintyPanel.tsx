@@ -8,6 +8,7 @@
  * The deterministic results stay live while a run goes on (the run is in its own workers).
  */
 import { Section } from './Section';
+import { RunProgress } from '../RunProgress';
 import { currentCase, updateCase } from '../state';
 import { arrivalPercentiles, intervalText, pc, peakPercentiles } from '../uncertaintyFormat';
 import { driverSentence, probabilisticCaution, type ReceptorUncertainty } from '../../case/uncertainty';
@@ -78,13 +79,7 @@ export function UncertaintyPanel() {
             )}
           </div>
           {run.status === 'running' && (
-            <div class="dg-mc-progress" role="status">
-              <progress max={run.runs} value={run.done} aria-label="Realisations done" />
-              <span>
-                {run.done} of {run.runs} realisations on {run.workers} worker{run.workers === 1 ? '' : 's'}
-                {run.secondsLeft !== null ? `, about ${Math.max(1, Math.round(run.secondsLeft))} s left` : ''}
-              </span>
-            </div>
+            <RunProgress done={run.done} total={run.runs} what="realisations" barLabel="Realisations done" workers={run.workers} secondsLeft={run.secondsLeft} />
           )}
           {run.status === 'failed' && run.error && (
             <p class="dg-field-error" role="alert">

@@ -9,6 +9,7 @@
  */
 import { useState } from 'preact/hooks';
 import { Section } from './Section';
+import { RunProgress } from '../RunProgress';
 import { currentCase, currentResults } from '../state';
 import { fmtConc, fmtLength, fmtTime } from '../format';
 import { fmtNum } from '../fields';
@@ -43,13 +44,7 @@ export function WellsPanel() {
       </p>
       <ParticleControls c={c} />
       {run.status === 'running' && (
-        <div class="dg-mc-progress" role="status" data-testid="particle-progress">
-          <progress max={run.particles} value={run.done} aria-label="Particles walked" />
-          <span>
-            {run.done.toLocaleString('en')} of {run.particles.toLocaleString('en')} particles on {run.workers} worker{run.workers === 1 ? '' : 's'}
-            {run.secondsLeft !== null ? `, about ${Math.max(1, Math.round(run.secondsLeft))} s left` : ''}
-          </span>
-        </div>
+        <RunProgress done={run.done} total={run.particles} what="particles" barLabel="Particles walked" workers={run.workers} secondsLeft={run.secondsLeft} testId="particle-progress" count={(n) => n.toLocaleString('en')} />
       )}
       {run.status === 'failed' && run.error && (
         <p class="dg-field-error" role="alert">
