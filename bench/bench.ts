@@ -12,7 +12,9 @@
  * each also as erf-times per cell (seconds per cell / seconds per erf call). Beside them the same
  * grids evaluated by bench/numpy_grids.py (vectorised numpy/scipy, run as a child process) and the
  * ratio JS/numpy, with the agreement of the JS grids with numpy's and numpy's own accuracy check.
- * Then the contour pipeline (bench/contourPipeline.ts). Targets are printed with whether they are met.
+ * Then the contour pipeline (bench/contourPipeline.ts), the Monte Carlo screening (bench/monteCarlo.ts)
+ * and the particle walk (bench/particles.ts), each beside its numpy peer. Targets are printed with
+ * whether they are met.
  * Beside the contract grid (a fresh result array per call) the mirrored Domenico grid is also timed
  * into a reused buffer, as the app's plume worker computes it, so the cost of the allocation shows.
  * The lateral rows of evenly spaced y values come from the lattice error function (src/core/lattice).
@@ -26,7 +28,8 @@
  * The header line "allocator" says which settings a run had.
  * Options: --no-numpy (JS figures only), --python <command>
  * (python3 by default), --json <file> (also write every figure as JSON), --only montecarlo (the
- * Monte Carlo section alone, with its numpy peer: `npm run bench:engine -- --only montecarlo`).
+ * Monte Carlo section alone, with its numpy peer: `npm run bench:engine -- --only montecarlo`;
+ * --only particles: the particle walk alone, with its numpy peer, bench/particles.ts).
  * Nothing here asserts on time; tests never do.
  */
 import { cpus, loadavg } from 'node:os';
@@ -40,6 +43,7 @@ import { ratio, sci, seconds, si, table, targetTable, type Target } from './repo
 import { AX, AY, AZ, DECAY, R, T, THICKNESS, V, WIDTH, Z, benchModel, benchTimes, benchWells, gridXs, gridYs } from './scenario';
 import { measureContourPipeline } from './contourPipeline';
 import { measureMonteCarlo } from './monteCarlo';
+import { measureParticles } from './particles';
 import { relativeGrid } from '../src/core/transport';
 
 const REL_TOL = 1e-6;
@@ -100,6 +104,10 @@ async function main(): Promise<void> {
 
   if (argValue('--only') === 'montecarlo') {
     console.log(targetTable(await measureMonteCarlo({ withNumpy, python: argValue('--python') ?? 'python3' })));
+    return;
+  }
+  if (argValue('--only') === 'particles') {
+    console.log(targetTable(await measureParticles({ withNumpy, python: argValue('--python') ?? 'python3' })));
     return;
   }
 
@@ -293,6 +301,8 @@ async function main(): Promise<void> {
   ];
   targets.push(...(await measureMonteCarlo({ withNumpy, python: argValue('--python') ?? 'python3' })));
   phase('Monte Carlo');
+  targets.push(...(await measureParticles({ withNumpy, python: argValue('--python') ?? 'python3' })));
+  phase('particles');
   console.log('');
   console.log(targetTable(targets));
 

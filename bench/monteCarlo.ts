@@ -10,7 +10,7 @@
  * property line and a ditch, invented positions). The JS and numpy repetitions alternate in rounds
  * and the ratio is the median of per-round ratios. Nothing here asserts on time.
  */
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { cpus } from 'node:os';
@@ -19,6 +19,7 @@ import { parseCaseFile } from '../src/case/io';
 import type { Case } from '../src/case/schema';
 import { designOf, joinBlocks, planUncertainty, realisationModel, realisationValues, runRealisations, type RealisationBlock } from '../src/case/uncertainty';
 import { median } from './timing';
+import { startWorkers } from './workers';
 import { ratio, seconds, si, table, type Target } from './report';
 
 const root = (p: string) => fileURLToPath(new URL(`../${p}`, import.meta.url));
@@ -72,19 +73,7 @@ function timeSingle(c: Case, runs: number, reps: number): { perSecond: number; e
 class Pool {
   private constructor(private readonly workers: Worker[]) {}
   static async start(n: number, text: string, runs: number, seed: number): Promise<Pool> {
-    const url = new URL('./bench-mc-worker.mjs', import.meta.url);
-    const workers = Array.from({ length: n }, () => new Worker(url));
-    await Promise.all(
-      workers.map(
-        (w) =>
-          new Promise<void>((resolve, reject) => {
-            w.once('message', () => resolve());
-            w.once('error', reject);
-            w.postMessage({ type: 'init', text, runs, seed });
-          }),
-      ),
-    );
-    return new Pool(workers);
+    return new Pool(await startWorkers('bench-mc-worker.mjs', n, { type: 'init', text, runs, seed }));
   }
   /** realisations [0, runs) split in equal ranges over the first `use` workers; wall-clock seconds */
   async run(runs: number, use: number): Promise<{ seconds: number; blocks: RealisationBlock[] }> {

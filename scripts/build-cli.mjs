@@ -4,11 +4,11 @@ import { build } from 'esbuild';
 import { existsSync } from 'node:fs';
 
 const quiet = process.argv.includes('--quiet');
-const entries = { screen: 'src/cli/screen.ts', bench: 'bench/bench.ts', 'bench-mc-worker': 'bench/mcWorker.ts' };
+const entries = { screen: 'src/cli/screen.ts', bench: 'bench/bench.ts', 'bench-mc-worker': 'bench/mcWorker.ts', 'bench-particle-worker': 'bench/particleWorker.ts' };
 const k = process.argv.indexOf('--only');
 const only = k >= 0 ? process.argv[k + 1] : null;
 const entryPoints = Object.fromEntries(
-  Object.entries(entries).filter(([name, p]) => existsSync(p) && (only === null || name === only || (only === 'bench' && name === 'bench-mc-worker'))),
+  Object.entries(entries).filter(([name, p]) => existsSync(p) && (only === null || name === only || (only === 'bench' && name.startsWith('bench-')))),
 );
 
 await build({

@@ -37,6 +37,18 @@ import type { CaseWells } from './wells';
 
 export const OUTPUT_TIMES = 100;
 export const DEFAULT_PARTICLES = 20_000;
+/** particles per interleaved subset handed to a worker (about 30–50 ms of work on the demo cases) */
+export const PARTICLE_SUBSET = 2000;
+
+/**
+ * The number of interleaved subsets a run of N particles is split into (subset `offset` walks
+ * particles offset, offset + stride, …; walk.ts walkParticles): each spans the whole release
+ * period, so the particles walked after any number of subsets give an unbiased picture of the
+ * run (core scaledTally).
+ */
+export function subsetStride(particles: number): number {
+  return Math.max(1, Math.ceil(particles / PARTICLE_SUBSET));
+}
 
 export interface ParticleFigures {
   readonly method: 'particles';

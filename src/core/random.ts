@@ -12,7 +12,7 @@
  * Purposes in use (add new ones here so no two uses share a stream):
  *   1  Latin hypercube: stratum permutation of one input        (a = input, b = runs)
  *   2  Latin hypercube: position within the stratum             (a = input, b = realisation)
- *   3  particle walk: seeds particle j's own stream (a = j mod 2^32, b = ⌊j / 2^32⌋; particles/walk.ts)
+ *   3  particle walk: seeds particle j's own stream (a = j mod 2^32, b = ⌊j / 2^32⌋; particles/stream.ts)
  *   4–15 free
  *
  * Doubles: two per block, each from 53 bits, (k + ½)·2⁻⁵³ for k in [0, 2⁵³), so every value

@@ -13,7 +13,7 @@ import { effect } from '@preact/signals';
 import type { Case } from '../case/schema';
 import { prepareCase } from '../case/prepare';
 import { prepareCaseWells } from '../case/wells';
-import { caseWalk, particleDensity, particleFigures, particleGrid } from '../case/particles';
+import { caseWalk, particleDensity, particleFigures, particleGrid, subsetStride } from '../case/particles';
 import { emptyTally, mergeTally, scaledTally, toInternal, type PreparedWalk, type WalkTally } from '../core';
 import { contourBands, packContours } from '../geo/contours';
 import { bandThresholds } from '../worker/compute';
@@ -21,9 +21,6 @@ import type { ParticleReply, ParticleRequest } from '../worker/particles';
 import { IDLE_PARTICLES, particleCaseKey, particleLayer, particleRun, type ParticleRunState } from './particleState';
 import { currentCase } from './state';
 import { playTime } from './view';
-
-/** particles per subset handed to a worker (about 50 ms of work on the demo case) */
-const SUBSET = 2000;
 
 let active: { cancel: () => void } | null = null;
 /** the latest run's walk and tally (for the density layer at another time) */
@@ -46,7 +43,7 @@ export function startParticles(c: Case, particles: number, seed: number): void {
   }
   const { walk, pumpingReceptors } = plan;
   const N = walk.input.particles;
-  const stride = Math.max(1, Math.ceil(N / SUBSET));
+  const stride = subsetStride(N);
   const n = Math.max(1, Math.min(4, navigator.hardwareConcurrency || 2, stride));
   const caseKey = particleCaseKey(c);
   const startedAt = performance.now();

@@ -36,16 +36,13 @@
  * Concentration in a pumping well's water: the captured mass per interval / (Q · interval), with
  * the standard error √(Σ m_i²)/(Q · interval).
  *
- * Reproducible: particle j draws from its own stream, xoshiro128** (Blackman & Vigna 2021, ACM
- * TOMS 47(4)) seeded with the Philox block (seed, purpose 3, j) (random.ts); the result does not
+ * Reproducible: particle j draws from its own stream (stream.ts: xoshiro128** seeded with the
+ * Philox block (seed, purpose 3, j), normal deviates by the ziggurat method); the result does not
  * depend on how particles are split across workers (sums in another order differ by round-off).
- * Normal deviates by Marsaglia's polar method (Marsaglia & Bray 1964, SIAM Review 6(3)).
  */
-import { philox4x32 } from '../random';
+import { ParticleStream } from './stream';
 import { insideAquifer, lineDistance, velocityGradient, type FlowField, type VelocityGradient } from '../flow/field';
 import { ValidationError, requireInRange, requireNonNegative, requirePositive, requireTime } from '../validation';
-
-export const PARTICLE_PURPOSE = 3;
 
 export interface WalkSource {
   /** source width across the flow (m), centred on y = 0 at x = 0 */
@@ -260,67 +257,6 @@ export function mergeTally(into: WalkTally, t: WalkTally): void {
   into.particlesDone += t.particlesDone;
 }
 
-/** xoshiro128** state seeded from one Philox block; next() gives a double in (0, 1). */
-class ParticleStream {
-  private s0 = 0;
-  private s1 = 0;
-  private s2 = 0;
-  private s3 = 0;
-  private spare = 0;
-  private hasSpare = false;
-  private readonly block = new Uint32Array(4);
-  constructor(private readonly seed: number) {}
-
-  reset(j: number): void {
-    philox4x32(0, j >>> 0, Math.floor(j / 4294967296) >>> 0, PARTICLE_PURPOSE, this.seed % 4294967296 >>> 0, Math.floor(this.seed / 4294967296) >>> 0, this.block);
-    this.s0 = this.block[0];
-    this.s1 = this.block[1];
-    this.s2 = this.block[2];
-    this.s3 = this.block[3] | 1; // never the all-zero state
-    this.hasSpare = false;
-  }
-
-  private u32(): number {
-    const result = Math.imul(rotl(Math.imul(this.s1, 5), 7), 9) >>> 0;
-    const t = this.s1 << 9;
-    this.s2 ^= this.s0;
-    this.s3 ^= this.s1;
-    this.s1 ^= this.s2;
-    this.s0 ^= this.s3;
-    this.s2 ^= t;
-    this.s3 = rotl(this.s3, 11);
-    return result;
-  }
-
-  /** (0, 1) from 53 bits */
-  next(): number {
-    const hi = this.u32() >>> 5;
-    const lo = this.u32() >>> 6;
-    return (hi * 67108864 + lo + 0.5) * 1.1102230246251565e-16;
-  }
-
-  normal(): number {
-    if (this.hasSpare) {
-      this.hasSpare = false;
-      return this.spare;
-    }
-    for (;;) {
-      const a = 2 * this.next() - 1;
-      const b = 2 * this.next() - 1;
-      const s = a * a + b * b;
-      if (s >= 1 || s === 0) continue;
-      const m = Math.sqrt((-2 * Math.log(s)) / s);
-      this.spare = b * m;
-      this.hasSpare = true;
-      return a * m;
-    }
-  }
-}
-
-function rotl(x: number, k: number): number {
-  return (x << k) | (x >>> (32 - k));
-}
-
 const MAX_STEPS_PER_PARTICLE = 200_000;
 
 /**
@@ -360,7 +296,11 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
   const onPosition = inp.onPosition;
   const active = p.activeEnd;
   const massScale = src.c0 * src.thickness * src.width * (active / N);
+  const invR = 1 / R;
+  // decay over each output interval, e^{−λ'(t_k − t_{k−1})}, for the mass at successive output times
+  const decayOver = times.map((tk, k) => (k === 0 ? 1 : Math.exp(-lam * (tk - times[k - 1]))));
   let done = 0;
+  let moves = 0;
   for (let j = j0; j < j1; j += stride) {
     if ((done & 255) === 0 && done > 0 && shouldStop?.()) break;
     done++;
@@ -391,19 +331,21 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
     while (k < nt && times[k] <= t) k++;
     let fate = 0; // 0 in aquifer, 1 captured, 2 outflow, 3 stalled
     let steps = 0;
+    let mRecorded = -1;
     while (k < nt) {
       // record at output time k when reached
       velocityGradient(f, x, y, g);
-      const ux = g.vx / R;
-      const uy = g.vy / R;
+      const ux = g.vx * invR;
+      const uy = g.vy * invR;
       const sp = Math.sqrt(ux * ux + uy * uy);
       let dt = times[k] - t;
-      const gx = g.dxx / R;
-      const gxy = g.dxy / R;
-      const gyx = g.dyx / R;
-      const gy = g.dyy / R;
-      const gn = Math.sqrt(gx * gx + gxy * gxy + gyx * gyx + gy * gy);
-      if (gn > 0 && eps / gn < dt) dt = eps / gn;
+      const gx = g.dxx * invR;
+      const gxy = g.dxy * invR;
+      const gyx = g.dyx * invR;
+      const gy = g.dyy * invR;
+      // Δt ≤ ε/‖∇u‖, compared squared: most steps end on an output time before that limit binds
+      const gn2 = gx * gx + gxy * gxy + gyx * gyx + gy * gy;
+      if (gn2 * dt * dt > eps * eps) dt = eps / Math.sqrt(gn2);
       const DL = aL * sp + dm;
       const DT = aT * sp + dm;
       // drift ∇·D
@@ -424,6 +366,9 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
       }
       // distance to the nearest capture circle limits the step near wells
       let captured = -1;
+      const ax2 = ux + driftX;
+      const ay2 = uy + driftY;
+      const adv = ns > 0 ? Math.sqrt(ax2 * ax2 + ay2 * ay2) : 0; // the advective speed, drift included
       for (let w = 0; w < ns; w++) {
         const s = sinks[w];
         const ddx = x - s.x;
@@ -435,9 +380,6 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
           break;
         }
         const e = eps * d;
-        const ax2 = ux + driftX;
-        const ay2 = uy + driftY;
-        const adv = Math.sqrt(ax2 * ax2 + ay2 * ay2);
         if (adv * dt > e) dt = e / adv;
         // the random move (standard deviation √(2·D_L·Δt)) at most half the distance: no tunnelling past the circle
         if (8 * DL * dt > d * d) dt = (d * d) / (8 * DL);
@@ -455,9 +397,8 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
         fate = 3;
         break;
       }
-      const sq = Math.sqrt(dt);
-      const zL = rng.normal() * Math.sqrt(2 * DL) * sq;
-      const zT = rng.normal() * Math.sqrt(2 * DT) * sq;
+      const zL = rng.normal() * Math.sqrt(2 * DL * dt);
+      const zT = rng.normal() * Math.sqrt(2 * DT * dt);
       let nx = x + (ux + driftX) * dt + eLx * zL - eLy * zT;
       let ny = y + (uy + driftY) * dt + eLy * zL + eLx * zT;
       t = dt === times[k] - t ? times[k] : t + dt;
@@ -482,9 +423,11 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
       }
       x = nx;
       y = ny;
-      tally.steps++;
+      moves++;
       while (k < nt && times[k] <= t) {
-        const m = m0 * Math.exp(-lam * (times[k] - t0));
+        // its mass at output time k: decayed from release to the first, then interval by interval
+        const m = mRecorded < 0 ? m0 * Math.exp(-lam * (times[k] - t0)) : mRecorded * decayOver[k];
+        mRecorded = m;
         tally.aquiferMass[k] += m;
         onPosition?.(j, k, x, y, m);
         for (let o = 0; o < no; o++) {
@@ -512,6 +455,7 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
     }
   }
   tally.particlesDone += done;
+  tally.steps += moves;
   return done;
 }
 
