@@ -20,7 +20,7 @@ import { HistoryButtons } from './HistoryButtons';
 import { openDemoCase } from '../app/actions';
 import { openSections, settingsOpen } from './view';
 import { startEvaluation } from './evaluation';
-import { Guard } from './Guard';
+import { CaseGuard } from './Guard';
 import { placementProblem } from '../case/check';
 import { notify } from '../app/session';
 // Leaflet's stylesheet (about 4 KB) stays in the first load, before the app's own, so the app's rules
@@ -86,14 +86,14 @@ export function App({ initialCase, slots }: AppProps) {
         </button>
       </header>
       <main class="dg-main">
-        <Guard what="The map" resetKey={currentCase.value.modified}>
+        <CaseGuard what="The map">
           <MapView frameKey={mapKey.value} problem={mapProblem.value} />
-        </Guard>
+        </CaseGuard>
         <div class="dg-panel" aria-label="Inputs and results">
           {PANELS.map(([what, Panel]) => (
-            <Guard key={what} what={what} resetKey={currentCase.value.modified}>
+            <CaseGuard key={what} what={what}>
               <Panel />
-            </Guard>
+            </CaseGuard>
           ))}
         </div>
       </main>

@@ -4,6 +4,7 @@
  * changes (another case opened, or an edit), so a repaired case draws normally.
  */
 import { Component, type ComponentChildren } from 'preact';
+import { currentCase } from './state';
 
 interface Props {
   /** what this part is, for the message ("The map", "The release inputs") */
@@ -39,4 +40,18 @@ export class Guard extends Component<Props, State> {
       </div>
     );
   }
+}
+
+/**
+ * A guard that tries again with every edit of the case on screen. It reads the case itself, so an
+ * edit re-renders this guard and not the screen around it; its children are the parent's unchanged
+ * elements, which Preact does not draw again (the panels inside follow the case by their own
+ * subscriptions). Reading the case in the App instead redrew the whole screen on every keystroke.
+ */
+export function CaseGuard({ what, children }: { what: string; children: ComponentChildren }) {
+  return (
+    <Guard what={what} resetKey={currentCase.value.modified}>
+      {children}
+    </Guard>
+  );
 }

@@ -1,5 +1,6 @@
 /** The map panel: the Leaflet site map, its tool bar and the plume time control. */
 import { useEffect, useRef } from 'preact/hooks';
+import { computed } from '@preact/signals';
 import { SiteMap, mapFailure } from './siteMap';
 import { inputIssue } from '../validity';
 import { currentCase } from '../state';
@@ -35,6 +36,14 @@ function UnplacedMap({ problem }: { problem: string }) {
   );
 }
 
+/**
+ * The plume on the map is out of date (an input is invalid and the last contours are kept). A
+ * computed flag, so the map's frame re-renders when it flips, not with every new plume: the
+ * contours reach the map by its own effect, and nothing else should stand between a result and
+ * its paint.
+ */
+const plumeStale = computed(() => !!inputIssue.value && !!currentPlume.value);
+
 function LiveMap({ frameKey }: { frameKey: string }) {
   const ref = useRef<HTMLDivElement>(null);
   useEffect(() => {
@@ -48,7 +57,7 @@ function LiveMap({ frameKey }: { frameKey: string }) {
       setActiveSiteMap(null, m);
     };
   }, [frameKey]);
-  const stale = !!inputIssue.value && !!currentPlume.value;
+  const stale = plumeStale.value;
   return (
     <div class="dg-map-wrap">
       <MapTools />
