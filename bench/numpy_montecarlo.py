@@ -12,8 +12,9 @@ the agreement with the JS figures.
 Per realisation and receptor, as the JS does for a continuous, constant source (the demo cases
 benchmarked): the concentration at the horizon (which is also the peak within it, the
 concentration at a fixed point rising monotonically in time), and where it reaches the limit the
-first time it does, by bisection on [0, horizon] down to 1e-6·horizon (the JS uses Brent's method
-to the same tolerance), every realisation-receptor pair at once.
+first time it does, in closed form (only the x-term depends on t: erfc(a) = q, a = −Φ⁻¹(q/2)/√2,
+then a quadratic in √t; the JS's src/core/solutions/domenico.ts domenicoLevelTime), every
+realisation-receptor pair at once.
 
 Domenico (1987), as bench/numpy_grids.py evaluates it (λ on dissolved and sorbed mass, u = v/R):
   C = C0/8 · exp[x/(2αx)·(1 − √(1 + 4λαx/u))] · erfc[(x − u·t·√(1 + 4λαx/u)) / (2√(αx·u·t))]
@@ -29,7 +30,7 @@ import time
 
 import numpy as np
 import scipy
-from scipy.special import erf, erfc
+from scipy.special import erf, erfc, ndtri
 
 SQRT_PI = math.sqrt(math.pi)
 
@@ -45,12 +46,12 @@ def G(u):
     return u * erf(u) + np.exp(-u * u) / SQRT_PI
 
 
-def domenico(t, p):
+def spread(p):
+    """The lateral and vertical factors fy·fz (independent of t) and the x-term's parts at each pair."""
     x = p["x"]
     xs = np.where(x > 0, x, 1.0)
     u = p["v"] / p["R"]
     root = np.sqrt(1.0 + 4.0 * p["decay"] * p["ax"] / u)
-    fx = np.exp(xs / (2.0 * p["ax"]) * (1.0 - root)) * erfc((xs - u * t * root) / (2.0 * np.sqrt(p["ax"] * u * t)))
     sy = 1.0 / (2.0 * np.sqrt(p["ay"] * xs))
     fy = erf_diff((p["y"] + p["width"] / 2.0) * sy, (p["y"] - p["width"] / 2.0) * sy)
     s = 1.0 / (2.0 * np.sqrt(p["az"] * xs))
@@ -60,25 +61,25 @@ def domenico(t, p):
     span = np.where(zb > zt, zb - zt, 1.0)
     avg = (G((zb + h) * s) - G((zt + h) * s) - G((zb - h) * s) + G((zt - h) * s)) / (s * span)
     fz = np.where(zb > zt, avg, point)
-    c = p["c0"] * 0.125 * fx * fy * fz
-    return np.where(x > 0, np.maximum(c, 0.0), 0.0)
+    return xs, u * root, p["ax"] * u, np.exp(xs / (2.0 * p["ax"]) * (1.0 - root)), fy * fz
 
 
 def screen(p, limit, horizon):
-    at_h = domenico(horizon, p)
+    xs, ur, dx, decay, fyz = spread(p)
+    scale = p["c0"] * 0.125 * decay * fyz
+    at_h = scale * erfc((xs - ur * horizon) / (2.0 * np.sqrt(dx * horizon)))
+    at_h = np.where(p["x"] > 0, np.maximum(at_h, 0.0), 0.0)
     hit = at_h >= limit
+    # first time at the limit in closed form: erfc(a) = q, a = (x − u't)/(2√(Dt)), s = √t the
+    # positive root of u's² + 2a√D s − x = 0 (the form without cancellation for each sign of a)
     idx = np.nonzero(hit)[0]
-    sub = {k: v[idx] for k, v in p.items()}
-    lo = np.zeros(idx.size)
-    hi = np.full(idx.size, horizon)
-    tol = 1e-6 * horizon
-    while idx.size and np.max(hi - lo) > tol:
-        mid = 0.5 * (lo + hi)
-        above = domenico(mid, sub) >= limit
-        hi = np.where(above, mid, hi)
-        lo = np.where(above, lo, mid)
+    q = np.minimum(limit / scale[idx], 2.0)
+    a = -ndtri(0.5 * q) * math.sqrt(0.5)
+    rd = np.sqrt(dx[idx])
+    disc = np.sqrt(a * a * dx[idx] + ur[idx] * xs[idx])
+    s = np.where(a >= 0, xs[idx] / (a * rd + disc), (disc - a * rd) / ur[idx])
     arrival = np.full(at_h.size, np.inf)
-    arrival[idx] = 0.5 * (lo + hi)
+    arrival[idx] = np.minimum(s * s, horizon)
     return at_h, arrival
 
 

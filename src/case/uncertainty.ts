@@ -409,7 +409,7 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     arrival: new Float64Array(count * nr),
     atHorizon: new Float64Array(count * nr),
     peak: new Float64Array(count * nr),
-    curves: times ? new Float32Array(count * nr * nt) : null,
+    curves: times ? new Float32Array(count * nr * nt) : undefined,
     times,
   };
   const refusals: RealisationBlock['refusals'] = [];
@@ -423,7 +423,7 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     const row = (i - from) * nr;
     try {
       const { model, receptors, turned } = realisationModel(plan, realisationValues(plan, lhs, i));
-      screenReceptorsInto(model, receptors, limit, horizon, { ...out, curves: out.curves ?? undefined }, row);
+      screenReceptorsInto(model, receptors, limit, horizon, out, row);
       if (map && mapCounts && scratch && i < map.mapped) {
         countExceedance(map, model, turned, mapCounts, scratch);
         mapped++;
@@ -439,7 +439,7 @@ export function runRealisations(plan: UncertaintyPlan, from: number, to: number,
     }
   }
   const { arrival, atHorizon, peak, curves } = out;
-  return { from, to, receptors: nr, arrival, atHorizon, peak, curves, mapCounts, mapped, refusals, refusedCount, evaluated: count };
+  return { from, to, receptors: nr, arrival, atHorizon, peak, curves: curves ?? null, mapCounts, mapped, refusals, refusedCount, evaluated: count };
 }
 
 /**

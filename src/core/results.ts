@@ -7,12 +7,14 @@
  * ch. 4) on a bracket. For a continuous, constant source the concentration at a fixed point
  * increases monotonically in time (the integrand of the exact solution is positive; each factor
  * of Domenico's x-term increases) and decreases monotonically downgradient along the centreline,
- * so brackets are [0, horizon] and [x, 2x]. For pulses and declining sources the curve rises and
+ * so brackets are [0, horizon] and [x, 2x]; with Domenico the first time at a limit then has a
+ * closed form instead (only the x-term depends on time: solutions/domenico.ts domenicoLevelTime),
+ * exact to rounding, where Brent stops within 1e-6 of the horizon. For pulses and declining sources the curve rises and
  * falls: the first crossing is bracketed on a sampled curve (160 times, log and linear spaced);
  * a rise shorter than the sample spacing could be missed there, which the result notes.
  */
 import type { ScreeningModel, SolutionKind } from './model';
-import { relativeAt, relativeCurve, relativeGrid, relativeSeries, kinetics, type Kinetics } from './transport';
+import { relativeAt, relativeGrid, relativePoint, relativeSeries, kinetics, type Kinetics } from './transport';
 import type { ExactOptions } from './solutions/patchSource';
 import { domenicoAdmits, validateModel } from './validateModel';
 import { ValidationError, inWorkingRange, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
@@ -54,10 +56,21 @@ function cAt(m: ScreeningModel, kind: SolutionKind, r: Receptor, t: number, opts
   return mgPerL(m, relativeAt(m, kind, r.x, r.y, r, t, opts));
 }
 
-/** Concentration (mg/L) at a receptor as a function of time, its time-independent parts worked out once (transport.ts relativeCurve). */
-function concentrationCurve(m: ScreeningModel, kind: SolutionKind, r: Receptor, k?: Kinetics): (t: number) => number {
-  const rel = relativeCurve(m, kind, r.x, r.y, r, undefined, k);
-  return (t) => mgPerL(m, rel(t));
+/** Concentration (mg/L) at a receptor as a function of time, its time-independent parts worked out once (transport.ts relativePoint). */
+function concentrationCurve(m: ScreeningModel, kind: SolutionKind, r: Receptor, k?: Kinetics): ConcentrationCurve {
+  const rel = relativePoint(m, kind, r.x, r.y, r, undefined, k);
+  const levelTime = rel.levelTime;
+  return {
+    at: (t) => mgPerL(m, rel.at(t)),
+    timeAt: levelTime ? (limit) => levelTime(limit / m.c0) : null,
+  };
+}
+
+/** A receptor's concentration curve (mg/L) and, where there is one, the closed form of its first time at a limit. */
+interface ConcentrationCurve {
+  readonly at: (t: number) => number;
+  /** first time at `limit` (mg/L) in closed form (null: never); the property null: search `at` */
+  readonly timeAt: ((limit: number) => number | null) | null;
 }
 
 /** Concentration (mg/L) at a point; t = Infinity for steady state. */
@@ -188,12 +201,18 @@ function checkLimitAndHorizon(limit: number, horizon: number): void {
 }
 
 /** The first crossing of `limit` by the curve c(t) within (0, horizon] (see the header), or null. */
-function arrivalOn(c: (t: number) => number, continuousConstant: boolean, limit: number, horizon: number): number | null {
+function arrivalOn(curve: ConcentrationCurve, continuousConstant: boolean, limit: number, horizon: number, atHorizon = curve.at(horizon)): number | null {
+  const c = curve.at;
   const f = (t: number) => c(t) - limit;
   const tol = Math.max(1e-6 * horizon, 1e-6);
   if (continuousConstant) {
-    const fH = f(horizon);
+    const fH = atHorizon - limit;
     if (fH < 0) return null;
+    if (curve.timeAt) {
+      // closed form (Domenico): reached by the horizon, so a time past it is rounding
+      const t = curve.timeAt(limit);
+      return t === null ? horizon : Math.min(t, horizon);
+    }
     return brentRoot(f, 0, horizon, -limit, fH, tol);
   }
   const ts = sampleTimes(horizon);
@@ -209,7 +228,8 @@ function arrivalOn(c: (t: number) => number, continuousConstant: boolean, limit:
 }
 
 /** The largest value of the curve c(t) on [0, horizon] and its time (see the header). */
-function peakOn(c: (t: number) => number, continuousConstant: boolean, horizon: number): { c: number; t: number } {
+function peakOn(curve: ConcentrationCurve, continuousConstant: boolean, horizon: number): { c: number; t: number } {
+  const c = curve.at;
   if (continuousConstant) return { c: c(horizon), t: horizon };
   const ts = sampleTimes(horizon);
   let best = 0;
@@ -265,7 +285,7 @@ export function concentrationsAt(m: ScreeningModel, xs: ArrayLike<number>, ys: A
   if (ys.length !== xs.length || out.length !== xs.length) throw new RangeError('xs, ys and out must have the same length');
   const k = kinetics(m);
   const depth = { zTop: z, zBottom: z };
-  for (let q = 0; q < xs.length; q++) out[q] = mgPerL(m, relativeCurve(m, m.solution, xs[q], ys[q], depth, undefined, k)(t));
+  for (let q = 0; q < xs.length; q++) out[q] = mgPerL(m, relativePoint(m, m.solution, xs[q], ys[q], depth, undefined, k).at(t));
   return out;
 }
 
@@ -298,13 +318,14 @@ export function screenReceptorsInto(m: ScreeningModel, receptors: readonly Recep
   for (let j = 0; j < receptors.length; j++) {
     const r = receptors[j];
     checkReceptor(r);
-    const c = concentrationCurve(m, m.solution, r, k);
+    const curve = concentrationCurve(m, m.solution, r, k);
+    const c = curve.at;
     const atHorizon = c(horizon);
     // a continuous, constant source rises monotonically at a fixed point: its peak is the value at the horizon
-    const peak = continuousConstant ? atHorizon : peakOn(c, false, horizon).c;
+    const peak = continuousConstant ? atHorizon : peakOn(curve, false, horizon).c;
     out.atHorizon[offset + j] = atHorizon;
     out.peak[offset + j] = peak;
-    out.arrival[offset + j] = peak >= limit ? (arrivalOn(c, continuousConstant, limit, horizon) ?? Infinity) : Infinity;
+    out.arrival[offset + j] = peak >= limit ? (arrivalOn(curve, continuousConstant, limit, horizon, atHorizon) ?? Infinity) : Infinity;
     const { curves, times } = out;
     if (curves && times) for (let k = 0, at = (offset + j) * times.length; k < times.length; k++) curves[at + k] = c(times[k]);
   }

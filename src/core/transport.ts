@@ -13,7 +13,7 @@
  */
 import type { DepthSpan } from './solutions/spread';
 import { depthFactor, spreadFactor } from './solutions/spread';
-import { domenicoGridInto, domenicoPointInTime, isSymmetric, type DomenicoParams } from './solutions/domenico';
+import { domenicoGridInto, domenicoLevelTime, domenicoYTerm, domenicoZTerm, isSymmetric, pointInTime, type DomenicoParams } from './solutions/domenico';
 import { exactColumn, exactSeries, type ExactOptions, type PatchParams } from './solutions/patchSource';
 import { exactGridShared } from './solutions/patchGrid';
 import type { ScreeningModel, SolutionKind } from './model';
@@ -161,15 +161,27 @@ export function relativeAt(
   t: number,
   opts?: ExactOptions,
 ): number {
-  return relativeCurve(m, kind, x, y, depth, opts)(t);
+  return relativePoint(m, kind, x, y, depth, opts).at(t);
+}
+
+export interface RelativePoint {
+  /** C/C0 at time t */
+  readonly at: (t: number) => number;
+  /**
+   * The first time C/C0 reaches a level, in closed form where the solution has one (Domenico,
+   * continuous constant source, downgradient: domenicoLevelTime), null: never reached; the
+   * property itself null where there is no closed form (search `at` instead).
+   */
+  readonly levelTime: ((level: number) => number | null) | null;
 }
 
 /**
  * C/C0 at one point or screen as a function of time, for searches over time (first arrival at a
- * limit, the peak): the model's kinetics are worked out once, and for Domenico the lateral and
- * vertical factors too (they do not depend on time). Each value is the one relativeAt gives.
+ * limit, the peak), with the closed-form time to a level where there is one: the model's kinetics
+ * are worked out once, and for Domenico the lateral and vertical factors too (they do not depend
+ * on time). Each value is the one relativeAt gives.
  */
-export function relativeCurve(
+export function relativePoint(
   m: ScreeningModel,
   kind: SolutionKind,
   x: number,
@@ -177,22 +189,29 @@ export function relativeCurve(
   depth: DepthSpan,
   opts?: ExactOptions,
   k: Kinetics = kinetics(m),
-): (t: number) => number {
+): RelativePoint {
   if (kind === 'domenico') {
-    if (x < 0) return () => 0;
-    const point = domenicoPointInTime(x, y, depth, k.dom);
-    return (t) => {
+    if (x < 0) return { at: () => 0, levelTime: null };
+    const p = k.dom;
+    const spread = domenicoYTerm(x, y, p) * domenicoZTerm(x, depth, p);
+    const point = pointInTime(x, spread, p);
+    const at = (t: number): number => {
       if (t === Infinity) return k.continuousConstant ? point(Infinity, 0) : 0;
       let c = point(t, -k.gamma * t);
       if (k.duration < t && c > 0) c = Math.max(0, c - point(t - k.duration, -k.gamma * t));
       return c;
     };
+    const closed = k.continuousConstant && x > 0 && p.Dx > 0 && p.v > 0;
+    return { at, levelTime: closed ? (level) => domenicoLevelTime(x, spread, p, level) : null };
   }
   const xs = [x];
   const ys = [y];
-  return (t) => {
-    relativeGrid(m, kind, xs, ys, depth, t, one, opts);
-    return one[0];
+  return {
+    at: (t) => {
+      relativeGrid(m, kind, xs, ys, depth, t, one, opts);
+      return one[0];
+    },
+    levelTime: null,
   };
 }
 

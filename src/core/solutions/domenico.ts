@@ -26,7 +26,8 @@
 import { depthFactor, erfRatioSafe, spreadFactor, uniformStep, type DepthSpan } from './spread';
 import { lateralLattice } from '../lattice';
 import { erfDiff } from '../special/erf';
-import { lnCdf, pistonCdf } from './oneD';
+import { lnCdf, pistonCdf, uMinusV } from './oneD';
+import { normalQuantile } from '../uncertainty/normal';
 
 export interface DomenicoParams {
   /** retarded velocity v/R (> 0) */
@@ -74,12 +75,43 @@ export function domenicoPoint(x: number, y: number, depth: DepthSpan, t: number,
  * one erfc-type x-term per time.
  */
 export function domenicoPointInTime(x: number, y: number, depth: DepthSpan, p: DomenicoParams): (t: number, logScale: number) => number {
-  const Y = domenicoYTerm(x, y, p);
-  const Z = domenicoZTerm(x, depth, p);
+  return pointInTime(x, domenicoYTerm(x, y, p) * domenicoZTerm(x, depth, p), p);
+}
+
+/** C/C0 at x as a function of time, given the product of its lateral and vertical factors. */
+export function pointInTime(x: number, spread: number, p: DomenicoParams): (t: number, logScale: number) => number {
   return (t, logScale) => {
     const X = domenicoXTerm(x, t, p, logScale);
-    return X === 0 ? 0 : X * Y * Z;
+    return X === 0 ? 0 : X * spread;
   };
+}
+
+/**
+ * The first time C/C0 reaches `level` at a point downgradient (x > 0) of a continuous source of
+ * constant concentration, in closed form; null when it never does (level at or above the steady
+ * value) or when the closed form does not apply (no dispersion, no transport: Dx = 0 or u = 0,
+ * where the caller searches the curve instead).
+ *
+ * Only the x-term depends on t, and it rises monotonically, so with S = Y·Z (the `spread`, the
+ * lateral and vertical factors at x) and w = u − v:
+ *   ½·e^{−xw/(2Dx)}·erfc(a)·S = level  ⇔  erfc(a) = q = 2·level·e^{xw/(2Dx)}/S,
+ *   a = −Φ⁻¹(q/2)/√2                      (erfc(a) = 2Φ(−a√2)),
+ * and a = (x − u·t)/(2√(Dx·t)) gives, with s = √t, u·s² + 2a√Dx·s − x = 0, whose positive root is
+ * taken in the form without cancellation (x / (a√Dx + √(a²Dx + ux)) for a ≥ 0). Accuracy: that
+ * of Φ⁻¹ (AS 241, about 1e-16 relative) and of the few operations after it; the closed form
+ * replaces a root search on the curve (its tolerance 1e-6 of the horizon).
+ */
+export function domenicoLevelTime(x: number, spread: number, p: DomenicoParams, level: number): number | null {
+  const w = uMinusV(p.v, p.Dx, p.lam);
+  const u = p.v + w;
+  if (!(x > 0) || !(p.Dx > 0) || !(u > 0)) return null;
+  const q = (2 * level * Math.exp((x * w) / (2 * p.Dx))) / spread;
+  if (!(q < 2)) return null; // at or above the steady value (or spread 0): never reached
+  const a = -normalQuantile(0.5 * q) * Math.SQRT1_2;
+  const rootD = Math.sqrt(p.Dx);
+  const disc = Math.sqrt(a * a * p.Dx + u * x);
+  const s = a >= 0 ? x / (a * rootD + disc) : (disc - a * rootD) / u;
+  return s * s;
 }
 
 /** True when ys is exactly symmetric about zero (ys[j] = −ys[n−1−j]). */

@@ -32,7 +32,8 @@
  *    off the centreline the sign changes (over- and underprediction).
  */
 import { describe, expect, it } from 'vitest';
-import { ValidationError, domenico, domenicoGrid, patchSourceExact } from '../../../src/core/index';
+import { ValidationError, domenico, domenicoGrid, firstTimeAtLimit, patchSourceExact, screenAverage } from '../../../src/core/index';
+import type { ScreeningModel } from '../../../src/core/model';
 import { erfcD, exactDecimal, makeDecimal } from '../../../scripts/reference/decimal-special.mjs';
 import { MismatchLog, expectWithin } from '../helpers/check';
 
@@ -125,6 +126,64 @@ describe('the Domenico (1987) formula, evaluated independently in decimal.js (1e
       }
     }
     log.assertNone();
+  });
+});
+
+describe('first time at a limit in closed form (firstTimeAtLimit, solutions/domenico.ts domenicoLevelTime): the decimal.js formula at that time equals the limit (1e-10 relative)', () => {
+  const model = (p: Case): ScreeningModel => ({
+    v: p.v,
+    ax: p.ax,
+    ay: p.ay,
+    az: p.az,
+    diffusion: 0,
+    R: p.R ?? 1,
+    decay: p.decay ?? 0,
+    decayPhase: 'dissolved-and-sorbed',
+    width: p.width,
+    thickness: p.thickness,
+    c0: 1,
+    sourceDecay: 0,
+    duration: Infinity,
+    solution: 'domenico',
+  });
+  it('on and off the axis, at depth, with retardation and decay, limits from just below the value at the horizon to 1e-8 of it', () => {
+    const log = new MismatchLog();
+    let checked = 0;
+    for (const x of [5, 40, 150]) {
+      for (const [y, z] of [
+        [0, 0],
+        [14, 3],
+        [25, 7],
+      ]) {
+        for (const [R, decay] of [
+          [1, 0],
+          [3, 2e-4],
+        ]) {
+          const p: Case = { ...base, x, y, z, R, decay, ax: 0.1 * x, ay: 0.01 * x, az: 0.002 * x, t: (3 * x * R) / base.v };
+          const horizon = p.t;
+          const atHorizon = domenicoDecimal(p);
+          for (const share of [0.999, 0.5, 1e-3, 1e-8]) {
+            const limit = share * atHorizon;
+            if (limit < 1e-25) continue; // below the engine's working range (far off the plume at x = 5 m)
+            checked++;
+            const t = firstTimeAtLimit(model(p), { x, y, zTop: z, zBottom: z }, limit, horizon);
+            expect(t).not.toBeNull();
+            expect(t!).toBeLessThanOrEqual(horizon);
+            log.check('C(first time) vs limit', { ...p, limit }, domenicoDecimal({ ...p, t: t! }), limit, 1e-10 * limit);
+          }
+        }
+      }
+    }
+    log.assertNone();
+    expect(checked).toBeGreaterThan(60);
+  });
+  it('a screen: the screen average at that time equals the limit; above the value at the horizon: never (null)', () => {
+    const p: Case = { ...base, x: 60, y: 4, z: 0, R: 2, decay: 1e-4, ax: 6, ay: 0.6, az: 0.12, t: 6000 };
+    const r = { x: 60, y: 4, zTop: 1, zBottom: 6 };
+    const atHorizon = screenAverage(model(p), r, p.t);
+    const t = firstTimeAtLimit(model(p), r, 0.3 * atHorizon, p.t)!;
+    expect(Math.abs(screenAverage(model(p), r, t) - 0.3 * atHorizon)).toBeLessThan(1e-12 * atHorizon);
+    expect(firstTimeAtLimit(model(p), r, 1.0001 * atHorizon, p.t)).toBeNull();
   });
 });
 
