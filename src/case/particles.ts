@@ -59,6 +59,8 @@ export interface ParticleFigures {
   readonly arrival: number | null;
   /** how the figure was estimated, in words */
   readonly estimator: string;
+  /** a pumping well's water (c[k] the mean over the output interval (t_{k−1}, t_k]), not a point estimate at t_k */
+  readonly pumped: boolean;
   /** the whole curve: output times (d), estimates and standard errors (mg/L) */
   readonly times: number[];
   readonly c: number[];
@@ -150,6 +152,7 @@ export function particleFigures(p: PreparedCase, walk: PreparedWalk, tally: Walk
         sink !== undefined
           ? `water pumped: captured particle mass per interval / pumping rate (intervals of ${Number((times[0]).toPrecision(3))} d)`
           : `depth-averaged, particle mass within ${Number(h.toPrecision(2))} m of the receptor (disk estimator)`,
+      pumped: sink !== undefined,
       times,
       c,
       se,

@@ -55,6 +55,30 @@ export const particleLayer = signal<ParticleLayer | null>(null);
 /** whether the particle plume is drawn on the map */
 export const showParticleLayer = signal(true);
 
+/**
+ * The particle run of this very case (its figures, partial while it runs or when cancelled), or
+ * null when there is none or the case changed since; `complete` asks for a finished run only.
+ */
+export function particleRunFor(c: import('../case/schema').Case, complete = false): ParticleRunState | null {
+  const run = particleRun.value;
+  if (!run.receptors || run.caseKey !== particleCaseKey(c)) return null;
+  return complete && run.status !== 'done' ? null : run;
+}
+
+/** A receptor's particle curve for the breakthrough chart (charts/Charts.tsx ParticleCurve), from the run of this case. */
+export function particleCurveFor(c: import('../case/schema').Case, receptorId: string, complete = false) {
+  const run = particleRunFor(c, complete);
+  const f = run?.receptors?.find((x) => x.id === receptorId);
+  return run && f ? { times: f.times, c: f.c, se: f.se, pumped: f.pumped, label: particleRunLabel(run) } : null;
+}
+
+/** The run in words for a chart's key: count (done of total while partial), seed, state. */
+export function particleRunLabel(run: ParticleRunState): string {
+  const count = run.done < run.particles ? `${run.done.toLocaleString('en')} of ${run.particles.toLocaleString('en')}` : run.particles.toLocaleString('en');
+  const state = run.status === 'running' ? ', refining' : run.status === 'done' ? '' : ', partial';
+  return `particles (${count}, seed ${run.seed}${state})`;
+}
+
 /** What particle figures depend on: the case without its name, notes, stamps, view time and map depth. */
 export function particleCaseKey(c: import('../case/schema').Case): string {
   const { viewTime: _v, depth: _d, ...evaluation } = c.evaluation;

@@ -113,6 +113,16 @@ describe('pumping wells: capture zones and particles', () => {
     await expect(page.locator('[data-testid=particle-mass]').innerText()).resolves.toMatch(/pumped out by wells/);
     await page.waitForSelector('.leaflet-pane path.dg-particle-band', { state: 'attached' });
     await page.screenshot({ path: artifactPath('wells-particles-1024x768.png') });
+    // the supply well's breakthrough chart: the water it delivers (captured mass / Q) as steps over the
+    // 100 output intervals, with the ± 2 SE band, named in the key with count and seed
+    await page.getByRole('group', { name: 'Breakthrough curve for' }).getByRole('button', { name: 'Town supply well' }).click();
+    const chart = page.locator('[data-testid=breakthrough-chart]');
+    await chart.locator('[data-testid=particle-curve]').waitFor();
+    await expect(chart.locator('[data-testid=particle-key]').innerText()).resolves.toMatch(/particles \(4,000, seed 7\), the water pumped.*± 2 standard errors/);
+    const d = await chart.locator('path.dg-chart-particle-line').getAttribute('d');
+    expect(d!.split(/[ML]/).filter(Boolean)).toHaveLength(2 * expected.receptors[0].times.length);
+    await chart.scrollIntoViewIfNeeded();
+    await chart.screenshot({ path: artifactPath('wells-breakthrough-particles-1024x768.png') });
     await page.locator('[data-testid=particle-results]').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('wells-panel-1024x768.png') });
     const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
@@ -126,6 +136,8 @@ describe('pumping wells: capture zones and particles', () => {
     await expect(report.innerText()).resolves.toMatch(/--method particles --particles 4000 --seed 7/);
     await expect(report.innerText()).resolves.toMatch(/±/);
     await expect(report.innerText()).resolves.toMatch(/fully penetrating/);
+    // the report's breakthrough charts carry the complete run's particle curves
+    await expect(page.locator('.dg-report-charts [data-testid=particle-curve]').count()).resolves.toBe(2);
     await report.scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('wells-report-1024x768.png') });
     expect(errors).toEqual([]);

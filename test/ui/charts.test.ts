@@ -2,9 +2,11 @@
  * The centreline chart's receptor labels (src/ui/charts/Charts.tsx receptorMarks): no two labels
  * in one row overlap, every label stays inside the plot, and receptors past the distance axis are
  * listed at its end. Checks of the layout rule itself (widths as the function estimates them).
+ * The particle curve's points (particlePoints): a pumping well's interval means drawn as steps over
+ * their intervals, a point estimate at its time; the band ± 2 standard errors, never below zero.
  */
 import { describe, expect, test } from 'vitest';
-import { receptorMarks } from '../../src/ui/charts/Charts';
+import { particlePoints, receptorMarks } from '../../src/ui/charts/Charts';
 
 describe('receptorMarks', () => {
   test('close receptors go into separate rows; none overlaps another in its row', () => {
@@ -30,5 +32,21 @@ describe('receptorMarks', () => {
 
   test('upgradient receptors (x ≤ 0) are left out', () => {
     expect(receptorMarks([{ name: 'Up', x: -60 }], 300, 'm')).toEqual([]);
+  });
+});
+
+describe('particlePoints', () => {
+  const curve = { times: [10, 20, 30], c: [0, 0.5, 1], se: [0, 0.3, 0.1], label: 'particles' };
+  test('a pumping well: each interval mean held over (t_{k−1}, t_k], band ± 2 SE clipped at 0', () => {
+    const p = particlePoints({ ...curve, pumped: true });
+    expect(p.ts).toEqual([0, 10, 10, 20, 20, 30]);
+    expect(p.c).toEqual([0, 0, 0.5, 0.5, 1, 1]);
+    expect(p.lo).toEqual([0, 0, 0, 0, 0.8, 0.8]);
+    expect(p.hi.map((v) => Number(v.toFixed(12)))).toEqual([0, 0, 1.1, 1.1, 1.2, 1.2]);
+  });
+  test('a point estimate: one point per output time', () => {
+    const p = particlePoints({ ...curve, pumped: false });
+    expect(p.ts).toEqual([10, 20, 30]);
+    expect(p.c).toEqual([0, 0.5, 1]);
   });
 });

@@ -3,7 +3,11 @@
  * labelled axes with units, the limit as a dashed line, the other solution as a thin dashed curve
  * when it is computed, and a logarithmic concentration axis when the values span many decades.
  * After a Monte Carlo run of the case as it is, the breakthrough chart shows the realisations'
- * 5–95 % and 25–75 % bands and their median behind the deterministic curve.
+ * 5–95 % and 25–75 % bands and their median behind the deterministic curve. After (and during) a
+ * particle run of the case as it is, it also shows the particle curve with its statistical band,
+ * ± 2 standard errors: at a pumping well the concentration of the water it delivers (captured
+ * mass / pumping rate) as a step over each output interval, elsewhere the disk estimate at each
+ * output time.
  */
 import type { ComponentChildren } from 'preact';
 import { concentrationScale, linearScale, type Scale } from './axes';
@@ -119,6 +123,36 @@ export interface CurveBands {
   readonly realisations: number;
 }
 
+/** A receptor's particle curve (internal units: d, mg/L), from src/case/particles.ts ParticleFigures. */
+export interface ParticleCurve {
+  readonly times: readonly number[];
+  readonly c: readonly number[];
+  readonly se: readonly number[];
+  /** a pumping well's water: c[k] is the mean over (t_{k−1}, t_k], drawn as a step */
+  readonly pumped: boolean;
+  /** the run in words (count, seed, partial), for the key */
+  readonly label: string;
+}
+
+/** The band ±2 SE and the curve, as points to draw (steps over the intervals for a pumping well). */
+export function particlePoints(p: ParticleCurve): { ts: number[]; c: number[]; lo: number[]; hi: number[] } {
+  const ts: number[] = [];
+  const c: number[] = [];
+  const lo: number[] = [];
+  const hi: number[] = [];
+  const push = (t: number, k: number) => {
+    ts.push(t);
+    c.push(p.c[k]);
+    lo.push(Math.max(0, p.c[k] - 2 * p.se[k]));
+    hi.push(p.c[k] + 2 * p.se[k]);
+  };
+  p.times.forEach((t, k) => {
+    if (p.pumped) push(k > 0 ? p.times[k - 1] : 0, k);
+    push(t, k);
+  });
+  return { ts, c, lo, hi };
+}
+
 /** The band between two curves as one closed path: along the upper, back along the lower. */
 function bandPath(ts: number[], upper: number[], lower: number[], sx: (v: number) => number, sy: Scale): string {
   return `${pathOf(ts, upper, sx, sy)}L${pathOf([...ts].reverse(), [...lower].reverse(), sx, sy).slice(1)}Z`;
@@ -136,6 +170,8 @@ export function BreakthroughChart(props: {
   concUnit: string;
   /** Monte Carlo percentile bands, drawn behind the deterministic curve */
   bands?: CurveBands | null;
+  /** the particle curve of a run of this case, with its ± 2 SE band */
+  particles?: ParticleCurve | null;
 }) {
   const tu = timeUnitFor(props.horizon); // the screen's one time unit (numbers.ts)
   const cu = props.concUnit;
@@ -148,8 +184,10 @@ export function BreakthroughChart(props: {
   const b = props.bands;
   const bt = b ? Array.from(b.times, toT) : [];
   const [p5, p25, p50, p75, p95] = b ? [b.p5, b.p25, b.p50, b.p75, b.p95].map((q) => Array.from(q, toC)) : [[], [], [], [], []];
+  const pp = props.particles ? particlePoints(props.particles) : null;
+  const [pt, pc, plo, phi] = pp ? [pp.ts.map(toT), pp.c.map(toC), pp.lo.map(toC), pp.hi.map(toC)] : [[], [], [], []];
   const sx = linearScale(0, toT(props.horizon), M.l, W - M.r);
-  const sy = concentrationScale([...vs, ...(alt ?? []), ...p95], lim, H - M.b, M.t);
+  const sy = concentrationScale([...vs, ...(alt ?? []), ...p95, ...phi], lim, H - M.b, M.t);
   return (
     <Frame
       title={`Breakthrough at ${props.name}`}
@@ -160,17 +198,28 @@ export function BreakthroughChart(props: {
       testid="breakthrough-chart"
       legend={solutionKey(props.solution, !!alt)}
       keyExtra={
-        b && (
-          <>
-            {'  '}
-            <span class="dg-key-swatch dg-key-outer" aria-hidden="true" />
-            5–95 %{' '}
-            <span class="dg-key-swatch dg-key-inner" aria-hidden="true" />
-            25–75 %{' '}
-            <span class="dg-key-line dg-key-median" aria-hidden="true" />
-            median of {b.realisations} Monte Carlo realisations
-          </>
-        )
+        <>
+          {b && (
+            <>
+              {'  '}
+              <span class="dg-key-swatch dg-key-outer" aria-hidden="true" />
+              5–95 %{' '}
+              <span class="dg-key-swatch dg-key-inner" aria-hidden="true" />
+              25–75 %{' '}
+              <span class="dg-key-line dg-key-median" aria-hidden="true" />
+              median of {b.realisations} Monte Carlo realisations
+            </>
+          )}
+          {props.particles && (
+            <span data-testid="particle-key">
+              {'  '}
+              <span class="dg-key-line dg-key-particles" aria-hidden="true" />
+              {props.particles.label}
+              {props.particles.pumped ? ', the water pumped' : ''}{' '}
+              <span class="dg-key-swatch dg-key-particle-band" aria-hidden="true" />± 2 standard errors
+            </span>
+          )}
+        </>
       }
     >
       {b && (
@@ -183,6 +232,12 @@ export function BreakthroughChart(props: {
       <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
       {alt && <path d={pathOf(ts, alt, sx, sy)} class="dg-chart-alt" />}
       <path d={pathOf(ts, vs, sx, sy)} class="dg-chart-line" />
+      {pp && (
+        <g class="dg-chart-particles" data-testid="particle-curve">
+          <path d={bandPath(pt, phi, plo, sx, sy)} class="dg-chart-particle-band" />
+          <path d={pathOf(pt, pc, sx, sy)} class="dg-chart-particle-line" />
+        </g>
+      )}
       {props.arrival !== null && (
         <g class="dg-chart-arrival">
           <line x1={sx(toT(props.arrival))} x2={sx(toT(props.arrival))} y1={M.t} y2={H - M.b} />

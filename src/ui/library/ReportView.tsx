@@ -21,6 +21,7 @@ import { SitePlan } from './SitePlan';
 import { ReportObservations } from './ReportObservations';
 import { ReportUncertainty } from './ReportUncertainty';
 import { ReportWells } from './ReportWells';
+import { particleCurveFor } from '../particleState';
 import { APP_VERSION } from './version';
 import { reportOpen } from './reportOpen';
 import '../print.css';
@@ -191,6 +192,7 @@ export function Report() {
               arrival={r.arrival}
               horizon={results.horizon}
               concUnit={c.contaminant.limit.unit}
+              particles={particleCurveFor(c, r.id, true)}
             />
           ))}
           {results.receptors.length > 12 && <p class="dg-report-note">The first 12 receptors are charted; the table and the CSV export hold all of them.</p>}

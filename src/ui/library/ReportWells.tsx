@@ -8,14 +8,13 @@
 import type { Case } from '../../case/schema';
 import type { Evaluation } from '../results';
 import { WELL_FIELD_ASSUMPTIONS } from '../../case/caution';
-import { particleCaseKey, particleRun } from '../particleState';
+import { particleRunFor } from '../particleState';
 import { fmtConc, fmtLength, fmtTime } from '../format';
 import { formatSig } from '../../case/numbers';
 
 export function ReportWells({ c, results }: { c: Case; results: Evaluation | null }) {
   const w = results?.wells ?? null;
-  const run = particleRun.value;
-  const particles = run.receptors && run.status === 'done' && run.caseKey === particleCaseKey(c) ? run : null;
+  const particles = particleRunFor(c, true);
   if (!w && !particles) return null;
   const name = (id: string) => c.site.receptors.find((r) => r.id === id)?.name ?? id;
   return (

@@ -19,6 +19,7 @@ import type { Evaluation } from '../results';
 import { ReceptorTable } from './ReceptorTable';
 import { toInternal } from '../../core/units';
 import { currentRunFor } from '../uncertaintyState';
+import { particleCurveFor } from '../particleState';
 
 // the charts arrive after the first screen (src/ui/lazy.tsx)
 const BreakthroughChart = lazyPart(() => import('../charts/Charts').then((m) => m.BreakthroughChart), 'chart');
@@ -161,6 +162,7 @@ function Charts({ r }: { r: Evaluation }) {
           horizon={r.horizon}
           concUnit={cu}
           bands={bands}
+          particles={sel && r.caseStamp === currentCase.value.modified ? particleCurveFor(currentCase.value, sel.id) : null}
         />
       )}
       {r.receptors.length > 1 && (
