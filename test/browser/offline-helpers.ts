@@ -5,6 +5,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, inject } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { launch, newPage, LANDSCAPE } from './browser';
+import { parseCaseFile } from '../../src/case/io';
 
 /** One Chromium for the test file: launched before its tests, closed after them. */
 export function useBrowser(): () => Browser {
@@ -158,6 +159,35 @@ export async function settled(page: Page): Promise<void> {
     { timeout: 30_000 },
   );
   await page.waitForTimeout(300);
+}
+
+/**
+ * A fresh page (touch, service workers blocked, page errors collected) on a demo case picked in the
+ * header, once the receptor table lists every receptor of the case: the start of the tests of one
+ * panel (wells, uncertainty). `close` closes its context.
+ */
+export async function openDemoPage(browser: Browser, file: string, viewport = LANDSCAPE): Promise<{ page: Page; errors: string[]; close: () => Promise<void> }> {
+  const parsed = parseCaseFile(readFileSync(`cases/${file}`, 'utf8'));
+  if (!parsed.ok) throw new Error(`demo case ${file} unreadable`);
+  const receptors = parsed.case.site.receptors.length;
+  const context = await browser.newContext({ viewport, deviceScaleFactor: 1, hasTouch: true, serviceWorkers: 'block' });
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto(inject('baseUrl'));
+  await page.waitForSelector('.dg-mark-source');
+  const ok = page.locator('button', { hasText: /^OK$/ });
+  if (await ok.isVisible().catch(() => false)) await ok.click();
+  await page.selectOption('select.dg-demo', file);
+  await page.waitForFunction((n) => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === n, receptors);
+  return { page, errors, close: () => context.close() };
+}
+
+/** Type a number into the field with this label and leave it (Tab), as a user would. */
+export async function setNumber(page: Page, label: string, value: number): Promise<void> {
+  const input = page.getByLabel(label, { exact: true });
+  await input.fill(String(value));
+  await input.press('Tab');
 }
 
 /** A fresh page on the main screen (the first-visit notice dismissed), optionally on a demo case, with its results settled. */

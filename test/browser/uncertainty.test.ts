@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
 import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
-import { openFiles } from './offline-helpers';
+import { openDemoPage, openFiles, setNumber } from './offline-helpers';
 import { axe } from './axe-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { runUncertainty } from '../../src/case/uncertainty';
@@ -25,24 +25,9 @@ afterAll(async () => {
 const PHONE = { width: 390, height: 844 };
 
 async function openFuelDemo(viewport: { width: number; height: number }): Promise<{ page: Page; errors: string[]; close: () => Promise<void> }> {
-  const context = await browser.newContext({ viewport, deviceScaleFactor: 1, hasTouch: true, serviceWorkers: 'block' });
-  const page = await context.newPage();
-  const errors: string[] = [];
-  page.on('pageerror', (e) => errors.push(e.message));
-  await page.goto(inject('baseUrl'));
-  await page.waitForSelector('.dg-mark-source');
-  const ok = page.locator('button', { hasText: /^OK$/ });
-  if (await ok.isVisible().catch(() => false)) await ok.click();
-  await page.selectOption('select.dg-demo', 'fuel-release-farm-well.json');
-  await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === 2);
-  await page.locator('#sec-uncertainty button').click();
-  return { page, errors, close: () => context.close() };
-}
-
-async function setNumber(page: Page, label: string, value: number): Promise<void> {
-  const input = page.getByLabel(label, { exact: true });
-  await input.fill(String(value));
-  await input.press('Tab');
+  const opened = await openDemoPage(browser, 'fuel-release-farm-well.json', viewport);
+  await opened.page.locator('#sec-uncertainty button').click();
+  return opened;
 }
 
 describe('How sure is it? (Monte Carlo in web workers)', () => {

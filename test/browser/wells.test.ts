@@ -10,7 +10,7 @@ import type { Browser, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
 import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
 import { axe } from './axe-helpers';
-import { openFiles } from './offline-helpers';
+import { openDemoPage, openFiles, setNumber } from './offline-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { screenCase } from '../../src/case/screen';
 import { runCaseParticles } from '../../src/case/particles';
@@ -26,24 +26,9 @@ afterAll(async () => {
 const PHONE = { width: 390, height: 844 };
 
 async function openRiverside(viewport: { width: number; height: number }): Promise<{ page: Page; errors: string[]; close: () => Promise<void> }> {
-  const context = await browser.newContext({ viewport, deviceScaleFactor: 1, hasTouch: true, serviceWorkers: 'block' });
-  const page = await context.newPage();
-  const errors: string[] = [];
-  page.on('pageerror', (e) => errors.push(e.message));
-  await page.goto(inject('baseUrl'));
-  await page.waitForSelector('.dg-mark-source');
-  const ok = page.locator('button', { hasText: /^OK$/ });
-  if (await ok.isVisible().catch(() => false)) await ok.click();
-  await page.selectOption('select.dg-demo', 'riverside-supply-well.json');
-  await page.waitForFunction(() => document.querySelectorAll('[data-testid=receptor-table] tbody tr').length === 2);
-  await page.waitForSelector('path.dg-capture-zone', { state: 'attached' });
-  return { page, errors, close: () => context.close() };
-}
-
-async function setNumber(page: Page, label: string, value: number): Promise<void> {
-  const input = page.getByLabel(label, { exact: true });
-  await input.fill(String(value));
-  await input.press('Tab');
+  const opened = await openDemoPage(browser, 'riverside-supply-well.json', viewport);
+  await opened.page.waitForSelector('path.dg-capture-zone', { state: 'attached' });
+  return opened;
 }
 
 async function openWells(page: Page): Promise<void> {
