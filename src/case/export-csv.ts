@@ -13,7 +13,9 @@
 import type { Case } from './schema';
 import { otherSolution, type ExportResults } from './export-results';
 import { statusText, type ReceptorFigure } from '../core';
-import { fileNumber } from './numbers';
+import { fileNumber, formatSig } from './numbers';
+import { KIND_LABEL } from './receptorKinds';
+import type { ReceptorKind } from './schema';
 import { fromInternal } from '../core/units';
 
 const time = (v: number | null) => (v === null ? null : fileNumber(v, 'time'));
@@ -82,14 +84,17 @@ const FIGURE_COLUMN: Record<ReceptorFigure, string> = {
 };
 
 
-/** The receptor table; lengths in `lengthUnit` (the case's unit system: m or ft), named in the headers. */
+/**
+ * The receptor table; lengths in `lengthUnit` (the case's unit system: m or ft), named in the
+ * headers; each receptor's kind in the words the screen shows ('Creek, pond or river').
+ */
 export function receptorTableCsv(r: Omit<ExportResults, 'plume'>, lengthUnit: 'm' | 'ft' = 'm'): string {
   const len = (v: number) => fileNumber(v, 'length', fromInternal(v, lengthUnit));
   const rows: Cell[][] = r.receptors.map((x) => {
     const a = x.alternate ?? null;
     return [
       x.name,
-      x.kind,
+      KIND_LABEL[x.kind as ReceptorKind] ?? x.kind,
       len(x.distance),
       len(x.x),
       len(x.y),
@@ -121,19 +126,23 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>, lengthUnit: 'm
   );
 }
 
-/** Breakthrough curves: one row per time, one column per receptor (and the other solution's). */
-export function breakthroughCsv(r: Omit<ExportResults, 'plume'>): string {
+/**
+ * Breakthrough curves: one row per time, one column per receptor (and the other solution's). Each
+ * column names its receptor's distance from the source in `lengthUnit` (the case's system).
+ */
+export function breakthroughCsv(r: Omit<ExportResults, 'plume'>, lengthUnit: 'm' | 'ft' = 'm'): string {
   const times = r.curveTimes ? Array.from(r.curveTimes) : [];
   const alt = otherSolution(r.solution);
   const header: Cell[] = ['time (d)', 'time (yr)'];
   const cols: ArrayLike<number>[] = [];
   for (const x of r.receptors) {
+    const at = `${x.name}, ${formatSig(fromInternal(x.distance, lengthUnit), 4)} ${lengthUnit} from the source`;
     if (x.curve && x.curve.length === times.length) {
-      header.push(`${x.name} (mg/L, ${r.solution})`);
+      header.push(`${at} (mg/L, ${r.solution})`);
       cols.push(x.curve);
     }
     if (x.curveAlternate && x.curveAlternate.length === times.length) {
-      header.push(`${x.name} (mg/L, ${alt})`);
+      header.push(`${at} (mg/L, ${alt})`);
       cols.push(x.curveAlternate);
     }
   }

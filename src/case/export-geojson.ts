@@ -3,8 +3,10 @@
  * and the traced footprint as a polygon), the receptors with their results, the flow arrow, and
  * the monitoring wells with their latest result, and the plume contours at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
  * decimal degrees (RFC 7946 §4), rounded to 7 decimals (about 1 cm; §11.2 discusses precision).
- * Polygon exteriors are counter-clockwise (§3.1.6). Properties are in internal units named in
- * each key (m, d, mg/L). The screening caution rides along as a foreign member of the collection
+ * Polygon exteriors are counter-clockwise (§3.1.6). Properties carry their unit in each key:
+ * lengths and velocities in the case's unit system (m and m/d, or ft and ft/d in a US customary
+ * case: src/case/unitSystem.ts), times in days, concentrations in mg/L; the collection's
+ * `downgradient.units` member names them too. The screening caution rides along as a foreign member of the collection
  * (§6.1) and in each receptor's properties.
  *
  * A case drawn on a local site grid (metres east/north of a datum with no geographic position)
@@ -16,6 +18,9 @@ import { prepareCase } from './prepare';
 import { ringArea } from '../geo/rings';
 import { SOLUTION_LABEL, type ExportResults } from './export-results';
 import { monitoringWellFeatures } from './export-observations';
+import { resultUnit, unitSystem } from './unitSystem';
+import { fileNumber } from './numbers';
+import { fromInternal } from '../core/units';
 
 export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string };
 
@@ -56,6 +61,10 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
   }
   const { derived, toMap } = prepared;
   const features: Feature[] = [];
+  // lengths and velocities in the case's system, the unit in each property's name
+  const lu = resultUnit(c, 'length');
+  const vu = resultUnit(c, 'velocity');
+  const len = (m: number) => fileNumber(m, 'length', fromInternal(m, lu));
 
   features.push(
     feature(
@@ -65,8 +74,8 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
         name: `Release: ${c.contaminant.name}`,
         contaminant: c.contaminant.name,
         'source concentration (mg/L)': prepared.model.c0,
-        'source width across flow (m)': derived.width,
-        'source thickness (m)': prepared.model.thickness,
+        [`source width across flow (${lu})`]: len(derived.width),
+        [`source thickness (${lu})`]: len(prepared.model.thickness),
       },
     ),
   );
@@ -97,7 +106,7 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
                 'peak (mg/L)': r.peak.c,
                 'time of peak (d)': r.peak.t,
                 'steady state (mg/L)': r.steady,
-                'distance from source (m)': r.distance,
+                [`distance from source (${lu})`]: len(r.distance),
               }
             : { result: null }),
         },
@@ -130,8 +139,8 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
         name: 'Groundwater flow direction',
         'azimuth (degrees clockwise from north)': derived.azimuthDeg,
         'hydraulic gradient': derived.gradient,
-        'seepage velocity (m/d)': derived.v,
-        'arrow length (m)': reach,
+        [`seepage velocity (${vu})`]: fileNumber(derived.v, 'velocity', fromInternal(derived.v, vu)),
+        [`arrow length (${lu})`]: len(reach),
       },
     ),
   );
@@ -163,6 +172,8 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
       exported: (opts.exported ?? new Date()).toISOString(),
       appVersion: opts.appVersion ?? null,
       limit_mg_L: results?.limit ?? null,
+      unitSystem: unitSystem(c) === 'US' ? 'US customary' : 'SI',
+      units: { length: lu, velocity: vu, time: 'd', concentration: 'mg/L' },
       solution: results ? SOLUTION_LABEL[results.solution] : null,
       caution: results?.caution ?? null,
     },

@@ -5,7 +5,10 @@
  * wells with their latest result of the compared analyte.
  */
 import type { Feature } from 'geojson';
-import type { Case } from './schema';
+import type { Case, Quantity } from './schema';
+import { resultUnit } from './unitSystem';
+import { fileNumber } from './numbers';
+import { convert, toInternal } from '../core/units';
 import { csvRecords, type Cell } from './export-csv';
 import { comparedAnalyte, resultMgL, wellSeries } from './monitoring';
 
@@ -50,6 +53,9 @@ export function observationsCsv(c: Case): string {
 /** GeoJSON points of the placed monitoring wells with their latest result of the compared analyte. */
 export function monitoringWellFeatures(c: Case, round: (p: readonly number[]) => number[]): Feature[] {
   const analyte = comparedAnalyte(c.monitoring, c.contaminant.name);
+  // screen depths in the case's length unit (m or ft), named in the key
+  const lu = resultUnit(c, 'length');
+  const depth = (q: Quantity) => fileNumber(toInternal(q.value, q.unit), 'length', convert(q.value, q.unit, lu));
   const out: Feature[] = [];
   for (const w of c.monitoring.wells) {
     if (!w.position) continue;
@@ -61,8 +67,8 @@ export function monitoringWellFeatures(c: Case, round: (p: readonly number[]) =>
       properties: {
         role: 'monitoring-well',
         name: w.name,
-        'screen top (m below water table)': w.screenTop.value,
-        'screen bottom (m below water table)': w.screenBottom.value,
+        [`screen top (${lu} below water table)`]: depth(w.screenTop),
+        [`screen bottom (${lu} below water table)`]: depth(w.screenBottom),
         analyte,
         'sampling rounds': series.length,
         'latest date': last?.date ?? null,

@@ -80,3 +80,64 @@ export function withUnitSystem(c: Case, system: UnitSystem): Case['units'] {
 export function withFieldUnit(c: Case, field: string, unit: string): Case['units'] {
   return { system: unitSystem(c), fields: { ...(c.units?.fields ?? {}), [field]: unit } };
 }
+
+/** A length of a map's grid or scale bar, in the system's unit: its metres and its label. */
+export interface ScaleLength {
+  metres: number;
+  label: string;
+}
+
+/** The smallest 1, 2, 5 × 10ⁿ at or above `target` (in the same unit). */
+function niceAtLeast(target: number): number {
+  const p = 10 ** Math.floor(Math.log10(target));
+  for (const m of [1, 2, 5, 10]) if (m * p >= target * (1 - 1e-12)) return m * p;
+  return 10 * p;
+}
+
+/**
+ * The length unit of maps, scale bars and position fields: SI metres (kilometres from 1000 m up),
+ * US customary feet (miles from a mile up). Feet: NIST SP 811 (2008) Appendix B, 0.3048 m exactly.
+ */
+export function mapLengthUnit(system: UnitSystem): { unit: 'm' | 'ft'; metres: number; big: 'km' | 'mi'; perBig: number } {
+  return system === 'US' ? { unit: 'ft', metres: UNITS.ft.factor, big: 'mi', perBig: 5280 } : { unit: 'm', metres: 1, big: 'km', perBig: 1000 };
+}
+
+/**
+ * A grid or scale label: "250 m", "2 km", "500 ft", "1 mi"; zero within round-off is 0. Counted in
+ * kilometres or miles only when the step is a whole number of them (a 10,000 ft grid stays in ft).
+ */
+export function scaleLabel(metres: number, system: UnitSystem, step = Math.abs(metres)): string {
+  const u = mapLengthUnit(system);
+  const v = metres / u.metres;
+  const s = step / u.metres;
+  const whole = Math.abs(s / u.perBig - Math.round(s / u.perBig)) < 1e-9;
+  if (s >= u.perBig && whole) return `${Number((v / u.perBig).toPrecision(6))} ${u.big}`;
+  const digits = s < 1 ? 1 : 0;
+  return `${Math.abs(v) < 1e-9 * Math.max(s, 1) ? 0 : Number(v.toFixed(digits))} ${u.unit}`;
+}
+
+/** The shortest 1-2-5 length at least `targetMetres` long in the system's unit (a scale bar). */
+export function niceScaleLength(targetMetres: number, system: UnitSystem): ScaleLength {
+  const u = mapLengthUnit(system);
+  const t = targetMetres / u.metres;
+  // past a mile or a kilometre, count in miles or kilometres
+  const inUnits = t >= u.perBig ? niceAtLeast(t / u.perBig) * u.perBig : niceAtLeast(t);
+  const metres = inUnits * u.metres;
+  return { metres, label: scaleLabel(metres, system) };
+}
+
+/** A grid step: about `span / count` rounded to 1, 2, 5 × 10ⁿ of the system's unit, in metres. */
+export function gridStep(spanMetres: number, count: number, system: UnitSystem): number {
+  const u = mapLengthUnit(system);
+  return niceAtLeast(spanMetres / u.metres / Math.max(1, count)) * u.metres;
+}
+
+/** A length in metres as a position field of the system shows it (m or ft), rounded to 2 decimals. */
+export function positionShown(metres: number, system: UnitSystem): number {
+  return Number((metres / mapLengthUnit(system).metres).toFixed(2));
+}
+
+/** A position typed in the system's unit, in metres. */
+export function positionTyped(value: number, system: UnitSystem): number {
+  return value * mapLengthUnit(system).metres;
+}

@@ -24,6 +24,9 @@ import { DEFAULT_PARTICLES, runCaseParticles, type CaseParticles } from '../case
 import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
 import { csvRecords, type Cell } from '../case/export-csv';
+import { resultUnit, unitSystem } from '../case/unitSystem';
+import { fromInternal, UNITS, type Dimension } from '../core/units';
+import { KIND_LABEL } from '../case/receptorKinds';
 import { observationSummary, observationsCsvRows, observationsJson, observationsTable, fitJson, fitLines } from './observations';
 import { FIT_PARAMETERS, adoptFitAsVariant, fitCase, type FitParameter, type FitResult } from '../case/fit';
 import { applyImport, importObservationsCsv } from '../case/observations-import';
@@ -86,10 +89,12 @@ Particles (--method particles, --particles N from 100 to 5000000, default ${DEFA
   the limit; for a pumping well, the concentration of the water it pumps.
 
 Formats:
-  table  (default) readable text; times in years, lengths in m, concentrations in mg/L
-  json   every figure in internal units (m, d, mg/L), with a "units" key
-  csv    one row per receptor, units in the column names, internal units; the caution as the
-         last record
+  table  (default) readable text; times in years, lengths and velocities in the case's unit
+         system (m, m/d; or ft, ft/d in a US customary case), concentrations in mg/L
+  json   every figure in fixed internal units (m, d, mg/L) whatever the case's system, with a
+         "units" key
+  csv    one row per receptor, units in the column names: lengths and pumping rates in the
+         case's unit system, times in days, concentrations in mg/L; the caution as the last record
 
 Exit codes: 0 screened, 2 bad arguments, 3 file cannot be read, 4 not a valid case file,
 5 a value outside its accepted range, 1 unexpected failure.
@@ -164,8 +169,19 @@ export function sig(x: number, digits = 3): string {
   return String(Number(x.toPrecision(digits)));
 }
 const years = (d: number) => sig(d / YR);
-/** a position in metres; rounding noise below a centimetre shows as 0 */
-const metres = (x: number) => (Math.abs(x) < 0.005 ? '0' : sig(x));
+
+/**
+ * Figures in the case's unit system (src/case/unitSystem.ts) for the table and csv formats: `of`
+ * a value in internal units, `text` with three significant digits (a length's rounding noise below
+ * a centimetre shows as 0), `label` the unit as written. JSON keeps the contract's fixed units.
+ */
+function unitsOfCase(c: Case) {
+  const unit = (d: Dimension) => resultUnit(c, d);
+  const of = (v: number, d: Dimension) => fromInternal(v, unit(d));
+  const label = (d: Dimension) => UNITS[unit(d)].label;
+  const text = (v: number, d: Dimension, digits = 3) => (d === 'length' && Math.abs(v) < 0.005 ? '0' : sig(of(v, d), digits));
+  return { unit, of, label, text };
+}
 /** a concentration, with enough digits that a value near the limit is not rounded onto it */
 function conc(c: number, limit: number): string {
   if (c > 0 && Math.abs(c / limit - 1) < 0.01) return sig(c, 5);
@@ -249,8 +265,12 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   const p = s.prepared;
   const d = p.derived;
   const m = p.model;
+  const un = unitsOfCase(c);
+  const len = (v: number, digits?: number) => `${un.text(v, 'length', digits)} ${un.label('length')}`;
+  const vel = (v: number) => `${un.text(v, 'velocity')} ${un.label('velocity')}`;
   const L: string[] = [];
   L.push(`Downgradient screening: ${c.name}`);
+  L.push(`Units: ${unitSystem(c) === 'US' ? 'US customary' : 'SI'} (lengths in ${un.label('length')}, times in years unless said, concentrations in mg/L)`);
   L.push(`Case file: ${source}`);
   L.push(`Contaminant: ${c.contaminant.name}   source ${sig(m.c0)} mg/L   limit ${sig(p.limit)} mg/L`);
   if (c.contaminant.limitNote) L.push(...wrap(`Limit note: ${c.contaminant.limitNote}`, 96));
@@ -261,9 +281,9 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   const disp =
     d.dispersivityRelation.mode === 'given'
       ? 'given'
-      : `${d.dispersivityRelation.citation}, scaled from ${sig(d.dispersivityRelation.scaleDistance ?? 0)} m; αT = ${d.dispersivityRelation.transverseRatio}·αL, αV = ${d.dispersivityRelation.verticalRatio}·αL`;
+      : `${d.dispersivityRelation.citation}, scaled from ${len(d.dispersivityRelation.scaleDistance ?? 0)}; αT = ${d.dispersivityRelation.transverseRatio}·αL, αV = ${d.dispersivityRelation.verticalRatio}·αL`;
   const flow = d.headFit
-    ? `fitted to ${d.headFit.residuals.length} head readings, largest residual ${sig(Math.max(...d.headFit.residuals.map(Math.abs)))} m`
+    ? `fitted to ${d.headFit.residuals.length} head readings, largest residual ${len(Math.max(...d.headFit.residuals.map(Math.abs)))}`
     : 'given';
   const decay =
     m.decay > 0
@@ -271,15 +291,15 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
       : 'none';
   const kv: [string, string][] = [
     ['flow direction, gradient', `towards ${sig(d.azimuthDeg, 4)}° from north, i = ${sig(d.gradient)} (${flow})`],
-    ['hydraulic conductivity K', `${sig(d.K)} m/d`],
-    ['seepage velocity v = K·i/nₑ', `${sig(d.v)} m/d (${sig(d.v * YR)} m/yr)`],
+    ['hydraulic conductivity K', `${un.text(d.K, 'conductivity')} ${un.label('conductivity')}`],
+    ['seepage velocity v = K·i/nₑ', `${vel(d.v)} (${un.text(d.v * YR, 'velocity')} ${un.label('length')}/yr)`],
     ['Kd', `${sig(d.kd)} L/kg${c.contaminant.sorption.mode === 'koc' ? ' (Koc·foc)' : ' (given)'}`],
-    ['bulk density ρb', `${sig(d.bulkDensity)} g/cm³${d.bulkDensityEstimated ? ' (2.65·(1 − n), common practice)' : ' (given)'}`],
-    ['retardation R = 1 + ρb·Kd/n', `${sig(d.R, 4)}  → contaminant velocity v/R = ${sig(d.v / d.R)} m/d`],
-    ['dispersivity αL / αT / αV', `${sig(d.ax)} / ${sig(d.ay)} / ${sig(d.az)} m (${disp})`],
-    ['molecular diffusion De', d.diffusion > 0 ? `${sig(d.diffusion)} m²/d (D0·τ)` : 'not included'],
+    ['bulk density ρb', `${un.text(d.bulkDensity, 'density')} ${un.label('density')}${d.bulkDensityEstimated ? ' (2.65·(1 − n), common practice)' : ' (given)'}`],
+    ['retardation R = 1 + ρb·Kd/n', `${sig(d.R, 4)}  → contaminant velocity v/R = ${vel(d.v / d.R)}`],
+    ['dispersivity αL / αT / αV', `${un.text(d.ax, 'length')} / ${un.text(d.ay, 'length')} / ${len(d.az)} (${disp})`],
+    ['molecular diffusion De', d.diffusion > 0 ? `${un.text(d.diffusion, 'diffusion')} ${un.label('diffusion')} (D0·τ)` : 'not included'],
     ['first-order decay λ', decay],
-    ['source plane', `width ${sig(d.width)} m${d.widthFromFootprint ? ' (across-flow extent of the footprint)' : ''}, thickness ${sig(m.thickness)} m`],
+    ['source plane', `width ${len(d.width)}${d.widthFromFootprint ? ' (across-flow extent of the footprint)' : ''}, thickness ${len(m.thickness)}`],
     [
       'source',
       `${m.duration === Infinity ? 'continuous' : `released for ${years(m.duration)} yr`}${m.sourceDecay > 0 ? `, halving every ${years(Math.LN2 / m.sourceDecay)} yr` : ', constant'}`,
@@ -288,8 +308,8 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
       'plume length to the limit',
       (p.viewTime === Infinity
         ? ''
-        : `${s.plumeLength.atViewTime === null ? 'none' : sig(s.plumeLength.atViewTime) + ' m'} at ${years(p.viewTime)} yr; `) +
-        `${s.plumeLength.steady === null ? 'none at steady state' : sig(s.plumeLength.steady) + ' m at steady state'} (centreline, depth ${sig(p.depth)} m)`,
+        : `${s.plumeLength.atViewTime === null ? 'none' : len(s.plumeLength.atViewTime)} at ${years(p.viewTime)} yr; `) +
+        `${s.plumeLength.steady === null ? 'none at steady state' : len(s.plumeLength.steady) + ' at steady state'} (centreline, depth ${len(p.depth)})`,
     ],
   ];
   L.push(...pad(kv.map(([k, v]) => ['  ' + k, v])));
@@ -297,13 +317,14 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   L.push(`Receptors (x downgradient of the source plane, y across the flow, screen depth below the water table)`);
   if (!s.results.length) L.push('  none in this case');
   else {
-    const head = ['  name', 'kind', 'x (m)', 'y (m)', 'screen (m)', 'arrival at limit', 'C at horizon (mg/L)', 'peak (mg/L) at (yr)', 'status'];
+    const lu = un.label('length');
+    const head = ['  name', 'kind', `x (${lu})`, `y (${lu})`, `screen (${lu})`, 'arrival at limit', 'C at horizon (mg/L)', 'peak (mg/L) at (yr)', 'status'];
     const rows = s.results.map(({ receptor: r, result: x }) => [
       '  ' + (r.name || r.id),
-      r.kind,
-      metres(r.x),
-      metres(r.y),
-      `${metres(r.zTop)}–${metres(r.zBottom)}`,
+      KIND_LABEL[r.kind],
+      un.text(r.x, 'length'),
+      un.text(r.y, 'length'),
+      `${un.text(r.zTop, 'length')}–${un.text(r.zBottom, 'length')}`,
       arrivalText(x.arrival, x.status),
       conc(x.atHorizon, p.limit),
       `${conc(x.peak.c, p.limit)} at ${years(x.peak.t)}`,
@@ -325,15 +346,15 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   }
   if (s.captures.length) {
     L.push('');
-    L.push(`Pumping wells (steady flow with ${s.wells.boundaries.length ? `${s.wells.boundaries.length} boundary line(s), ` : ''}saturated thickness ${sig(s.wells.thickness ?? 0)} m)`);
-    const head = ['  well', 'rate (m³/d)', 'captures the source', 'share of source width', 'travel time from source', 'J&T width far upgradient (m)'];
+    L.push(`Pumping wells (steady flow with ${s.wells.boundaries.length ? `${s.wells.boundaries.length} boundary line(s), ` : ''}saturated thickness ${len(s.wells.thickness ?? 0)})`);
+    const head = ['  well', `rate (${un.label('flowRate')})`, 'captures the source', 'share of source width', 'travel time from source', `J&T width far upgradient (${un.label('length')})`];
     const rows = s.captures.map((w) => [
       '  ' + (s.results[w.receptorIndex].receptor.name || w.receptorId),
-      sig(w.rate),
+      un.text(w.rate, 'flowRate'),
       w.capturesSource ? 'YES' : 'no',
       `${sig(100 * w.sourceShare, 3)} %`,
       w.travelTimeFromSource === null ? '–' : `${years(w.travelTimeFromSource)} yr (water ${years(w.waterTravelTime as number)} yr)`,
-      w.singleWell ? sig(w.singleWell.widthFarUpgradient) : '–',
+      w.singleWell ? un.text(w.singleWell.widthFarUpgradient, 'length') : '–',
     ]);
     L.push(...pad([head, ...rows]));
     L.push('  (travel time: advective, contaminant = water × R; J&T: Javandel & Tsang 1986 for the well alone in the regional flow)');
@@ -486,26 +507,30 @@ function formatJson(c: Case, s: ScreeningResult, source: string, u: UncertaintyR
   return JSON.stringify(out, null, 2) + '\n';
 }
 
-/** One row per receptor (RFC 4180 via the app's CSV writer, numbers unrounded in internal units,
- * units in the column names), then the caution as a final record, as in the app's CSV exports. */
+/** One row per receptor (RFC 4180 via the app's CSV writer, numbers unrounded, lengths and pumping
+ * rates in the case's unit system and times in days, concentrations in mg/L, units in the column
+ * names), then the caution as a final record, as in the app's CSV exports. */
 function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null, pt: CaseParticles | null = null): string {
+  const un = unitsOfCase(c);
+  const lu = un.unit('length');
+  const qu = un.unit('flowRate') === 'gpm' ? 'gal_per_min' : 'm3_per_d';
   const head: Cell[] = [
-    'id', 'name', 'kind', 'x_m', 'y_m', 'distance_m', 'screen_top_m', 'screen_bottom_m', 'solution', 'arrival_d',
+    'id', 'name', 'kind', `x_${lu}`, `y_${lu}`, `distance_${lu}`, `screen_top_${lu}`, `screen_bottom_${lu}`, 'solution', 'arrival_d',
     'c_horizon_mg_per_L', 'peak_mg_per_L', 'peak_time_d', 'steady_mg_per_L', 'status', 'limit_mg_per_L', 'horizon_d',
     'other_solution', 'other_status', 'other_arrival_d', 'other_c_horizon_mg_per_L', 'other_peak_mg_per_L', 'other_peak_time_d', 'relative_difference',
     'solutions_differ_in',
-    'pumping_rate_m3_per_d', 'captures_source', 'travel_time_from_source_d',
+    `pumping_rate_${qu}`, 'captures_source', 'travel_time_from_source_d',
     ...(pt ? ['particles_n', 'particles_seed', 'particles_c_horizon_mg_per_L', 'particles_standard_error_mg_per_L', 'particles_arrival_d', 'particles_estimator'] : []),
     ...(u ? UNCERTAINTY_COLUMNS : []),
   ];
   const rows: Cell[][] = s.results.map(({ receptor: r, result: x }) => {
     const a = x.alternate;
     return [
-      r.id, r.name, r.kind, r.x, r.y, r.distance, r.zTop, r.zBottom, x.solution, x.arrival, x.atHorizon, x.peak.c, x.peak.t,
+      r.id, r.name, r.kind, ...[r.x, r.y, r.distance, r.zTop, r.zBottom].map((v) => un.of(v, 'length')), x.solution, x.arrival, x.atHorizon, x.peak.c, x.peak.t,
       x.steady, x.status, s.prepared.limit, s.prepared.horizon,
       a?.solution ?? null, a?.status ?? null, a?.arrival ?? null, a?.atHorizon ?? null, a?.peak.c ?? null, a?.peak.t ?? null, a?.relDiff ?? null,
       a ? a.differing.join(' ') : null,
-      ...wellCells(s, s.results.findIndex((q) => q.receptor === r)),
+      ...wellCells(s, s.results.findIndex((q) => q.receptor === r), (q) => un.of(q, 'flowRate')),
       ...(pt ? particleCells(pt, s.results.findIndex((q) => q.receptor === r)) : []),
       ...(u ? uncertaintyCells(u, s.results.findIndex((q) => q.receptor === r)) : []),
     ];
@@ -518,9 +543,9 @@ function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null, pt:
   return csvRecords([head, ...rows, ...inputs, ...(obs ? observationsCsvRows(obs, head.length) : []), caution]);
 }
 
-function wellCells(s: ScreeningResult, j: number): Cell[] {
+function wellCells(s: ScreeningResult, j: number, rate: (q: number) => number): Cell[] {
   const w = s.captures.find((q) => q.receptorIndex === j);
-  return w ? [w.rate, w.capturesSource ? 'true' : 'false', w.travelTimeFromSource] : [null, null, null];
+  return w ? [rate(w.rate), w.capturesSource ? 'true' : 'false', w.travelTimeFromSource] : [null, null, null];
 }
 
 function particleCells(pt: CaseParticles, j: number): Cell[] {

@@ -113,6 +113,24 @@ describe('screening tables', () => {
     expect(Math.abs(Number(rows[k][2]) / last - 1)).toBeLessThanOrEqual(5e-10); // 10 significant digits
   });
 
+  it('receptor kinds in the words the screen shows, never the codes (issue 13 item 3)', () => {
+    const rows = readRfc4180(receptorTableCsv(exportResultsFor(demoCase('solvent-release-creek.json'))));
+    const kinds = rows.slice(1, -1).map((row) => row[1]);
+    expect(kinds).toContain('Creek, pond or river');
+    for (const k of kinds) expect(k).not.toMatch(/^(well|spring|surface-water|property-line|other)$/);
+  });
+
+  it('breakthrough curves in a US customary case: each column names its receptor\'s distance in ft (issue 13 item 4)', () => {
+    const ft = readRfc4180(breakthroughCsv(r, 'ft'))[0];
+    const m = readRfc4180(breakthroughCsv(r))[0];
+    const d = r.receptors[0].distance;
+    // foot = 0.3048 m exactly (NIST SP 811 (2008), Appendix B); 4 significant digits in a header
+    expect(m[2]).toBe(`${r.receptors[0].name}, ${Number(d.toPrecision(4))} m from the source (mg/L, ${r.solution})`);
+    expect(ft[2]).toBe(`${r.receptors[0].name}, ${Number((d / 0.3048).toPrecision(4))} ft from the source (mg/L, ${r.solution})`);
+    // times and concentrations are the same numbers in both systems (days, mg/L)
+    expect(readRfc4180(breakthroughCsv(r, 'ft')).slice(1)).toEqual(readRfc4180(breakthroughCsv(r)).slice(1));
+  });
+
   it("receptor table: the other solution's result and figures beside the chosen one's, and which figures differ", () => {
     const n = exportResultsFor(demoCase('nitrate-field-supply.json'));
     const rows = readRfc4180(receptorTableCsv(n));

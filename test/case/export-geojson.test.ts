@@ -81,3 +81,41 @@ describe('caseToGeoJSON', () => {
     if (!r.ok) expect(r.error).toMatch(/Effective porosity nₑ 1\.5 is not accepted: enter a value above 0 and below 1/);
   });
 });
+
+describe('caseToGeoJSON in a US customary case (issue 13 item 4)', () => {
+  const si = demoCase('fuel-release-farm-well.json');
+  const c = { ...si, units: { system: 'US' as const, fields: {} } };
+  const results = exportResultsFor(si);
+  const out = caseToGeoJSON(c, results, { exported: new Date('2026-12-01T00:00:00Z') });
+
+  it('writes lengths in ft and the seepage velocity in ft/d, the unit in each property name', () => {
+    if (!out.ok) throw new Error(out.error);
+    const rec = out.geojson.features.find((f) => f.properties?.name === si.site.receptors[0].name)!.properties!;
+    expect(rec['distance from source (m)']).toBeUndefined();
+    // foot = 0.3048 m exactly (NIST SP 811 (2008), Appendix B); files keep 10 significant digits
+    expect(Math.abs((rec['distance from source (ft)'] * 0.3048) / results.receptors[0].distance - 1)).toBeLessThanOrEqual(5e-10);
+    const flow = out.geojson.features.find((f) => f.properties?.role === 'flow-direction')!.properties!;
+    expect(flow['seepage velocity (ft/d)']).toBeGreaterThan(0);
+    const siOut = caseToGeoJSON(si, results);
+    if (!siOut.ok) throw new Error(siOut.error);
+    const siFlow = siOut.geojson.features.find((f) => f.properties?.role === 'flow-direction')!.properties!;
+    expect(Math.abs((flow['seepage velocity (ft/d)'] * 0.3048) / siFlow['seepage velocity (m/d)'] - 1)).toBeLessThanOrEqual(5e-10);
+    const src = out.geojson.features.find((f) => f.properties?.role === 'source')!.properties!;
+    expect(Object.keys(src)).toContain('source width across flow (ft)');
+    // times and concentrations stay in days and mg/L; the collection names the units
+    expect(rec['first reaches limit (d)']).toBe(results.receptors[0].arrival);
+    const meta = (out.geojson as unknown as { downgradient: { unitSystem: string; units: Record<string, string> } }).downgradient;
+    expect(meta.unitSystem).toBe('US customary');
+    expect(meta.units).toEqual({ length: 'ft', velocity: 'ft/d', time: 'd', concentration: 'mg/L' });
+    expect(getIssues(out.text)).toEqual([]);
+  });
+
+  it('keeps metres in an SI case', () => {
+    const siOut = caseToGeoJSON(si, results);
+    if (!siOut.ok) throw new Error(siOut.error);
+    const meta = (siOut.geojson as unknown as { downgradient: { units: Record<string, string> } }).downgradient;
+    expect(meta.units.length).toBe('m');
+    const rec = siOut.geojson.features.find((f) => f.properties?.role === 'receptor')!.properties!;
+    expect(Object.keys(rec)).toContain('distance from source (m)');
+  });
+});

@@ -5,7 +5,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { fieldUnit, resultUnit, shownQuantity, unitSystem, withFieldUnit, withUnitSystem } from '../../src/case/unitSystem';
+import { fieldUnit, gridStep, niceScaleLength, positionShown, positionTyped, resultUnit, scaleLabel, shownQuantity, unitSystem, withFieldUnit, withUnitSystem } from '../../src/case/unitSystem';
 import { parseCaseFile, serializeCase } from '../../src/case/io';
 import { prepareCase } from '../../src/case/prepare';
 import type { Case } from '../../src/case/schema';
@@ -72,5 +72,31 @@ describe('unit system', () => {
     c.units = withFieldUnit({ ...c, units: withUnitSystem(c, 'US') }, 'source.thickness', 'm');
     const back = parseCaseFile(serializeCase(c));
     expect(back.ok && back.case.units).toEqual({ system: 'US', fields: { 'source.thickness': 'm' } });
+  });
+
+  test('map scales, grids and positions in the system: m and km, or ft and mi (NIST SP 811: ft = 0.3048 m)', () => {
+    expect(scaleLabel(250, 'SI')).toBe('250 m');
+    expect(scaleLabel(2000, 'SI')).toBe('2 km');
+    expect(scaleLabel(3.048 * 50, 'US')).toBe('500 ft');
+    expect(scaleLabel(5280 * 0.3048, 'US')).toBe('1 mi');
+    // a grid line at 10,000 ft on a 5,000 ft step stays in ft; round-off at the datum reads 0
+    expect(scaleLabel(10000 * 0.3048, 'US', 5000 * 0.3048)).toBe('10000 ft');
+    expect(scaleLabel(1e-13, 'US', 100 * 0.3048)).toBe('0 ft');
+    expect(scaleLabel(-400, 'SI', 200)).toBe('-400 m');
+    // scale bars: the shortest 1-2-5 length at least as long as asked
+    expect(niceScaleLength(130, 'SI')).toEqual({ metres: 200, label: '200 m' });
+    expect(niceScaleLength(130, 'US')).toEqual({ metres: 500 * 0.3048, label: '500 ft' });
+    expect(niceScaleLength(1000, 'US')).toEqual({ metres: 5000 * 0.3048, label: '5000 ft' });
+    // past a mile (2000 m = 1.24 mi), counted in miles
+    expect(niceScaleLength(2000, 'US')).toEqual({ metres: 2 * 5280 * 0.3048, label: '2 mi' });
+    expect(niceScaleLength(2000, 'SI')).toEqual({ metres: 2000, label: '2 km' });
+    expect(niceScaleLength(6000, 'US')).toEqual({ metres: 5 * 5280 * 0.3048, label: '5 mi' });
+    // grid steps are whole 1-2-5 numbers of the unit
+    expect(gridStep(1000, 5, 'SI')).toBe(200);
+    expect(gridStep(1000, 5, 'US') / 0.3048).toBeCloseTo(1000, 9);
+    // positions: shown to the centimetre (or hundredth of a foot), typed back in metres
+    expect(positionShown(30.48, 'US')).toBe(100);
+    expect(positionTyped(100, 'US')).toBeCloseTo(30.48, 12);
+    expect(positionShown(12.345, 'SI')).toBe(12.35);
   });
 });

@@ -137,6 +137,31 @@ describe('formats', () => {
     expect(Number(cells[header.indexOf('x_m')])).toBe(s.results[0].receptor.x);
   });
 
+  test('a US customary case: table and csv in ft and ft/d, json in the fixed units (issue 13 item 4)', () => {
+    const c = JSON.parse(readFileSync(demo('fuel-release-farm-well'), 'utf8'));
+    c.units = { system: 'US', fields: {} };
+    const f = writeCase('us.json', JSON.stringify(c));
+    const s = screened(demo('fuel-release-farm-well'));
+    // foot = 0.3048 m exactly (NIST SP 811 (2008), Appendix B)
+    const table = run(f);
+    expect(table.code).toBe(0);
+    expect(table.out).toContain('Units: US customary');
+    expect(table.out).toContain('x (ft)');
+    // 0.192 m/d (the SI table test above) = 0.192 / 0.3048 = 0.630 ft/d
+    expect(table.out).toMatch(/seepage velocity v = K·i\/nₑ\s+0\.63 ft\/d/);
+    expect(table.out).not.toMatch(/\bm\/d\b/);
+    const rows = run(f, '--format', 'csv').out.split('\r\n').filter(Boolean);
+    const header = rows[0].split(',');
+    expect(header).toContain('x_ft');
+    expect(header).not.toContain('x_m');
+    const x = Number(rows[1].split(',')[header.indexOf('x_ft')]);
+    expect(Math.abs((x * 0.3048) / s.results[0].receptor.x - 1)).toBeLessThan(1e-12);
+    // JSON: the contract's fixed units (m, d, mg/L) whatever the case's system
+    const j = JSON.parse(run(f, '--format', 'json').out);
+    expect(j.units.length).toBe('m');
+    expect(JSON.stringify(j)).not.toContain('"ft"');
+  });
+
   test('every demo case screens in every format (exit 0)', () => {
     for (const f of ['fuel-release-farm-well', 'solvent-release-creek', 'nitrate-field-supply', 'v1-compact-example'])
       for (const fmt of ['table', 'json', 'csv']) expect(run(demo(f), '--format', fmt).code, `${f} ${fmt}`).toBe(0);

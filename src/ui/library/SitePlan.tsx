@@ -1,13 +1,14 @@
 /**
  * A plan of the site for the printed report, drawn in SVG from the case and its results: plume
  * contours, the release (point and footprint), the receptors with their names, the flow arrow,
- * a scale bar and north. Drawn in local metres east/north of the datum (the geographic frame's
+ * a scale bar (in the case's unit system: m/km or ft/mi) and north. Drawn in local metres east/north of the datum (the geographic frame's
  * tangent plane), north up, one scale in both directions. The basemap is not printed: tiles may
  * be missing offline and their terms differ by server. The release and receptors are the map's
  * own symbols (map/markShapes.ts), each receptor filled with its status colour as on the map;
  * names sit beside their mark on whichever side keeps them inside the plan; a legend under it
  * shows each symbol, colour and band used.
  */
+import { niceScaleLength, unitSystem } from '../../case/unitSystem';
 import type { Case } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import type { PreparedCase } from '../../case/prepare';
@@ -42,12 +43,6 @@ export function labelPlace(x: number, y: number, name: string, width = W, height
   const lx = anchor === 'start' ? Math.min(x + gap, Math.max(4, width - 4 - w)) : x - gap;
   const ly = y - 10 < 14 ? y + 22 : y - 8;
   return { x: lx, y: Math.min(ly, height - 6), anchor, text };
-}
-
-function niceLength(target: number): number {
-  const p = 10 ** Math.floor(Math.log10(target));
-  for (const m of [1, 2, 5, 10]) if (m * p >= target) return m * p;
-  return 10 * p;
 }
 
 export function SitePlan({ c, prepared, results }: { c: Case; prepared: PreparedCase | null; results: Evaluation | null }) {
@@ -85,7 +80,8 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
   const X = (e: number) => (e - x0) * s;
   const Y = (n: number) => (y1 - n) * s;
   const path = (ring: [number, number][]) => ring.map((p, i) => `${i ? 'L' : 'M'}${X(p[0]).toFixed(1)} ${Y(p[1]).toFixed(1)}`).join('') + 'Z';
-  const bar = niceLength((W * 0.2) / s);
+  const scale = niceScaleLength((W * 0.2) / s, unitSystem(c));
+  const bar = scale.metres;
   const limit = results?.limit ?? null;
 
   return (
@@ -130,7 +126,7 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
           <line x1="0" y1="-5" x2="0" y2="5" />
           <line x1={bar * s} y1="-5" x2={bar * s} y2="5" />
           <text x={(bar * s) / 2} y="-7" text-anchor="middle">
-            {bar >= 1000 ? `${bar / 1000} km` : `${bar} m`}
+            {scale.label}
           </text>
         </g>
         <g class="dg-plan-north" transform={`translate(${W - 28} 34)`}>

@@ -14,6 +14,9 @@ import type { ExportResults } from '../../case/export-results';
 import type { OutFile } from './download';
 import { APP_VERSION } from './version';
 
+/** Lengths in the exported tables: the case's system (m or ft). */
+const fileLengthUnit = (c: Case): 'm' | 'ft' => (resultUnit(c, 'length') === 'ft' ? 'ft' : 'm');
+
 export type Built = { ok: true; file: OutFile } | { ok: false; error: string };
 
 /** Results belong to this case only if they were computed from its current inputs. */
@@ -43,14 +46,14 @@ export function geojsonFile(c: Case, r: Evaluation | null): Built {
 export function receptorCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Receptor table: ${NOT_READY}` };
-  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res, resultUnit(c, 'length') === 'ft' ? 'ft' : 'm') } };
+  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res, fileLengthUnit(c)) } };
 }
 
 export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Breakthrough curves: ${NOT_READY}` };
   if (res.receptors.length === 0) return { ok: false, error: 'Breakthrough curves: the case has no receptors yet.' };
-  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res) } };
+  return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res, fileLengthUnit(c)) } };
 }
 
 export function observationsCsvFile(c: Case): Built {

@@ -6,9 +6,11 @@
  */
 import type { Case, Quantity } from '../../case/schema';
 import { contaminantPreset, citeValue, provenanceLabel } from '../../case/presets';
-import { toInternal } from '../../core/units';
+import { fromInternal, toInternal, UNITS } from '../../core/units';
 import type { PreparedCase } from '../../case/prepare';
-import { show } from './compare';
+import { resultUnit, shownQuantity } from '../../case/unitSystem';
+import { quantityText, show } from './compare';
+import { roundSig } from '../../case/numbers';
 
 export interface InputRow {
   group: string;
@@ -23,26 +25,35 @@ function near(a: number, b: number): boolean {
   return Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b), 1e-30);
 }
 
-function q(v: Quantity | null, none = 'none'): string {
-  return v === null ? none : show(v);
-}
-
 export function inputRows(c: Case, prepared: PreparedCase | null): InputRow[] {
+  // each quantity as its field shows it: the case's unit system, or the field's own unit
+  // (a converted value to 4 significant digits, so 5 m reads 16.4 ft, not 16.4042 ft)
+  const q = (field: string, v: Quantity | null, none = 'none'): string => {
+    if (v === null) return none;
+    const s = shownQuantity(c, field, v);
+    return s === v ? show(v) : quantityText(roundSig(s.value, 4), s.unit);
+  };
+  // a derived value (internal units) in the unit the case's system shows its dimension in
+  const derived = (v: number, dimension: 'length' | 'density', digits = 4): string => {
+    const u = resultUnit(c, dimension);
+    return quantityText(Number(fromInternal(v, u).toPrecision(digits)), u);
+  };
+  const lengthLabel = UNITS[resultUnit(c, 'length')].label;
   const rows: InputRow[] = [];
   const add = (group: string, input: string, value: string, source = SITE) => rows.push({ group, input, value, source });
   const preset = c.contaminant.presetId ? contaminantPreset(c.contaminant.presetId) : undefined;
 
   add('Release', 'Contaminant', c.contaminant.name, preset ? `preset “${preset.name}”` : SITE);
-  add('Release', 'Source concentration C0', q(c.source.concentration));
-  add('Release', 'Source thickness below the water table', q(c.source.thickness));
+  add('Release', 'Source concentration C0', q('source.concentration', c.source.concentration));
+  add('Release', 'Source thickness below the water table', q('source.thickness', c.source.thickness));
   add(
     'Release',
     'Source width across the flow',
-    prepared?.derived.widthFromFootprint ? `${Number(prepared.derived.width.toPrecision(4))} m` : q(c.site.source.width),
+    prepared?.derived.widthFromFootprint ? derived(prepared.derived.width, 'length') : q('site.source.width', c.site.source.width),
     prepared?.derived.widthFromFootprint ? 'from the traced footprint, measured across the flow direction' : SITE,
   );
-  add('Release', 'Release duration', q(c.source.duration, 'continuous'));
-  add('Release', 'Source half-life', q(c.source.sourceHalfLife, 'constant source'));
+  add('Release', 'Release duration', q('source.duration', c.source.duration, 'continuous'));
+  add('Release', 'Source half-life', q('source.sourceHalfLife', c.source.sourceHalfLife, 'constant source'));
 
   const f = c.site.flow;
   if (f.method === 'direction') {
@@ -54,60 +65,60 @@ export function inputRows(c: Case, prepared: PreparedCase | null): InputRow[] {
   }
 
   const a = c.aquifer;
-  add('Aquifer', 'Hydraulic conductivity K', q(a.hydraulicConductivity));
+  add('Aquifer', 'Hydraulic conductivity K', q('aquifer.hydraulicConductivity', a.hydraulicConductivity));
   add('Aquifer', 'Effective porosity nₑ', show(a.effectivePorosity));
   add('Aquifer', 'Total porosity n', show(a.totalPorosity));
   add(
     'Aquifer',
     'Bulk density ρb',
-    a.bulkDensity ? q(a.bulkDensity) : prepared ? `${Number(prepared.derived.bulkDensity.toPrecision(4))} g/cm³` : 'estimated',
+    a.bulkDensity ? q('aquifer.bulkDensity', a.bulkDensity) : prepared ? derived(prepared.derived.bulkDensity, 'density') : 'estimated',
     a.bulkDensity ? SITE : 'estimated as 2.65 (1 − n) g/cm³ (quartz grains; common practice)',
   );
   add('Aquifer', 'Fraction of organic carbon foc', show(a.fractionOrganicCarbon));
   const d = a.dispersivity;
   if (d.mode === 'given') {
-    add('Aquifer', 'Dispersivity αL / αT / αV', `${show(d.longitudinal)} / ${show(d.transverse)} / ${show(d.vertical)}`);
+    add('Aquifer', 'Dispersivity αL / αT / αV', `${q('aquifer.dispersivity.longitudinal', d.longitudinal)} / ${q('aquifer.dispersivity.transverse', d.transverse)} / ${q('aquifer.dispersivity.vertical', d.vertical)}`);
   } else {
     const dr = prepared?.derived.dispersivityRelation;
-    const est = prepared ? `${[prepared.derived.ax, prepared.derived.ay, prepared.derived.az].map((x) => Number(x.toPrecision(3))).join(' / ')} m` : 'estimated';
+    const est = prepared ? `${[prepared.derived.ax, prepared.derived.ay, prepared.derived.az].map((x) => Number(fromInternal(x, resultUnit(c, 'length')).toPrecision(3))).join(' / ')} ${lengthLabel}` : 'estimated';
     add(
       'Aquifer',
       'Dispersivity αL / αT / αV',
       est,
-      `αL from ${dr?.citation ?? d.relation}${dr?.scaleDistance ? ` at ${Number(dr.scaleDistance.toPrecision(3))} m` : ''}; αT = ${d.transverseRatio}·αL, αV = ${d.verticalRatio}·αL (ratios: common practice)`,
+      `αL from ${dr?.citation ?? d.relation}${dr?.scaleDistance ? ` at ${derived(dr.scaleDistance, 'length', 3)}` : ''}; αT = ${d.transverseRatio}·αL, αV = ${d.verticalRatio}·αL (ratios: common practice)`,
     );
   }
   add(
     'Aquifer',
     'Molecular diffusion',
-    a.diffusion.include ? `${q(a.diffusion.freeWater)} × tortuosity ${a.diffusion.tortuosity}` : 'not included',
+    a.diffusion.include ? `${q('aquifer.diffusion.freeWater', a.diffusion.freeWater)} × tortuosity ${a.diffusion.tortuosity}` : 'not included',
   );
 
   const s = c.contaminant.sorption;
   if (s.mode === 'koc') {
     const koc = toInternal(s.koc.value, s.koc.unit);
     const pub = preset?.koc && near(preset.koc.value, koc) ? citeValue(preset.koc, 'L/kg') : SITE;
-    add('Contaminant', 'Koc (Kd = Koc·foc)', q(s.koc), pub);
+    add('Contaminant', 'Koc (Kd = Koc·foc)', q('contaminant.sorption.koc', s.koc), pub);
   } else {
     const kd = toInternal(s.kd.value, s.kd.unit);
-    add('Contaminant', 'Kd', q(s.kd), preset?.kd && near(preset.kd.value, kd) ? citeValue(preset.kd, 'L/kg') : SITE);
+    add('Contaminant', 'Kd', q('contaminant.sorption.kd', s.kd), preset?.kd && near(preset.kd.value, kd) ? citeValue(preset.kd, 'L/kg') : SITE);
   }
   add(
     'Contaminant',
     'Biodegradation half-life',
-    q(c.contaminant.halfLife, 'no degradation'),
+    q('contaminant.halfLife', c.contaminant.halfLife, 'no degradation'),
     preset?.halfLife ? `${SITE}; published range ${citeValue(preset.halfLife, 'd')}` : SITE,
   );
   add('Contaminant', 'Decay acts on', c.contaminant.decayPhase === 'dissolved-only' ? 'dissolved phase only' : 'dissolved and sorbed mass');
   const limit = toInternal(c.contaminant.limit.value, c.contaminant.limit.unit);
   const lim = preset?.limits.find((l) => near(l.value, limit));
   const limSource = lim ? `example: ${lim.authority} (${lim.source}${provenanceLabel(lim) ? '; ' + provenanceLabel(lim) : ''})` : SITE;
-  add('Contaminant', 'Concentration limit', q(c.contaminant.limit), [limSource, c.contaminant.limitNote].filter(Boolean).join('. '));
+  add('Contaminant', 'Concentration limit', q('contaminant.limit', c.contaminant.limit), [limSource, c.contaminant.limitNote].filter(Boolean).join('. '));
 
   const e = c.evaluation;
   add('Evaluation', 'Solution', e.solution === 'domenico' ? 'Domenico (1987) approximation' : 'exact rectangular-source solution');
-  add('Evaluation', 'Horizon', q(e.horizon));
-  add('Evaluation', 'Map time', q(e.viewTime, 'steady state'));
-  add('Evaluation', 'Map depth below the water table', q(e.depth));
+  add('Evaluation', 'Horizon', q('evaluation.horizon', e.horizon));
+  add('Evaluation', 'Map time', q('evaluation.viewTime', e.viewTime, 'steady state'));
+  add('Evaluation', 'Map depth below the water table', q('evaluation.depth', e.depth));
   return rows;
 }

@@ -1,22 +1,18 @@
 /**
- * The site grid: lines every "nice" number of metres from the site datum, labelled. It is the
+ * The site grid: lines every "nice" number of metres (or feet, in a US customary case) from the
+ * site datum, labelled in the case's unit system (src/case/unitSystem.ts gridStep, scaleLabel). It is the
  * map's background when tiles cannot load (offline, no signal) and in the local-coordinates mode,
  * so work continues with a scale bar and north arrow. It lives in its own SVG under Leaflet's
  * panes (showing through wherever no tile is drawn) and is redrawn on every move so it never lags.
  */
 import * as L from 'leaflet';
-import { niceStep } from '../charts/axes';
+import { gridStep, scaleLabel, type UnitSystem } from '../../case/unitSystem';
 
 export interface GridFrame {
   toEN(ll: L.LatLng): [number, number];
   fromEN(en: [number, number]): L.LatLng;
-}
-
-
-function fmt(v: number, step: number): string {
-  const abs = Math.abs(v);
-  if (step >= 1000) return `${(v / 1000).toFixed(step % 1000 === 0 ? 0 : 1)} km`;
-  return `${abs < 1e-9 ? 0 : v.toFixed(step < 1 ? 1 : 0)} m`;
+  /** the case's unit system, read at each redraw */
+  system(): UnitSystem;
 }
 
 export class SiteGridLayer extends L.Layer {
@@ -66,7 +62,9 @@ export class SiteGridLayer extends L.Layer {
     const ns = corners.map((c) => c[1]);
     const e0 = Math.min(...es), e1 = Math.max(...es), n0 = Math.min(...ns), n1 = Math.max(...ns);
     if (![e0, e1, n0, n1].every(Number.isFinite) || e1 - e0 <= 0) return;
-    const step = niceStep(Math.max(e1 - e0, n1 - n0), size.x < 500 ? 5 : 8);
+    const system = this.frame.system();
+    const step = gridStep(Math.max(e1 - e0, n1 - n0), size.x < 500 ? 5 : 8, system);
+    const fmt = (v: number) => scaleLabel(v, system, step);
     const parts: string[] = [];
     const line = (pts: [number, number][], major: boolean) => {
       const d = pts
@@ -78,20 +76,22 @@ export class SiteGridLayer extends L.Layer {
       parts.push(`<path d="${d}" class="${major ? 'dg-grid-major' : 'dg-grid-minor'}"/>`);
     };
     const samples = 8;
-    for (let e = Math.ceil(e0 / step) * step; e <= e1; e += step) {
+    for (let k = Math.ceil(e0 / step); k * step <= e1; k++) {
+      const e = k * step;
       const pts: [number, number][] = [];
       for (let k = 0; k <= samples; k++) pts.push([e, n0 + ((n1 - n0) * k) / samples]);
       const major = Math.abs(e) < step / 2;
       line(pts, major);
       const p = map.latLngToContainerPoint(this.frame.fromEN([e, n0 + (n1 - n0) * 0.02]));
-      parts.push(`<text x="${(p.x + 4).toFixed(1)}" y="${(size.y - 8).toFixed(1)}" class="dg-grid-label">E ${fmt(e, step)}</text>`);
+      parts.push(`<text x="${(p.x + 4).toFixed(1)}" y="${(size.y - 8).toFixed(1)}" class="dg-grid-label">E ${fmt(e)}</text>`);
     }
-    for (let n = Math.ceil(n0 / step) * step; n <= n1; n += step) {
+    for (let k = Math.ceil(n0 / step); k * step <= n1; k++) {
+      const n = k * step;
       const pts: [number, number][] = [];
       for (let k = 0; k <= samples; k++) pts.push([e0 + ((e1 - e0) * k) / samples, n]);
       line(pts, Math.abs(n) < step / 2);
       const p = map.latLngToContainerPoint(this.frame.fromEN([e0, n]));
-      parts.push(`<text x="6" y="${(p.y - 4).toFixed(1)}" class="dg-grid-label">N ${fmt(n, step)}</text>`);
+      parts.push(`<text x="6" y="${(p.y - 4).toFixed(1)}" class="dg-grid-label">N ${fmt(n)}</text>`);
     }
     svg.innerHTML = parts.join('');
   }

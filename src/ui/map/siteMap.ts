@@ -19,6 +19,9 @@ import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
+import { shownQuantity, unitSystem } from '../../case/unitSystem';
+import { formatSig } from '../../case/numbers';
+import { UNITS } from '../../core/units';
 import { MonitoringLayer } from './monitoringLayer';
 import { ExceedanceLayer } from './exceedanceLayer';
 import { attributionHtml } from './attribution';
@@ -109,6 +112,7 @@ export class SiteMap {
     this.grid = new SiteGridLayer({
       toEN: (ll) => lf.toEN(clampLL(ll, local)),
       fromEN: (en) => toLatLng(lf.fromEN(en)),
+      system: () => unitSystem(currentCase.peek()),
     });
 
     this.footprint = L.polygon([], { className: 'dg-footprint', interactive: false });
@@ -136,6 +140,8 @@ export class SiteMap {
     this.wireGestures();
     this.fitTo(this.frameTargets(c, null));
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
+    // the grid's labels follow the case's unit system
+    this.disposers.push(effect(() => void (unitSystem(currentCase.value) && this.grid.redraw())));
     this.disposers.push(effect(() => guarded('marks', () => this.syncCase(currentCase.value, selectedId.value, currentResults.value))));
     this.disposers.push(effect(() => guarded('plume', () => this.syncPlume(currentPlume.value))));
     this.exceedance = new ExceedanceLayer(this.map);
@@ -406,10 +412,12 @@ export class SiteMap {
 
     const readings = c.site.flow.method === 'heads' ? c.site.flow.readings : [];
     const seenH = new Set<string>();
-    for (const h of readings) {
+    readings.forEach((h, i) => {
       seenH.add(h.id);
       let m = this.heads.get(h.id);
-      const label = `${h.name}: ${h.head.value} ${h.head.unit}`;
+      // the water level as its field shows it (the case's unit system, or the field's own unit)
+      const level = shownQuantity(c, `site.flow.readings[${i}].head`, h.head);
+      const label = `${h.name}: ${level === h.head ? h.head.value : formatSig(level.value, 5)} ${UNITS[level.unit]?.label ?? level.unit}`;
       const key = `${label}|${sel === h.id}`;
       if (!m) {
         m = L.marker(toLatLng(h.position), { icon: headIcon(label, sel === h.id), draggable: true, keyboard: true, title: h.name });
@@ -429,7 +437,7 @@ export class SiteMap {
         m.setLatLng(toLatLng(h.position));
         moved.push(m.getLatLng());
       }
-    }
+    });
     for (const [id, m] of this.heads) if (!seenH.has(id)) (m.remove(), this.heads.delete(id));
     this.synced = true;
     // a point added or moved from outside the map (the panel, an undo) that is out of view

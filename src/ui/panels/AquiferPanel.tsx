@@ -6,7 +6,8 @@ import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
 import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
 import { MATERIAL_PRESETS, materialPreset, materialOfConductivity, typicalConductivity, FIELD_RANGES, citeValue } from '../../case/presets';
-import { toInternal } from '../../core/units';
+import { fromInternal, toInternal } from '../../core/units';
+import { shownQuantity } from '../../case/unitSystem';
 import { fmtInput, fmtLength } from '../format';
 import { derivedForScreen } from '../evaluation';
 import { SaturatedThicknessField } from './WellInputs';
@@ -25,6 +26,10 @@ export function AquiferPanel() {
   const k = a.hydraulicConductivity;
   // the material that filled K in stays shown until K is changed to anything else
   const material = materialOfConductivity(toInternal(k.value, k.unit));
+  // the published ranges (m/d) in the unit the K field shows: the case's system or the field's own
+  const kUnit = shownQuantity(c, 'aquifer.hydraulicConductivity', k).unit;
+  const kIn = (mPerDay: number) => fmtNum(fromInternal(mPerDay, kUnit), 2);
+  const kLabel = unitLabel(kUnit);
   const summary =
     `K ${fmtInput('aquifer.hydraulicConductivity', k)}, nₑ ${fmtNum(a.effectivePorosity)}` +
     (dv ? `; R ${fmtNum(dv.R, 3)}, αL ${fmtLength(dv.ax)}` : '');
@@ -45,7 +50,7 @@ export function AquiferPanel() {
             <option value="">Pick a material…</option>
             {MATERIAL_PRESETS.map((m) => (
               <option value={m.id} key={m.id}>
-                {m.name}: {fmtNum(m.conductivity.min)} – {fmtNum(m.conductivity.max)} m/d
+                {m.name}: {kIn(m.conductivity.min)} – {kIn(m.conductivity.max)} {kLabel}
               </option>
             ))}
           </select>
@@ -55,7 +60,9 @@ export function AquiferPanel() {
           dimension="conductivity"
           value={a.hydraulicConductivity}
           onChange={(q) => updateCase((d) => void (d.aquifer.hydraulicConductivity = q))}
-          help="Fine sand 1 – 5, medium sand 5 – 20, coarse sand 20 – 100, gravel 100 – 1000 m/d (Bouwer 1978, as tabulated in Canter et al. 1988)."
+          help={`${MATERIAL_PRESETS.slice(0, 4)
+            .map((m, i) => `${i ? m.name : m.name[0].toUpperCase() + m.name.slice(1)} ${kIn(m.conductivity.min)} – ${kIn(m.conductivity.max)}`)
+            .join(', ')} ${kLabel} (Bouwer 1978, as tabulated in Canter et al. 1988).`}
         />
         <NumberField
           field="aquifer.effectivePorosity"

@@ -3,6 +3,7 @@ import { Section } from './Section';
 import { fmtTime } from '../format';
 import { toInternal } from '../../core/units';
 import { currentCase, updateCase } from '../state';
+import { mapLengthUnit, positionShown, positionTyped, unitSystem } from '../../case/unitSystem';
 import { QuantityField, NumberField, fmtNum, unitLabel } from '../fields';
 import { mapTool, selectedId, lastDeleted } from '../view';
 import { preparedCase } from '../evaluation';
@@ -229,21 +230,24 @@ function ReceptorPlace({ index }: { index: number }) {
   const r = p?.receptors[index];
   if (!p || !r) return null;
   const move = (x: number, y: number) => updateCase((d) => void (d.site.receptors[index].position = p.toMap(x, y)));
+  // shown and typed in the case's length unit (m or ft); the flow frame is in metres
+  const system = unitSystem(currentCase.value);
+  const unit = mapLengthUnit(system).unit;
   return (
     <div class="dg-pair">
       <NumberField
         label="Downgradient of the release"
         field={`site.receptors[${index}].position`}
-        value={Number(r.x.toFixed(2))}
-        suffix="m"
-        onChange={(x) => move(x, r.y)}
+        value={positionShown(r.x, system)}
+        suffix={unit}
+        onChange={(x) => move(positionTyped(x, system), r.y)}
       />
       <NumberField
         label="Across the flow (left +)"
         field={`site.receptors[${index}].position`}
-        value={Number(r.y.toFixed(2))}
-        suffix="m"
-        onChange={(y) => move(r.x, y)}
+        value={positionShown(r.y, system)}
+        suffix={unit}
+        onChange={(y) => move(r.x, positionTyped(y, system))}
       />
     </div>
   );

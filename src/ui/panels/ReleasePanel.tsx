@@ -1,6 +1,7 @@
 /** Where the release is and what it releases: source geometry and strength, and the contaminant. */
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
+import { mapLengthUnit, positionShown, positionTyped, unitSystem } from '../../case/unitSystem';
 import { QuantityField, NumberField, OptionalQuantityField, Segmented, fmtNum, unitLabel } from '../fields';
 import { mapTool } from '../view';
 import { CONTAMINANT_PRESETS, contaminantPreset, citeValue, provenanceLabel, type ContaminantPreset } from '../../case/presets';
@@ -250,22 +251,26 @@ function SourcePosition({ c }: { c: Case }) {
   const [x, y] = c.site.source.position;
   const geo = c.site.frame === 'geographic';
   const set = (p: [number, number]) => updateCase((d) => moveSource(d, p));
+  // a local grid position is shown and typed in the case's length unit (m or ft), stored in metres
+  const system = unitSystem(c);
+  const shown = (v: number) => (geo ? Number(v.toFixed(7)) : positionShown(v, system));
+  const typed = (v: number) => (geo ? v : positionTyped(v, system));
   return (
     <div class="dg-pair">
       <NumberField
         label={geo ? 'Release longitude' : 'Release east of datum'}
         field="site.source.position"
-        value={Number(x.toFixed(geo ? 7 : 2))}
-        suffix={geo ? '°' : 'm'}
-        onChange={(v) => set([v, y])}
+        value={shown(x)}
+        suffix={geo ? '°' : mapLengthUnit(system).unit}
+        onChange={(v) => set([typed(v), y])}
         help={geo ? 'WGS 84 degrees, −180 to 180 (east positive).' : undefined}
       />
       <NumberField
         label={geo ? 'Release latitude' : 'Release north of datum'}
         field="site.source.position"
-        value={Number(y.toFixed(geo ? 7 : 2))}
-        suffix={geo ? '°' : 'm'}
-        onChange={(v) => set([x, v])}
+        value={shown(y)}
+        suffix={geo ? '°' : mapLengthUnit(system).unit}
+        onChange={(v) => set([x, typed(v)])}
         help={geo ? 'WGS 84 degrees, −90 to 90 (north positive).' : undefined}
       />
     </div>

@@ -37,4 +37,22 @@ describe('inputRows', () => {
     const bare = inputRows(demo, null);
     expect(bare.length).toBe(rows.length);
   });
+
+  it('shows each value in the case\'s unit system, as its field does (issue 13 item 4)', () => {
+    const us = { ...demo, units: { system: 'US' as const, fields: {} } };
+    const r = inputRows(us, prepareCase(us));
+    const v = (input: string) => r.find((x) => x.input.startsWith(input))?.value ?? '';
+    // foot = 0.3048 m exactly (NIST SP 811 (2008), Appendix B)
+    expect(v('Hydraulic conductivity')).toMatch(/ ft\/d$/);
+    const k = demo.aquifer.hydraulicConductivity;
+    expect(k.unit).toBe('K:m/d');
+    expect(Number(v('Hydraulic conductivity').split(' ')[0])).toBeCloseTo(k.value / 0.3048, 3);
+    expect(v('Source thickness')).toMatch(/ ft$/);
+    expect(v('Dispersivity')).toMatch(/ ft$/);
+    expect(v('Map depth')).toMatch(/ ft$/);
+    // concentrations and times are not switched
+    expect(v('Concentration limit')).toBe(row('Concentration limit')?.value);
+    expect(v('Horizon')).toBe(row('Horizon')?.value);
+    for (const x of r) expect(x.value, x.input).not.toMatch(/\d m(\/d)?$| m$/);
+  });
 });
