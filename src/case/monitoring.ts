@@ -99,6 +99,24 @@ export function wellSeries(m: Monitoring, wellId: string, analyte: string): Samp
     .sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
 }
 
+/**
+ * The time axis of a monitoring well's chart (d): t = 0 at the release date (or, without one, the
+ * first of `dates`) and its end a fifth past the last of `dates`, at least a year. The modelled
+ * curve at the well (observations.ts `wellCurve`) and a Monte Carlo run's band there
+ * (uncertainty.ts) share it.
+ */
+export function wellCurveSpan(m: Monitoring, dates: readonly string[]): { origin: number; tEnd: number; sinceRelease: boolean } {
+  const release = m.releaseDate ? dayNumber(m.releaseDate) : null;
+  const days = dates.map((d) => dayNumber(d)!);
+  const origin = release ?? Math.min(...days);
+  return { origin, tEnd: Math.max(365.25, 1.2 * (Math.max(...days) - origin)), sinceRelease: release !== null };
+}
+
+/** What a model figure at a monitoring well depends on besides the case's physics (a Monte Carlo band's key): its position, screen and the release date. */
+export function monitoringWellKey(m: Monitoring, w: MonitoringWell): string {
+  return JSON.stringify([w.position, w.screenTop, w.screenBottom, m.releaseDate]);
+}
+
 /** The analytes present, in first-seen order, spelled as first seen. */
 export function analytesOf(m: Monitoring): string[] {
   const out: string[] = [];

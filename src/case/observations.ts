@@ -34,7 +34,7 @@ import {
 } from '../core/trends/index';
 import type { Case } from './schema';
 import { prepareCase, type PreparedCase } from './prepare';
-import { comparedAnalyte, dayNumber, resultMgL, wellSeries, type SamplingResult } from './monitoring';
+import { comparedAnalyte, dayNumber, resultMgL, wellCurveSpan, wellSeries, type SamplingResult } from './monitoring';
 
 export interface ObservedPoint {
   readonly date: string;
@@ -294,16 +294,12 @@ export interface WellCurve {
  */
 export function wellCurve(c: Case, prep: PreparedCase, well: WellObservations, alternateKind: 'domenico' | 'exact' | null = null): WellCurve | null {
   if (!well.placed || well.x === null || well.y === null || well.series.length === 0) return null;
-  const release = c.monitoring.releaseDate ? dayNumber(c.monitoring.releaseDate) : null;
-  const days = well.series.map((p) => dayNumber(p.date)!);
-  const origin = release ?? Math.min(...days);
-  const last = Math.max(...days) - origin;
-  const tEnd = Math.max(365.25, 1.2 * last);
+  const { origin, tEnd, sinceRelease } = wellCurveSpan(c.monitoring, well.series.map((p) => p.date));
   const times = Array.from({ length: 120 }, (_, k) => (tEnd * (k + 1)) / 120);
   const screen = { x: well.x, y: well.y, zTop: well.zTop, zBottom: Math.max(well.zTop, well.zBottom) };
   let values: number[];
   let alternate: number[] | null = null;
-  if (release !== null) {
+  if (sinceRelease) {
     values = Array.from(breakthroughCurve(prep.model, screen, times));
     if (alternateKind && alternateKind !== prep.model.solution) alternate = Array.from(breakthroughCurve(prep.model, screen, times, alternateKind));
   } else {
@@ -311,5 +307,5 @@ export function wellCurve(c: Case, prep: PreparedCase, well: WellObservations, a
     values = times.map(() => steady);
   }
   const points = well.series.map((p) => ({ t: dayNumber(p.date)! - origin, mgL: p.mgL, nonDetect: p.nonDetect, date: p.date }));
-  return { times, values, alternate, points, origin, sinceRelease: release !== null };
+  return { times, values, alternate, points, origin, sinceRelease };
 }

@@ -7,7 +7,7 @@
  * for, so an edit marks it out of date instead of silently keeping it.
  */
 import type { Case } from '../case/schema';
-import { breakthroughBands, exceedanceMapOf, joinBlocks, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
+import { breakthroughBands, exceedanceMapOf, joinBlocks, monitoringWellBands, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
 import { caseKeyOf, uncertaintyRun, type RunState } from './uncertaintyState';
 
 export { caseKeyOf, uncertaintyRun, type RunState };
@@ -24,7 +24,7 @@ export function startUncertainty(c: Case): void {
   cancelUncertainty();
   let plan: UncertaintyPlan;
   try {
-    plan = planUncertainty(c, { curves: true, map: true });
+    plan = planUncertainty(c, { curves: true, map: true, wells: true });
   } catch (e) {
     uncertaintyRun.value = { ...uncertaintyRun.peek(), status: 'failed', error: e instanceof Error ? e.message : String(e) };
     return;
@@ -54,12 +54,12 @@ export function startUncertainty(c: Case): void {
       // keep what was done: the partial result over the finished ranges
       if (!finished && blocks.length) {
         const joined = joinBlocks(plan, blocks);
-        uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joined), bands: breakthroughBands(plan, joined), map: exceedanceMapOf(plan, joined) };
+        uncertaintyRun.value = { ...uncertaintyRun.peek(), result: summariseRun(plan, joined), bands: breakthroughBands(plan, joined), wellBands: monitoringWellBands(plan, joined), map: exceedanceMapOf(plan, joined) };
       }
       stop('cancelled');
     },
   };
-  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n, bands: null, map: null };
+  uncertaintyRun.value = { status: 'running', result: null, caseKey, done: 0, runs, startedAt, secondsLeft: null, error: null, workers: n, bands: null, wellBands: null, map: null };
   const snapshot = structuredClone(c);
   const give = (w: Worker) => {
     if (next >= runs) return;
@@ -87,13 +87,14 @@ export function startUncertainty(c: Case): void {
       }
       // the bands sort every receptor's values at every time: once, at the end
       const bands = last && joined ? breakthroughBands(plan, joined) : null;
+      const wellBands = last && joined ? monitoringWellBands(plan, joined) : null;
       // the probability map grows with the realisations mapped (contouring its lattice is cheap)
       const map = joined ? exceedanceMapOf(plan, joined) : uncertaintyRun.peek().map;
-      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, bands, map, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
+      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, bands, wellBands, map, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
       if (last) stop('done');
       else give(w);
     };
     w.onerror = (e) => stop('failed', e.message || 'a worker failed');
-    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed, curves: true, map: true } satisfies UncertaintyRequest);
+    w.postMessage({ type: 'plan', case: snapshot, runs: plan.runs, seed: plan.seed, curves: true, map: true, wells: true } satisfies UncertaintyRequest);
   }
 }

@@ -5,7 +5,7 @@
  */
 import { signal } from '@preact/signals';
 import type { Case } from '../case/schema';
-import type { BreakthroughBands, UncertaintyResult } from '../case/uncertainty';
+import type { BreakthroughBands, UncertaintyResult, WellBands } from '../case/uncertainty';
 import type { ExceedanceContours } from '../case/exceedanceMap';
 
 export interface RunState {
@@ -22,11 +22,13 @@ export interface RunState {
   readonly workers: number;
   /** percentile bands of each receptor's breakthrough curve (when the run is done or cancelled) */
   readonly bands: BreakthroughBands[] | null;
+  /** the same bands at each placed monitoring well with results, over its chart's times (when the run is done or cancelled) */
+  readonly wellBands: WellBands[] | null;
   /** contours of P(C > limit) on the map at the map's time, from the realisations mapped so far */
   readonly map: ExceedanceContours | null;
 }
 
-export const uncertaintyRun = signal<RunState>({ status: 'idle', result: null, caseKey: null, done: 0, runs: 0, startedAt: 0, secondsLeft: null, error: null, workers: 0, bands: null, map: null });
+export const uncertaintyRun = signal<RunState>({ status: 'idle', result: null, caseKey: null, done: 0, runs: 0, startedAt: 0, secondsLeft: null, error: null, workers: 0, bands: null, wellBands: null, map: null });
 
 /** What a result depends on: everything but the case's name, notes and time stamps. */
 export function caseKeyOf(c: Case): string {

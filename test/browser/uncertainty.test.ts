@@ -52,7 +52,7 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await page.screenshot({ path: artifactPath('uncertainty-1024x768.png') });
     // the breakthrough chart shows the run's percentile bands behind the deterministic curve, with their key
     await page.waitForSelector('[data-testid=breakthrough-bands] .dg-band-outer');
-    await expect(page.locator('[data-testid=breakthrough-chart] .dg-chart-key').innerText()).resolves.toMatch(/5–95 %.*25–75 %.*median of 300 Monte Carlo realisations/s);
+    await expect(page.locator('[data-testid=breakthrough-chart] .dg-chart-key').innerText()).resolves.toMatch(/5–95\s%.*25–75\s%.*median of 300 Monte Carlo realisations/s);
     await page.locator('[data-testid=breakthrough-chart]').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-bands-1024x768.png') });
     // the map shows the contours of P(C > limit) at the map's time, with a key naming them and their error

@@ -15,7 +15,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import stdlibErfc from '@stdlib/math-base-special-erfc';
+import { normalQuantileRef, upperTail } from './normal-tail';
 import { migrateCase } from '../../src/case/migrate';
 import type { Case } from '../../src/case/schema';
 import {
@@ -68,7 +68,6 @@ function thresholdK(plan: UncertaintyPlan, j: number): number | null {
   return Math.exp(hi);
 }
 
-const upperTail = (z: number) => 0.5 * stdlibErfc(z / Math.SQRT2);
 
 describe('P(exceed) with one uncertain lognormal K equals P(K > K*) (within 4 standard errors)', () => {
   const gsd = 2.5;
@@ -107,16 +106,7 @@ describe('P(exceed) with one uncertain lognormal K equals P(K > K*) (within 4 st
 describe('percentiles of the peak, a monotone function of one lognormal K, against analytical quantiles', () => {
   // Φ⁻¹ at 0.05 ∓ 2/n etc. from scipy.special.ndtri would need n fixed; instead bracket by the
   // engine's own map g at lognormal quantiles computed with the inverse of @stdlib's erfc by bisection
-  const zOf = (q: number) => {
-    let lo = -10;
-    let hi = 10;
-    for (let it = 0; it < 200; it++) {
-      const mid = 0.5 * (lo + hi);
-      if (1 - upperTail(mid) < q) lo = mid;
-      else hi = mid;
-    }
-    return 0.5 * (lo + hi);
-  };
+  const zOf = normalQuantileRef;
   it.each(['domenico', 'exact'] as const)('nitrate demo, %s', (solution) => {
     const c = load('nitrate-field-supply.json');
     const runs = solution === 'exact' ? 200 : 500;

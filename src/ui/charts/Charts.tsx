@@ -158,6 +158,33 @@ function bandPath(ts: number[], upper: number[], lower: number[], sx: (v: number
   return `${pathOf(ts, upper, sx, sy)}L${pathOf([...ts].reverse(), [...lower].reverse(), sx, sy).slice(1)}Z`;
 }
 
+/** The key's entries for the Monte Carlo bands (5–95 %, 25–75 %, median of n realisations). */
+export function BandsKey({ realisations }: { realisations: number }) {
+  return (
+    <>
+      {'  '}
+      <span class="dg-key-swatch dg-key-outer" aria-hidden="true" />
+      5–95{'\u00a0'}%{' '}
+      <span class="dg-key-swatch dg-key-inner" aria-hidden="true" />
+      25–75{'\u00a0'}%{' '}
+      <span class="dg-key-line dg-key-median" aria-hidden="true" />
+      median of {realisations} Monte Carlo realisations
+    </>
+  );
+}
+
+/** The Monte Carlo bands (chart units already converted), drawn behind a deterministic curve. */
+export function BandPaths(props: { ts: number[]; p5: number[]; p25: number[]; p50: number[]; p75: number[]; p95: number[]; sx: (v: number) => number; sy: Scale; testid: string }) {
+  const { ts, sx, sy } = props;
+  return (
+    <g class="dg-chart-bands" data-testid={props.testid}>
+      <path d={bandPath(ts, props.p95, props.p5, sx, sy)} class="dg-band-outer" />
+      <path d={bandPath(ts, props.p75, props.p25, sx, sy)} class="dg-band-inner" />
+      <path d={pathOf(ts, props.p50, sx, sy)} class="dg-band-median" />
+    </g>
+  );
+}
+
 export function BreakthroughChart(props: {
   name: string;
   times: number[];
@@ -199,17 +226,7 @@ export function BreakthroughChart(props: {
       legend={solutionKey(props.solution, !!alt)}
       keyExtra={
         <>
-          {b && (
-            <>
-              {'  '}
-              <span class="dg-key-swatch dg-key-outer" aria-hidden="true" />
-              5–95 %{' '}
-              <span class="dg-key-swatch dg-key-inner" aria-hidden="true" />
-              25–75 %{' '}
-              <span class="dg-key-line dg-key-median" aria-hidden="true" />
-              median of {b.realisations} Monte Carlo realisations
-            </>
-          )}
+          {b && <BandsKey realisations={b.realisations} />}
           {props.particles && (
             <span data-testid="particle-key">
               {'  '}
@@ -222,13 +239,7 @@ export function BreakthroughChart(props: {
         </>
       }
     >
-      {b && (
-        <g class="dg-chart-bands" data-testid="breakthrough-bands">
-          <path d={bandPath(bt, p95, p5, sx, sy)} class="dg-band-outer" />
-          <path d={bandPath(bt, p75, p25, sx, sy)} class="dg-band-inner" />
-          <path d={pathOf(bt, p50, sx, sy)} class="dg-band-median" />
-        </g>
-      )}
+      {b && <BandPaths ts={bt} p5={p5} p25={p25} p50={p50} p75={p75} p95={p95} sx={sx} sy={sy} testid="breakthrough-bands" />}
       <LimitLine sy={sy} limit={lim} label={`limit ${Number(lim.toPrecision(3))} ${UNITS[cu].label}`} />
       {alt && <path d={pathOf(ts, alt, sx, sy)} class="dg-chart-alt" />}
       <path d={pathOf(ts, vs, sx, sy)} class="dg-chart-line" />

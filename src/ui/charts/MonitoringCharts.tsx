@@ -4,20 +4,24 @@
  * - WellChart: a monitoring well's measured series drawn on the modelled breakthrough curve at its
  *   screen (the case's solution, the other one dashed when it applies); detected results as filled
  *   dots, results below the reporting limit as open down-pointing triangles at the limit (the
- *   value lies somewhere below), never as a number.
+ *   value lies somewhere below), never as a number. After a probabilistic run of the case as it is,
+ *   the run's 5–95 % and 25–75 % bands and median at the well behind the curve (computed at the
+ *   well's position by the run itself: src/case/uncertainty.ts `monitoringWellBands`).
  * - ModelScatter: every result against the model at its well and date, on logarithmic axes with
  *   the 1:1 line and the band within a factor of ten, and the named summary figures beneath.
  * The figures come from src/case/observations.ts (the same as the report and the command line).
  */
 import { useMemo } from 'preact/hooks';
-import { Frame, H, LimitLine, M, W, pathOf, solutionKey } from './Charts';
+import { BandPaths, BandsKey, Frame, H, LimitLine, M, W, pathOf, solutionKey } from './Charts';
 import { concentrationScale, linearScale, logScale, type Scale } from './axes';
 import { fromInternal, toInternal, UNITS } from '../../core/units';
 import { wellCurve, type ModelComparison, type ObservationSummary } from '../../case/observations';
 import { prepareCase } from '../../case/prepare';
 import { formatSig } from '../../case/numbers';
-import { isoFromDay } from '../../case/monitoring';
+import { isoFromDay, monitoringWellKey } from '../../case/monitoring';
 import type { Case } from '../../case/schema';
+import type { WellBands } from '../../case/uncertainty';
+import { currentRunFor } from '../uncertaintyState';
 
 const YEAR = 365.25;
 
@@ -55,6 +59,19 @@ function MeasuredKey() {
   );
 }
 
+/**
+ * The probabilistic run's band at this well: from a run of the case as it is, computed for the
+ * well where it is now (`stale`: the run is of this case, but the well was placed, moved or
+ * re-screened, or the release date changed, since).
+ */
+function runBandAt(c: Case, wellId: string): { band: WellBands | null; stale: boolean } {
+  const run = currentRunFor(c);
+  const well = c.monitoring.wells.find((w) => w.id === wellId);
+  if (!run?.wellBands || !well) return { band: null, stale: false };
+  const band = run.wellBands.find((b) => b.id === wellId && b.key === monitoringWellKey(c.monitoring, well)) ?? null;
+  return { band: band && band.realisations > 0 ? band : null, stale: !band };
+}
+
 /** The measured series of one monitoring well on its modelled breakthrough curve. */
 export function WellChart({ c, summary, wellId }: { c: Case; summary: ObservationSummary; wellId: string }) {
   const data = useMemo(() => {
@@ -70,6 +87,7 @@ export function WellChart({ c, summary, wellId }: { c: Case; summary: Observatio
       return { error: `The model cannot be drawn at this well: ${e instanceof Error ? e.message : String(e)}` };
     }
   }, [c, summary, wellId]);
+  const { band, stale } = runBandAt(c, wellId);
   if ('error' in data) return <p class="dg-help">{data.error}</p>;
   const { curve, name, limit } = data;
   const cu = c.contaminant.limit.unit;
@@ -82,8 +100,14 @@ export function WellChart({ c, summary, wellId }: { c: Case; summary: Observatio
   const alt = curve.alternate?.map(toC) ?? null;
   const lim = toC(limit);
   const pts = curve.points.map((p) => ({ ...p, tt: toT(p.t), v: toC(p.mgL) }));
+  // the band on the chart's time axis (a steady-state band, without a release date, drawn flat)
+  const steady = band?.times[0] === Infinity;
+  // (times past the chart's end, when results were deleted since the run, are left out)
+  const shown = band ? (steady ? [0, 0] : Array.from(band.times.keys()).filter((k) => band.times[k] <= tEnd * (1 + 1e-9))) : [];
+  const bt = band ? (steady ? [0, toT(tEnd)] : shown.map((k) => toT(band.times[k]))) : [];
+  const [p5, p25, p50, p75, p95] = band ? [band.p5, band.p25, band.p50, band.p75, band.p95].map((q) => shown.map((k) => toC(q[k]))) : [[], [], [], [], []];
   const sx = linearScale(Math.min(0, ...pts.map((p) => p.tt)), toT(tEnd), M.l, W - M.r);
-  const sy = seriesScale([...vs, ...(alt ?? [])], pts.map((p) => p.v), lim);
+  const sy = seriesScale([...vs, ...(alt ?? []), ...p95], pts.map((p) => p.v), lim);
   const cl = UNITS[cu]?.label ?? cu;
   const xLabel = curve.sinceRelease ? `time since the release began (${UNITS[tu].label})` : `time since ${isoFromDay(curve.origin)} (${UNITS[tu].label}; model at steady state: no release date)`;
   return (
@@ -95,8 +119,20 @@ export function WellChart({ c, summary, wellId }: { c: Case; summary: Observatio
       sy={sy}
       testid="well-chart"
       legend={solutionKey(data.solution, !!alt)}
-      keyExtra={<MeasuredKey />}
+      keyExtra={
+        <>
+          {band && <BandsKey realisations={band.realisations} />}
+          <MeasuredKey />
+          {stale && (
+            <span class="dg-chart-stale" data-testid="well-band-stale">
+              {' '}
+              (The probabilistic run was made before this well was placed or changed: run it again to draw its band here.)
+            </span>
+          )}
+        </>
+      }
     >
+      {band && <BandPaths ts={bt} p5={p5} p25={p25} p50={p50} p75={p75} p95={p95} sx={sx} sy={sy} testid="well-chart-bands" />}
       <LimitLine sy={sy} limit={lim} label={`limit ${formatSig(lim, 3)} ${cl}`} />
       {alt && <path d={pathOf(ts, alt, sx, sy)} class="dg-chart-alt" />}
       <path d={pathOf(ts, vs, sx, sy)} class="dg-chart-line" />
