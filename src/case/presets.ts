@@ -54,7 +54,9 @@ export interface ContaminantPreset {
 
 const YR = 365.25;
 
-const EPA_SSG = 'US EPA 1996, Soil Screening Guidance: Technical Background Document (measured geometric mean)';
+// Table K-1 ('Values Used for Koc/Kow Correlation', measured geometric means) was seen in a reproduction of
+// Appendix K (docs/field-values.md says where and when); the recalled values are not in that table.
+const EPA_SSG = 'US EPA 1996, Soil Screening Guidance: Technical Background Document, Appendix K, Table K-1 (measured geometric mean)';
 const EPA_SSG_RECALLED = 'US EPA 1996, Soil Screening Guidance: Technical Background Document';
 const HOWARD = 'Howard et al. 1991, Handbook of Environmental Degradation Rates';
 const EPA_MCL = 'US EPA National Primary Drinking Water Regulations (maximum contaminant level)';
@@ -189,7 +191,7 @@ export interface MaterialPreset {
   readonly totalPorosity: SourcedRange | null;
 }
 
-const BOUWER = 'Bouwer 1978, Groundwater Hydrology, as tabulated in Canter et al. 1988';
+const BOUWER = 'Bouwer 1978, Groundwater Hydrology, as tabulated in Canter, Knox & Fairchild 1988, Table 2.1';
 const FREEZE_CHERRY = 'Freeze & Cherry 1979, Groundwater, Table 2.2';
 const MS_TO_MD = 86400;
 

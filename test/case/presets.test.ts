@@ -37,6 +37,13 @@ describe('contaminant presets', () => {
     expect(p.koc?.value).toBe(koc);
     expect(p.koc?.provenance).toBe(provenance);
     expect(p.koc?.source).toMatch(/US EPA 1996, Soil Screening Guidance/);
+    // only the values seen in Appendix K, Table K-1 (measured geometric means) cite that table;
+    // the others are not in it and are shown 'as commonly cited', not confirmed
+    if (provenance === 'seen') expect(p.koc?.source).toMatch(/Appendix K, Table K-1/);
+    else {
+      expect(p.koc?.source).not.toMatch(/Table K-1/);
+      expect(provenanceLabel(p.koc!)).toMatch(/^as commonly cited, attributed to this source; not confirmed against the publication$/);
+    }
   });
 
   test('nitrate does not sorb: Kd 0, marked common practice', () => {

@@ -62,7 +62,7 @@ export function AquiferPanel() {
           onChange={(q) => updateCase((d) => void (d.aquifer.hydraulicConductivity = q))}
           help={`${MATERIAL_PRESETS.slice(0, 4)
             .map((m, i) => `${i ? m.name : m.name[0].toUpperCase() + m.name.slice(1)} ${kIn(m.conductivity.min)} – ${kIn(m.conductivity.max)}`)
-            .join(', ')} ${kLabel} (Bouwer 1978, as tabulated in Canter et al. 1988).`}
+            .join(', ')} ${kLabel} (Bouwer 1978, as tabulated in Canter, Knox & Fairchild 1988, Table 2.1).`}
         />
         <NumberField
           field="aquifer.effectivePorosity"
