@@ -42,7 +42,7 @@ export function csvRecords(rows: readonly (readonly Cell[])[]): string {
   return rows.map((r) => r.map(csvField).join(',')).join('\r\n') + '\r\n';
 }
 
-function withCaution(header: Cell[], rows: Cell[][], caution: string): string {
+export function withCaution(header: Cell[], rows: Cell[][], caution: string): string {
   const pad = (r: Cell[]) => [...r, ...Array(Math.max(0, header.length - r.length)).fill('')];
   return csvRecords([header, ...rows, pad(['screening caution', caution])]);
 }

@@ -1,7 +1,10 @@
 /**
  * GeoJSON (RFC 7946) of a screened case, so the result opens in any GIS: the release (a point,
- * and the traced footprint as a polygon), the receptors with their results, the flow arrow, and
- * the monitoring wells with their latest result, and the plume contours at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
+ * and the traced footprint as a polygon), the receptors with their results (each named with the
+ * method that gave it: the analytical solution, and the particle figures of a complete particle
+ * run when there is one), the flow arrow, the monitoring wells with their latest result, the
+ * pumping wells' capture zones and time-of-travel marks (export-wells.ts), and the plume contours
+ * at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
  * decimal degrees (RFC 7946 §4), rounded to 7 decimals (about 1 cm; §11.2 discusses precision).
  * Polygon exteriors are counter-clockwise (§3.1.6). Properties carry their unit in each key:
  * lengths and velocities in the case's unit system (m and m/d, or ft and ft/d in a US customary
@@ -15,12 +18,13 @@
 import type { Feature, FeatureCollection, Geometry, Position as GeoPosition } from 'geojson';
 import type { Case, Position } from './schema';
 import { prepareCase } from './prepare';
-import { ringArea } from '../geo/rings';
+import { closedCounterClockwise } from '../geo/rings';
 import { SOLUTION_LABEL, type ExportResults } from './export-results';
 import { monitoringWellFeatures } from './export-observations';
 import { resultUnit, unitSystem } from './unitSystem';
 import { fileNumber } from './numbers';
 import { fromInternal } from '../core/units';
+import { captureZoneFeatures, particleProperties } from './export-wells';
 
 export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string };
 
@@ -28,11 +32,7 @@ const round7 = (v: number) => Math.round(v * 1e7) / 1e7;
 const pos = (p: readonly number[]): GeoPosition => [round7(p[0]), round7(p[1])];
 
 function closedCcw(ring: readonly Position[]): GeoPosition[] {
-  const r = ring.map(pos);
-  const first = r[0];
-  const last = r[r.length - 1];
-  if (first[0] !== last[0] || first[1] !== last[1]) r.push([first[0], first[1]]);
-  return ringArea(r) < 0 ? r.reverse() : r;
+  return closedCounterClockwise(ring.map(pos));
 }
 
 function feature(geometry: Geometry, properties: Record<string, unknown>): Feature {
@@ -100,6 +100,7 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
           kind: rc.kind,
           ...(r
             ? {
+                method: `analytical: ${SOLUTION_LABEL[results!.solution]}`,
                 result: r.status,
                 'first reaches limit (d)': r.arrival,
                 'at horizon (mg/L)': r.atHorizon,
@@ -109,12 +110,14 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
                 [`distance from source (${lu})`]: len(r.distance),
               }
             : { result: null }),
+          ...(results?.particles ? particleProperties(results.particles, rc.id) : {}),
         },
       ),
     );
   }
 
   features.push(...monitoringWellFeatures(c, pos));
+  if (results?.wells) features.push(...captureZoneFeatures(c, results.wells, pos));
 
   // Flow arrow from the centre of the source plane, as long as the plume or the farthest receptor.
   const reach = Math.max(

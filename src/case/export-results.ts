@@ -5,6 +5,21 @@
  */
 import type { FeatureCollection, MultiPolygon } from 'geojson';
 import type { ReceptorResult } from '../core';
+import type { MapCaptureZone, WellCapture } from './wells';
+import type { ParticleFigures } from './particles';
+
+/** The steady well field: per pumping well its capture figures and its zone with travel-time marks (map positions). */
+export interface ExportWells {
+  captures: readonly WellCapture[];
+  zones: readonly MapCaptureZone[];
+}
+
+/** A particle run of the case: its count and seed, and per receptor (by id) its figures. */
+export interface ExportParticles {
+  particles: number;
+  seed: number;
+  receptors: readonly (ParticleFigures & { id: string })[];
+}
 
 export interface ExportReceptorResult {
   id: string;
@@ -37,6 +52,10 @@ export interface ExportResults {
   plumeLength: number | null;
   plume: { time: number; geojson: FeatureCollection<MultiPolygon> } | null;
   caution: string;
+  /** the well field, when the case models one */
+  wells?: ExportWells | null;
+  /** a complete particle run of this very case */
+  particles?: ExportParticles | null;
 }
 
 /** The other solution's name (for column headers and labels). */

@@ -11,6 +11,15 @@ export function ringArea(ring: readonly (readonly number[])[]): number {
   return s / 2;
 }
 
+/** the ring closed (last vertex = first) and counter-clockwise, as RFC 7946 §3.1.6 wants an exterior */
+export function closedCounterClockwise<P extends readonly number[]>(ring: readonly P[]): P[] {
+  const r = [...ring];
+  const first = r[0];
+  const last = r[r.length - 1];
+  if (first && (first[0] !== last[0] || first[1] !== last[1])) r.push(first);
+  return ringArea(r) < 0 ? r.reverse() : r;
+}
+
 /** the ring without repeated consecutive vertices and without a closing vertex equal to the first */
 export function openRing<P extends readonly number[]>(ring: readonly P[]): P[] {
   const out: P[] = [];

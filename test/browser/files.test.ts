@@ -5,11 +5,10 @@
 // RFC 7946 by @placemarkio/check-geojson (an independent validator from the npm registry).
 // Case names holding markup are shown as text, never built into HTML.
 import { describe, expect, it } from 'vitest';
-import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { getIssues } from '@placemarkio/check-geojson';
 import { artifactPath, PORTRAIT, LANDSCAPE } from './browser';
-import { demoCase, openDemo, openFiles, storedCases, useBrowser, waitForResults, waitSaved, watchedPage } from './offline-helpers';
+import { demoCase, download, openDemo, openFiles, storedCases, useBrowser, waitForResults, waitSaved, watchedPage } from './offline-helpers';
 
 const getBrowser = useBrowser();
 
@@ -21,12 +20,6 @@ async function importText(page: Page, name: string, text: string | Buffer): Prom
   await msg.waitFor();
   await expect.poll(async () => (await msg.textContent()) ?? '').toContain(name);
   return (await msg.textContent()) ?? '';
-}
-
-async function download(page: Page, testid: string): Promise<{ name: string; text: string }> {
-  const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId(testid).click()]);
-  const path = await dl.path();
-  return { name: dl.suggestedFilename(), text: readFileSync(path, 'utf8') };
 }
 
 describe('files', () => {

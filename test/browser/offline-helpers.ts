@@ -110,6 +110,13 @@ export async function waitForResults(page: Page): Promise<void> {
   await page.locator('.dg-report-bar').getByRole('button', { name: 'Close' }).click();
 }
 
+/** Click the export button with this test id and read the file it downloads. */
+export async function download(page: Page, testid: string): Promise<{ name: string; text: string }> {
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId(testid).click()]);
+  const path = await dl.path();
+  return { name: dl.suggestedFilename(), text: readFileSync(path, 'utf8') };
+}
+
 export async function openFiles(page: Page): Promise<void> {
   await page.getByRole('button', { name: 'Cases and files' }).click();
   await page.getByRole('tab', { name: 'Files' }).click();

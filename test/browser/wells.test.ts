@@ -10,7 +10,7 @@ import type { Browser, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
 import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
 import { axe } from './axe-helpers';
-import { openDemoPage, openFiles, setNumber } from './offline-helpers';
+import { download, openDemoPage, openFiles, setNumber } from './offline-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { screenCase } from '../../src/case/screen';
 import { runCaseParticles } from '../../src/case/particles';
@@ -112,8 +112,17 @@ describe('pumping wells: capture zones and particles', () => {
     await page.screenshot({ path: artifactPath('wells-panel-1024x768.png') });
     const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
     expect(findings).toEqual([]);
-    // the printed report carries the well field and the particle figures with their seed and errors
+    // the files: capture zones, and the particle figures and curves of the run, each naming its method
     await openFiles(page);
+    const zones = await download(page, 'export-capture-zones');
+    expect(zones.name).toMatch(/-capture-zones\.csv$/);
+    expect(zones.text).toMatch(/^pumping well,feature,travelling,travel time \(yr\),travel time \(d\),part,vertex,east \(m\),north \(m\)/);
+    expect(zones.text).toMatch(/Town supply well,travel-time mark,water,25,/);
+    const figures = await download(page, 'export-particles');
+    expect(figures.text.split('\r\n')[1]).toMatch(/^Town supply well,well,"particles: random walk[^"]*",.*,4000,7,/);
+    const curves = await download(page, 'export-particle-curves');
+    expect(curves.text.split('\r\n')).toHaveLength(1 + 100 + 1 + 1);
+    // the printed report carries the well field and the particle figures with their seed and errors
     await page.getByTestId('open-report').click();
     const report = page.locator('[data-testid=report-wells]');
     await report.waitFor({ timeout: 30_000 });

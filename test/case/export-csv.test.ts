@@ -2,44 +2,7 @@
 // common-practice guard against spreadsheet formula injection (OWASP "CSV Injection").
 import { describe, expect, it } from 'vitest';
 import { breakthroughCsv, csvField, csvRecords, fileStem, receptorTableCsv, RECEPTOR_TABLE_HEADER } from '../../src/case/export-csv';
-import { demoCase, exportResultsFor } from './export-fixture';
-
-/** A reader written from RFC 4180's ABNF (file = record *(CRLF record) [CRLF]). */
-function readRfc4180(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let i = 0;
-  while (i < text.length) {
-    let field = '';
-    if (text[i] === '"') {
-      i++;
-      for (;;) {
-        if (i >= text.length) throw new Error('unterminated quoted field');
-        if (text[i] === '"' && text[i + 1] === '"') {
-          field += '"';
-          i += 2;
-        } else if (text[i] === '"') {
-          i++;
-          break;
-        } else field += text[i++];
-      }
-    } else {
-      while (i < text.length && text[i] !== ',' && text[i] !== '\r') {
-        if (text[i] === '"' || text[i] === '\n') throw new Error(`bare ${JSON.stringify(text[i])} in unquoted field at ${i}`);
-        field += text[i++];
-      }
-    }
-    row.push(field);
-    if (text[i] === ',') i++;
-    else if (text.startsWith('\r\n', i)) {
-      rows.push(row);
-      row = [];
-      i += 2;
-    } else if (i < text.length) throw new Error(`unexpected ${JSON.stringify(text[i])} at ${i}`);
-  }
-  if (row.length) rows.push(row);
-  return rows;
-}
+import { demoCase, exportResultsFor, readRfc4180 } from './export-fixture';
 
 describe('RFC 4180 fields and records', () => {
   it('quotes fields with commas, quotes and line breaks, doubling quotes (§2 rules 5–7)', () => {

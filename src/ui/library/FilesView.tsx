@@ -7,7 +7,19 @@ import { currentCase, currentResults } from '../state';
 import { importCaseText, importForRepair, resolveImport, type ImportOutcome } from '../../app/actions';
 import type { Case } from '../../case/schema';
 import { canShareFiles, downloadFile, shareFiles, type OutFile } from './download';
-import { caseFile, curvesCsvFile, geojsonFile, observationsCsvFile, receptorCsvFile, uncertaintyCsvFile, type Built } from './outputs';
+import {
+  captureZonesCsvFile,
+  caseFile,
+  curvesCsvFile,
+  geojsonFile,
+  observationsCsvFile,
+  particleCsvFile,
+  particleCurvesCsvFile,
+  receptorCsvFile,
+  uncertaintyCsvFile,
+  type Built,
+} from './outputs';
+import { particleRunFor } from '../particleState';
 import { reportOpen } from './reportOpen';
 import { DEFAULT_MAX_BYTES } from '../../case/io';
 import { decodeText } from '../../case/text';
@@ -114,7 +126,7 @@ export function FilesView() {
           }}
         >
           Map layers (GeoJSON)
-          <small>source, receptors, monitoring wells, flow arrow, plume contours for a GIS</small>
+          <small>source, receptors, monitoring wells, flow arrow, plume contours{r?.wells?.zones.length ? ', capture zones' : ''} for a GIS</small>
         </button>
         <button type="button" class="dg-lib-btn" data-testid="export-table" onClick={() => out(() => receptorCsvFile(c, r))}>
           Receptor table (CSV)
@@ -129,6 +141,24 @@ export function FilesView() {
             Probabilistic results (CSV)
             <small>distributions, seed and runs, P(reaches limit) ± SE, percentiles and drivers per receptor</small>
           </button>
+        )}
+        {!!r?.wells?.zones.length && (
+          <button type="button" class="dg-lib-btn" data-testid="export-capture-zones" onClick={() => out(() => captureZonesCsvFile(c, r))}>
+            Capture zones (CSV)
+            <small>each pumping well's zone and 1–25 year travel-time marks, as map coordinates</small>
+          </button>
+        )}
+        {particleRunFor(c, true) && (
+          <>
+            <button type="button" class="dg-lib-btn" data-testid="export-particles" onClick={() => out(() => particleCsvFile(c, r))}>
+              Particle figures (CSV)
+              <small>per receptor: concentration ± standard error, arrival, particle count and seed</small>
+            </button>
+            <button type="button" class="dg-lib-btn" data-testid="export-particle-curves" onClick={() => out(() => particleCurvesCsvFile(c, r))}>
+              Particle curves (CSV)
+              <small>concentration and standard error over time at each receptor</small>
+            </button>
+          </>
         )}
         {c.monitoring.results.length > 0 && (
           <button type="button" class="dg-lib-btn" data-testid="export-observations" onClick={() => out(() => observationsCsvFile(c))}>

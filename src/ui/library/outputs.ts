@@ -8,9 +8,11 @@ import { caseToGeoJSON } from '../../case/export-geojson';
 import { breakthroughCsv, fileStem, receptorTableCsv } from '../../case/export-csv';
 import { observationsCsv } from '../../case/export-observations';
 import { uncertaintyCsv } from '../../case/export-uncertainty';
+import { captureZonesCsv, particleCurvesCsv, particleFiguresCsv } from '../../case/export-wells';
+import { particleRunFor } from '../particleState';
 import { caseKeyOf, uncertaintyRun } from '../uncertaintyRun';
 import { plumeGeoJSON, type Evaluation } from '../results';
-import type { ExportResults } from '../../case/export-results';
+import type { ExportParticles, ExportResults } from '../../case/export-results';
 import type { OutFile } from './download';
 import { APP_VERSION } from './version';
 
@@ -24,9 +26,15 @@ export function resultsFor(c: Case, r: Evaluation | null): Evaluation | null {
   return r && r.caseId === c.id && r.caseStamp === c.modified ? r : null;
 }
 
-/** The results in the export layer's shape: the plume's bands as GeoJSON. */
-function forExport(r: Evaluation): ExportResults {
-  return { ...r, plume: r.plume && { time: r.plume.time, geojson: plumeGeoJSON(r.plume) } };
+/** The results in the export layer's shape: the plume's bands as GeoJSON, a complete particle run of this case. */
+function forExport(c: Case, r: Evaluation): ExportResults {
+  return { ...r, plume: r.plume && { time: r.plume.time, geojson: plumeGeoJSON(r.plume) }, particles: particlesFor(c) };
+}
+
+/** A complete particle run of this very case (cancelled or running ones are not exported). */
+function particlesFor(c: Case): ExportParticles | null {
+  const run = particleRunFor(c, true);
+  return run?.receptors ? { particles: run.particles, seed: run.seed, receptors: run.receptors } : null;
 }
 
 const NOT_READY = 'Results for the current inputs are not ready yet (or the inputs are not valid); wait for them, then export.';
@@ -38,7 +46,7 @@ export function caseFile(c: Case): Built {
 export function geojsonFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `GeoJSON: ${NOT_READY}` };
-  const out = caseToGeoJSON(c, forExport(res), { appVersion: APP_VERSION });
+  const out = caseToGeoJSON(c, forExport(c, res), { appVersion: APP_VERSION });
   if (!out.ok) return out;
   return { ok: true, file: { name: `${fileStem(c)}.geojson`, type: 'application/geo+json', text: out.text } };
 }
@@ -54,6 +62,31 @@ export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
   if (!res) return { ok: false, error: `Breakthrough curves: ${NOT_READY}` };
   if (res.receptors.length === 0) return { ok: false, error: 'Breakthrough curves: the case has no receptors yet.' };
   return { ok: true, file: { name: `${fileStem(c)}-breakthrough.csv`, type: 'text/csv', text: breakthroughCsv(res, fileLengthUnit(c)) } };
+}
+
+export function captureZonesCsvFile(c: Case, r: Evaluation | null): Built {
+  const res = resultsFor(c, r);
+  if (!res) return { ok: false, error: `Capture zones: ${NOT_READY}` };
+  if (!res.wells || res.wells.zones.length === 0) return { ok: false, error: 'Capture zones: the case models no pumping well (a receptor that pumps, with its rate, and the saturated thickness).' };
+  return { ok: true, file: { name: `${fileStem(c)}-capture-zones.csv`, type: 'text/csv', text: captureZonesCsv(c, res.wells, res.caution) } };
+}
+
+const NO_PARTICLES = 'no complete particle run for the current inputs; run it under "What do the pumping wells draw?", then export.';
+
+export function particleCsvFile(c: Case, r: Evaluation | null): Built {
+  const res = resultsFor(c, r);
+  const p = particlesFor(c);
+  if (!res) return { ok: false, error: `Particle figures: ${NOT_READY}` };
+  if (!p) return { ok: false, error: `Particle figures: ${NO_PARTICLES}` };
+  return { ok: true, file: { name: `${fileStem(c)}-particles.csv`, type: 'text/csv', text: particleFiguresCsv(res, p) } };
+}
+
+export function particleCurvesCsvFile(c: Case, r: Evaluation | null): Built {
+  const res = resultsFor(c, r);
+  const p = particlesFor(c);
+  if (!res) return { ok: false, error: `Particle curves: ${NOT_READY}` };
+  if (!p) return { ok: false, error: `Particle curves: ${NO_PARTICLES}` };
+  return { ok: true, file: { name: `${fileStem(c)}-particle-curves.csv`, type: 'text/csv', text: particleCurvesCsv(res, p) } };
 }
 
 export function observationsCsvFile(c: Case): Built {
