@@ -18,6 +18,9 @@ import {
   ValidationError,
   captureZone,
   captureZoneSingleWell,
+  confinedHead,
+  dewatered,
+  unconfinedHead,
   flowWarnings,
   prepareFlow,
   sourceCapture,
@@ -166,6 +169,59 @@ export function wellCaptures(p: PreparedCase, w: CaseWells): WellCapture[] {
       waterTravelTime: captured ? centre.travelTime : null,
       singleWell: f.q0 > 0 ? captureZoneSingleWell({ pumpingRate: well.rate, thickness: f.thickness, darcyFlux: f.darcyFlux }) : null,
     };
+  });
+}
+
+/**
+ * Water levels at each receptor in the steady well field, referred to the release, where the
+ * saturated thickness is the given B (flow/heads.ts):
+ * - confined form (the form the capture zones and particles use: B constant): the head relative to
+ *   the release, (Φ − Φ_release)/(K·B), the regional gradient and every well's cone with its images;
+ * - unconfined, Dupuit–Forchheimer: the saturated thickness h = √(B² + 2(Φ − Φ_release)/K), and
+ *   whether the aquifer would be dewatered there (the well cannot deliver its rate).
+ * Where h departs from B by more than a fifth (program's judgement, not a published rule), the
+ * constant-thickness picture is doubtful and a warning says so. At a pumping well the level is the
+ * one at its face (radius 0.1 m).
+ */
+export interface ReceptorHead {
+  readonly receptorId: string;
+  /** m, relative to the release (negative: lower) */
+  readonly confined: number;
+  /** m above the aquifer base (Dupuit–Forchheimer); 0 where dewatered */
+  readonly unconfined: number;
+  readonly dewatered: boolean;
+}
+
+export function receptorHeads(p: PreparedCase, w: CaseWells): ReceptorHead[] {
+  const f = w.field;
+  if (!f) return [];
+  const K = p.derived.K;
+  const confinedRef = { x: 0, y: 0, head: 0 };
+  const unconfinedRef = { x: 0, y: 0, head: f.thickness };
+  return p.receptors.map((r) => ({
+    receptorId: r.id,
+    confined: confinedHead(f, K, confinedRef, r.x, r.y),
+    unconfined: unconfinedHead(f, K, unconfinedRef, r.x, r.y),
+    dewatered: dewatered(f, K, unconfinedRef, r.x, r.y),
+  }));
+}
+
+/** The receptors where the Dupuit thickness departs from B by more than a fifth, or is dewatered, in words. */
+export function headWarnings(p: PreparedCase, w: CaseWells, heads: readonly ReceptorHead[]): Warning[] {
+  const B = w.thickness;
+  if (B === null) return [];
+  return heads.flatMap((h) => {
+    const name = p.receptors.find((r) => r.id === h.receptorId)?.name || h.receptorId;
+    if (h.dewatered)
+      return [{ code: 'well-dewaters', message: `At ${name} the pumping would dewater an unconfined aquifer (Dupuit–Forchheimer): the rate cannot be delivered there, and the well field's figures do not hold.` }];
+    if (Math.abs(h.unconfined - B) > 0.2 * B)
+      return [
+        {
+          code: 'thickness-changes',
+          message: `At ${name} the saturated thickness of an unconfined aquifer would be ${Number(h.unconfined.toPrecision(3))} m against ${B} m at the release (Dupuit–Forchheimer): the capture zones and particles take it as constant, which is doubtful there.`,
+        },
+      ];
+    return [];
   });
 }
 

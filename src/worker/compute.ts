@@ -13,7 +13,7 @@ import { prepareCase, type PreparedCase } from '../case/prepare';
 import { breakthroughCurve, concentrationGrid, plumeLength, sampleTimes, concentration, type ScreeningModel } from '../core';
 import { contourBands, packContours } from '../geo/contours';
 import type { Evaluation, PlumeLayer, ReceptorRow, WellsLayer } from './protocol';
-import { mapCaptureZones } from '../case/wells';
+import { headWarnings as headWarningsOf, mapCaptureZones, receptorHeads } from '../case/wells';
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
@@ -88,7 +88,9 @@ function wellsLayer(s: ReturnType<typeof screenCase>): WellsLayer | null {
   } catch (e) {
     zoneError = e instanceof Error ? e.message : String(e);
   }
-  return { thickness: w.thickness, captures: s.captures.map((c) => ({ ...c })), zones, zoneError };
+  const heads = receptorHeads(s.prepared, w);
+  const headWarnings = headWarningsOf(s.prepared, w, heads).map((x) => x.message);
+  return { thickness: w.thickness, captures: s.captures.map((c) => ({ ...c })), zones, zoneError, heads, headWarnings };
 }
 
 /**

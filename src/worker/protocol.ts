@@ -7,7 +7,7 @@
 import type { PackedBands } from '../geo/contours';
 import type { ExportReceptorResult } from '../case/export-results';
 import type { ReceptorResult } from '../core';
-import type { MapCaptureZone, WellCapture } from '../case/wells';
+import type { MapCaptureZone, ReceptorHead, WellCapture } from '../case/wells';
 
 /**
  * The steady well field of the case (pumping receptors with rates, boundary lines): per pumping
@@ -22,6 +22,10 @@ export interface WellsLayer {
   zones: MapCaptureZone[];
   /** why the zones could not be traced (the captures may still be there), or null */
   zoneError: string | null;
+  /** water levels at each receptor, confined and unconfined (Dupuit) forms, referred to the release */
+  heads: ReceptorHead[];
+  /** where the unconfined thickness departs from the constant one, in words */
+  headWarnings: string[];
 }
 
 export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-horizon';

@@ -50,6 +50,13 @@ describe('pumping wells: capture zones and particles', () => {
     await expect(page.locator('#dg-receptor-table-note').innerText()).resolves.toContain('Method: analytical');
     await openWells(page);
     await expect(page.locator('[data-testid=wells-table] tr[data-well=supply-well]').getAttribute('data-captures')).resolves.toBe('true');
+    // water levels at the receptors, confined (constant thickness) and unconfined (Dupuit) forms, stated as such
+    const levels = page.locator('[data-testid=water-levels]');
+    await expect(levels.locator('thead').innerText()).resolves.toMatch(/confined form[\s\S]*Dupuit–Forchheimer/);
+    await expect(levels.locator('tr[data-receptor=supply-well] [data-col=confined]').innerText()).resolves.toMatch(/^-\d[\d.]* m$/);
+    await expect(levels.locator('tr[data-receptor=supply-well] [data-col=unconfined]').innerText()).resolves.toMatch(/^1\d(\.\d+)? m$/);
+    await levels.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('wells-levels-1024x768.png') });
     // the contaminant's marks lie inside the water's (R > 1)
     await page.getByRole('button', { name: 'the contaminant (× R)' }).click();
     await page.waitForSelector('path.dg-travel-mark');

@@ -4,6 +4,10 @@
  * References: Javandel & Tsang 1986 (Ground Water 24(5)) for one well in uniform flow — capture
  * width far upgradient Q/(qB); travel time along the upgradient axis t = (nB/Q₀)[r − a ln(1 + r/a)],
  * a = Q/(2πQ₀) (the elementary integral of dr/v, see test/core/flow/field.test.ts).
+ * Water levels: Thiem's steady drawdown Q/(2πKB)·ln(r'/r) of a well beside a constant-head line,
+ * r' the distance to its image across the line (Ferris et al. 1962, USGS WSP 1536-E), plus the
+ * regional gradient, written out here by hand from the case's geometry; the unconfined form from
+ * the Dupuit–Forchheimer potential ½Kh² (Strack 1989, Groundwater Mechanics §8): h² = B² + 2B·Δh.
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
@@ -11,7 +15,7 @@ import { parseCaseFile } from '../../src/case/io';
 import { migrateCase } from '../../src/case/migrate';
 import { screenCase } from '../../src/case/screen';
 import { runCaseParticles } from '../../src/case/particles';
-import { mapCaptureZones } from '../../src/case/wells';
+import { headWarnings, mapCaptureZones, receptorHeads } from '../../src/case/wells';
 import { run } from '../../src/cli/screen';
 import type { Case } from '../../src/case/schema';
 
@@ -181,5 +185,45 @@ describe('mapCaptureZones: the capture zone drawn on the map against Javandel & 
     const extent = (ring: { 0: number; 1: number }[]) => Math.min(...ring.map((p) => s.prepared.fromMap(p as [number, number]).x));
     for (let k = 1; k < zone.water.length; k++) expect(extent(zone.water[k].ring)).toBeLessThan(extent(zone.water[k - 1].ring));
     for (let k = 0; k < zone.water.length; k++) expect(extent(zone.contaminant[k].ring)).toBeGreaterThan(extent(zone.water[k].ring));
+  });
+});
+
+describe('water levels in the well field (confined and Dupuit forms)', () => {
+  it('riverside demo: heads at the receptors from Thiem with an image well and the regional gradient; Dupuit thickness from the same potential', () => {
+    const c = demo();
+    const s = screenCase(c);
+    const heads = receptorHeads(s.prepared, s.wells);
+    // flow frame: +x east (azimuth 90°), the river line at x = 470 m, the well at (350, 30), Q 800 m³/d
+    const K = 40;
+    const B = 15;
+    const i = 0.003;
+    const Q = 800;
+    const well = { x: 350, y: 30 };
+    const image = { x: 2 * 470 - well.x, y: well.y };
+    const rw = 0.1;
+    const dist = (a: { x: number; y: number }, b: { x: number; y: number }) => Math.max(Math.hypot(a.x - b.x, a.y - b.y), rw);
+    const source = { x: 0, y: 0 };
+    const dh = (p: { x: number; y: number }) =>
+      -i * (p.x - source.x) + (Q / (2 * Math.PI * K * B)) * (Math.log(dist(p, well) / dist(source, well)) - Math.log(dist(p, image) / dist(source, image)));
+    s.prepared.receptors.forEach((r, k) => {
+      const want = dh(r);
+      expect(Math.abs(heads[k].confined - want)).toBeLessThan(1e-9 * Math.max(1, Math.abs(want)));
+      expect(Math.abs(heads[k].unconfined - Math.sqrt(B * B + 2 * B * want))).toBeLessThan(1e-9 * B);
+      expect(heads[k].dewatered).toBe(false);
+    });
+    // at the pumping well's face the level is lowest: below the release by the gradient and the cone
+    expect(heads[0].confined).toBeLessThan(-i * 350);
+    expect(headWarnings(s.prepared, s.wells, heads)).toEqual([]);
+  });
+
+  it('a well pumping far beyond what the aquifer yields dewaters it in the Dupuit form, and says so', () => {
+    const c = structuredClone(demo());
+    c.site.receptors[0].pumpingRate = { value: 40_000, unit: 'm3/d' };
+    const s = screenCase(c);
+    const heads = receptorHeads(s.prepared, s.wells);
+    expect(heads[0].dewatered).toBe(true);
+    expect(heads[0].unconfined).toBe(0);
+    expect(Number.isFinite(heads[0].confined)).toBe(true);
+    expect(headWarnings(s.prepared, s.wells, heads).map((w) => w.message).join(' ')).toMatch(/At Town supply well the pumping would dewater an unconfined aquifer/);
   });
 });

@@ -126,7 +126,52 @@ function WellFigures() {
         </tbody>
       </table>
       {w.zoneError && <p class="dg-field-warn">The capture zones could not be traced: {w.zoneError}</p>}
+      <WaterLevels />
     </div>
+  );
+}
+
+/** Water levels at each receptor in the well field: the confined (constant-thickness) form and the unconfined Dupuit form. */
+function WaterLevels() {
+  const c = currentCase.value;
+  const w = currentResults.value?.wells ?? null;
+  if (!w || w.heads.length === 0) return null;
+  const name = (id: string) => c.site.receptors.find((r) => r.id === id)?.name || id;
+  const signed = (m: number) => (m > 0 ? `+${fmtLength(m)}` : fmtLength(m));
+  return (
+    <>
+      <table class="dg-table dg-wells-table" data-testid="water-levels">
+        <caption>
+          Water levels in the steady well field, referred to the release (saturated thickness there {fmtLength(w.thickness)}); at a pumping well,
+          at its face
+        </caption>
+        <thead>
+          <tr>
+            <th scope="col">Receptor</th>
+            <th scope="col">Head relative to the release (confined form)</th>
+            <th scope="col">Saturated thickness if unconfined (Dupuit–Forchheimer)</th>
+          </tr>
+        </thead>
+        <tbody>
+          {w.heads.map((h) => (
+            <tr key={h.receptorId} data-receptor={h.receptorId}>
+              <th scope="row">{name(h.receptorId)}</th>
+              <td data-col="confined">{signed(h.confined)}</td>
+              <td data-col="unconfined">{h.dewatered ? <strong>dewatered</strong> : fmtLength(h.unconfined)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p class="dg-method">
+        The capture zones and particles take the saturated thickness as constant (confined form: head = Φ/(K·B)); in an unconfined aquifer the
+        water table falls towards a pumping well and the thickness follows h = √(B² + 2ΔΦ/K) (Dupuit–Forchheimer), shown beside it.
+      </p>
+      {w.headWarnings.map((t) => (
+        <p class="dg-field-warn" key={t}>
+          {t}
+        </p>
+      ))}
+    </>
   );
 }
 
