@@ -121,6 +121,7 @@ export const CASE_FIELDS: Readonly<Record<string, FieldInfo>> = {
   'monitoring.wells': f('Monitoring wells', null),
   'monitoring.wells[]': f('Monitoring well', null),
   'monitoring.wells[].position': f('Position of the monitoring well', null),
+  'uncertainty.inputs.dispersivityFactor': f('Dispersivity factor (on αL, αT and αV)', null, POSITIVE),
 };
 
 /** 'site.receptors[2].screenTop' → 'site.receptors[].screenTop' */

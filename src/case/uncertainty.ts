@@ -53,64 +53,42 @@ import { checkSeed } from '../core/random';
 import { SCREENING_CAUTION } from './caution';
 import { countExceedance, exceedanceContours, exceedanceGrid, exceedanceScratch, type ExceedanceContours, type ExceedanceGrid, type TurnedFrame } from './exceedanceMap';
 import { normalizeDeg, sinCosDeg } from '../geo/angles';
+import { fieldInfo } from './fields';
 
 export interface InputDefinition {
-  /** in words, as a case officer reads it */
+  /** as the screen labels the field (src/case/fields.ts, the one list of labels) */
   readonly label: string;
-  /** the case field it replaces */
+  /** the case field it replaces (or, for the dispersivity factor, its own field) */
   readonly field: string;
-  /** null: dimensionless (or degrees for the flow direction) */
+  /** null: dimensionless (or degrees for the flow direction); the field's own (fields.ts) */
   readonly dimension: Dimension | null;
   /** what would narrow it: the measurement, in words a case officer can act on */
   readonly measure: string;
 }
 
+/** An input's definition: its label and unit dimension from the field it replaces (fields.ts), with what would narrow it. */
+function definition(field: string, measure: string): InputDefinition {
+  const info = fieldInfo(field);
+  if (!info) throw new Error(`no field ${field} in fields.ts`);
+  return { label: info.label, field, dimension: info.dimension, measure };
+}
+
 export const INPUT_DEFINITIONS: Record<UncertainInput, InputDefinition> = {
-  hydraulicConductivity: {
-    label: 'hydraulic conductivity (K)',
-    field: 'aquifer.hydraulicConductivity',
-    dimension: 'conductivity',
-    measure: 'slug or pumping tests in wells between the release and the receptors',
-  },
-  gradient: { label: 'hydraulic gradient', field: 'site.flow.gradient', dimension: null, measure: 'water levels measured on one day in at least three surveyed wells' },
-  flowDirection: {
-    label: 'flow direction',
-    field: 'site.flow.azimuthDeg',
-    dimension: null,
-    measure: 'water levels measured on one day in at least three surveyed wells around the release',
-  },
-  effectivePorosity: { label: 'effective porosity', field: 'aquifer.effectivePorosity', dimension: null, measure: 'grain-size or core analysis of the aquifer material' },
-  totalPorosity: {
-    label: 'total porosity',
-    field: 'aquifer.totalPorosity',
-    dimension: null,
-    measure: 'bulk density and grain density of undisturbed core samples (the porosity follows from both)',
-  },
-  fractionOrganicCarbon: {
-    label: 'fraction of organic carbon (foc)',
-    field: 'aquifer.fractionOrganicCarbon',
-    dimension: null,
-    measure: 'laboratory organic-carbon analysis of aquifer samples from below the water table',
-  },
-  koc: { label: 'Koc', field: 'contaminant.sorption.koc', dimension: 'partition', measure: 'a site-specific sorption (batch) test' },
-  kd: { label: 'Kd', field: 'contaminant.sorption.kd', dimension: 'partition', measure: 'a site-specific sorption (batch) test' },
-  halfLife: {
-    label: 'half-life (degradation)',
-    field: 'contaminant.halfLife',
-    dimension: 'time',
-    measure: 'concentrations along the plume over several monitoring rounds, to fit a degradation rate',
-  },
-  sourceHalfLife: { label: 'source half-life', field: 'source.sourceHalfLife', dimension: 'time', measure: 'repeated sampling in the source area over time' },
-  dispersivityFactor: {
-    label: 'dispersivity (factor)',
-    field: 'aquifer.dispersivity',
-    dimension: null,
-    measure: 'a transect of wells across the plume (or a tracer test) to see how far it spreads',
-  },
-  sourceConcentration: { label: 'source concentration', field: 'source.concentration', dimension: 'concentration', measure: 'groundwater samples from the source area' },
-  sourceWidth: { label: 'source width', field: 'site.source.width', dimension: 'length', measure: 'soil borings or direct-push sampling around the release' },
-  sourceThickness: { label: 'source thickness', field: 'source.thickness', dimension: 'length', measure: 'depth-discrete sampling at the source' },
-  releaseDuration: { label: 'release duration', field: 'source.duration', dimension: 'time', measure: 'site records of when the release started and stopped' },
+  hydraulicConductivity: definition('aquifer.hydraulicConductivity', 'slug or pumping tests in wells between the release and the receptors'),
+  gradient: definition('site.flow.gradient', 'water levels measured on one day in at least three surveyed wells'),
+  flowDirection: definition('site.flow.azimuthDeg', 'water levels measured on one day in at least three surveyed wells around the release'),
+  effectivePorosity: definition('aquifer.effectivePorosity', 'grain-size or core analysis of the aquifer material'),
+  totalPorosity: definition('aquifer.totalPorosity', 'bulk density and grain density of undisturbed core samples (the porosity follows from both)'),
+  fractionOrganicCarbon: definition('aquifer.fractionOrganicCarbon', 'laboratory organic-carbon analysis of aquifer samples from below the water table'),
+  koc: definition('contaminant.sorption.koc', 'a site-specific sorption (batch) test'),
+  kd: definition('contaminant.sorption.kd', 'a site-specific sorption (batch) test'),
+  halfLife: definition('contaminant.halfLife', 'concentrations along the plume over several monitoring rounds, to fit a degradation rate'),
+  sourceHalfLife: definition('source.sourceHalfLife', 'repeated sampling in the source area over time'),
+  dispersivityFactor: definition('uncertainty.inputs.dispersivityFactor', 'a transect of wells across the plume (or a tracer test) to see how far it spreads'),
+  sourceConcentration: definition('source.concentration', 'groundwater samples from the source area'),
+  sourceWidth: definition('site.source.width', 'soil borings or direct-push sampling around the release'),
+  sourceThickness: definition('source.thickness', 'depth-discrete sampling at the source'),
+  releaseDuration: definition('source.duration', 'site records of when the release started and stopped'),
 };
 
 const POSITIVE: PhysicalRange = { min: 0, max: Infinity, minOpen: true, maxOpen: true };
@@ -230,9 +208,10 @@ export function designOf(plan: UncertaintyPlan): LatinHypercube {
   return new LatinHypercube(plan.seed, plan.runs, plan.columns);
 }
 
+const MORE_HEADS = 'more water levels, in wells spread around the release and measured on one day';
 export const HEAD_FIT_DRIVERS = {
-  gradient: { label: 'hydraulic gradient (from the head readings)', measure: 'more water levels, in wells spread around the release and measured on one day' },
-  flowDirection: { label: 'flow direction (from the head readings)', measure: 'more water levels, in wells spread around the release and measured on one day' },
+  gradient: { label: `${INPUT_DEFINITIONS.gradient.label} (from the head readings)`, measure: MORE_HEADS },
+  flowDirection: { label: `${INPUT_DEFINITIONS.flowDirection.label} (from the head readings)`, measure: MORE_HEADS },
 } as const;
 
 export interface RunOptions {
@@ -291,6 +270,32 @@ export function planInput(c: Case, input: UncertainInput, distribution: Uncertai
   }
   const sampler = makeSampler(field, definition.label, distribution, physicalRange(input, c));
   return { input, definition, distribution, unit, sampler, factor };
+}
+
+/**
+ * Where new truncation bounds start in the editor: the 1st and 99th percentiles of the distribution
+ * (its own bounds kept) restricted to the input's physical range, so truncating a distribution that
+ * spills outside that range (a normal K below 0) starts inside it; when its own bounds leave
+ * nothing, from the distribution without them. Null when nothing of the distribution lies inside
+ * the range, or its parameters are invalid (the row's message says why).
+ */
+export function truncationStart(c: Case, input: UncertainInput, d: UncertainValue): { low: number; high: number } | null {
+  const own = startWithin(c, input, d, d.truncate ?? {});
+  // bounds that leave nothing of it: start the other side from the distribution without them
+  return own ?? (d.truncate ? startWithin(c, input, d, {}) : null);
+}
+
+function startWithin(c: Case, input: UncertainInput, d: UncertainValue, t: { low?: number | null; high?: number | null }): { low: number; high: number } | null {
+  const range = physicalRange(input, c);
+  const low = Math.max(t.low ?? -Infinity, range.min);
+  const high = Math.min(t.high ?? Infinity, range.max);
+  const inside = { ...d, truncate: { ...(Number.isFinite(low) ? { low } : {}), ...(Number.isFinite(high) ? { high } : {}) } };
+  try {
+    const s = makeSampler(`uncertainty.inputs.${input}`, INPUT_DEFINITIONS[input].label, inside, { min: -Infinity, max: Infinity, minOpen: true, maxOpen: true });
+    return { low: s.sample(0.01), high: s.sample(0.99) };
+  } catch {
+    return null;
+  }
 }
 
 /**
@@ -821,10 +826,13 @@ export function distributionFromEstimate(input: UncertainInput, estimate: number
   return { kind: 'lognormal', median: estimate, gsd: Math.exp(standardError / estimate), ...extra };
 }
 
-/** "if K is in its low third, 3 %; in its high third, 61 %" */
+/** A screen label inside a sentence: its first letter lower-case unless it starts an abbreviation ("Koc …"). */
+export const inSentence = (label: string): string => (/^[A-Z][^A-Z]/.test(label) ? label.charAt(0).toLowerCase() + label.slice(1) : label);
+
+/** "if hydraulic conductivity K is in its low third, 3 %; in its high third, 61 %" */
 export function driverSentence(d: Driver): string {
   const pc = (p: number) => `${(100 * p).toFixed(p < 0.1 && p > 0 ? 1 : 0)} %`;
-  return `if ${d.label} is in its low third, ${pc(d.pExceedLowThird)}; in its high third, ${pc(d.pExceedHighThird)}`;
+  return `if ${inSentence(d.label)} is in its low third, ${pc(d.pExceedLowThird)}; in its high third, ${pc(d.pExceedHighThird)}`;
 }
 
 /** A distribution in words, with its unit: "lognormal, median 12 m/d, geometric SD 3". */

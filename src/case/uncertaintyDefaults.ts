@@ -102,3 +102,33 @@ export function defaultDistribution(c: Case, input: UncertainInput): UncertainVa
     }
   }
 }
+
+/** The note of a distribution the user has changed away from its cited starting values. */
+export const OWN_VALUES = 'my own values';
+
+const PARAMETER_KEYS = ['low', 'high', 'mode', 'mean', 'sd', 'median', 'gsd', 'percentile'] as const;
+
+/** The same distribution: type, unit, parameters (within rounding) and no truncation on either. */
+function sameDistribution(a: UncertainValue, b: UncertainValue): boolean {
+  if (a.kind !== b.kind || (a.unit ?? null) !== (b.unit ?? null)) return false;
+  if (a.truncate?.low != null || a.truncate?.high != null || b.truncate?.low != null || b.truncate?.high != null) return false;
+  const pa = a as unknown as Record<string, number | undefined>;
+  const pb = b as unknown as Record<string, number | undefined>;
+  return PARAMETER_KEYS.every((k) => pa[k] === pb[k] || (pa[k] !== undefined && pb[k] !== undefined && Math.abs(pa[k]! - pb[k]!) <= 1e-9 * Math.abs(pb[k]!)));
+}
+
+/**
+ * The source note a distribution carries after the user changed it (its type, a parameter or its
+ * truncation): the starting distribution's cited source while it is that distribution again,
+ * otherwise "my own values", saying where it started from when that had a source of its own
+ * ("my own values (changed from: the tabulated range for medium sand (Bouwer 1978 …))"), so a
+ * cited range never stays beside values it no longer describes.
+ */
+export function noteAfterEdit(c: Case, input: UncertainInput, before: UncertainValue, after: UncertainValue): string {
+  const start = defaultDistribution(c, input);
+  if (start?.note && sameDistribution(after, start)) return start.note;
+  const was = before.note;
+  if (!was || was.startsWith(OWN_VALUES)) return was ?? OWN_VALUES;
+  const from = `${OWN_VALUES} (changed from: ${was})`;
+  return from.length <= 500 ? from : `${from.slice(0, 498)}…)`; // the case file keeps notes to 500 characters
+}

@@ -85,7 +85,7 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     const text = await page.getByTestId('report-uncertainty').innerText();
     expect(text).toContain('250 realisations, seed 9');
     expect(text).toContain('npm run screen -- case.json --runs 250 --seed 9');
-    expect(text).toContain('hydraulic conductivity (K): lognormal, median 12 m/d, geometric standard deviation 3');
+    expect(text).toContain('Hydraulic conductivity K: lognormal, median 12 m/d, geometric standard deviation 3');
     expect(text).toMatch(/To narrow it: /);
     expect(text).toContain('conditional on the chosen distributions');
     await page.getByTestId('report-uncertainty').scrollIntoViewIfNeeded();
@@ -133,27 +133,47 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await row.getByRole('checkbox').check();
     // the starting distribution comes from the published range, and says so
     await expect(row.locator('.dg-help').innerText()).resolves.toMatch(/Source: .*Freeze & Cherry 1979/);
-    const low = page.getByLabel('total porosity: low', { exact: true });
-    const high = page.getByLabel('total porosity: high', { exact: true });
+    const low = page.getByLabel('Total porosity n: low', { exact: true });
+    const high = page.getByLabel('Total porosity n: high', { exact: true });
     await low.fill('0.6');
     await low.press('Tab');
     await high.fill('0.4');
     await high.press('Tab');
-    await expect(row.getByRole('alert').innerText()).resolves.toMatch(/total porosity: the low value \(0\.6\) is not below the high value \(0\.4\)/);
+    await expect(row.getByRole('alert').innerText()).resolves.toMatch(/Total porosity n: the low value \(0\.6\) is not below the high value \(0\.4\)/);
     // a value outside the physical range: refused naming the range, not clipped
     await low.fill('0.3');
     await low.press('Tab');
     await high.fill('1.2');
     await high.press('Tab');
-    await expect(row.getByRole('alert').innerText()).resolves.toMatch(/total porosity: .* outside the physical range \(in \(0, 1\)\)/);
+    await expect(row.getByRole('alert').innerText()).resolves.toMatch(/Total porosity n: .* outside the physical range \(in \(0, 1\)\)/);
     await high.fill('0.45');
     await high.press('Tab');
     await expect(row.getByRole('alert').count()).resolves.toBe(0);
+    // edited away from the cited range, the source note no longer claims it
+    await expect.poll(() => row.locator('.dg-help').innerText()).toMatch(/^Source: my own values \(changed from: .*Freeze & Cherry 1979/);
     // another type keeps the spread (fitted to the 5th, 50th and 95th percentiles)
     const k = page.locator('[data-input=hydraulicConductivity]');
     await k.locator('select').selectOption('normal');
-    await expect(page.getByLabel('hydraulic conductivity (K): mean', { exact: true }).inputValue()).resolves.toMatch(/^\d/);
+    await expect(page.getByLabel('Hydraulic conductivity K: mean', { exact: true }).inputValue()).resolves.toMatch(/^\d/);
     await expect(k.getByRole('alert').count()).resolves.toBe(1); // a normal K puts probability below 0: said, not clipped
+    await expect.poll(() => k.locator('.dg-help').innerText()).toMatch(/^Source: my own values \(changed from: Invented for this demo/);
+    // the remedy the message offers: truncate it inside the physical range
+    await k.getByRole('button', { name: 'Hydraulic conductivity K: truncate below', exact: true }).click();
+    const below = page.getByLabel('Hydraulic conductivity K: truncated below', { exact: true });
+    await below.fill('0.5');
+    await below.press('Tab');
+    await expect.poll(() => k.getByRole('alert').count()).toBe(0);
+    // bounds that leave nothing: refused, naming the input and where the distribution lies
+    await below.fill('5000');
+    await below.press('Tab');
+    await expect(k.getByRole('alert').innerText()).resolves.toMatch(/Hydraulic conductivity K: the truncation bounds \[5000, ∞\] leave \(almost\) none of the distribution, which lies from −?[\d.]+ to [\d.]+/);
+    await page.setViewportSize(PHONE);
+    await k.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('uncertainty-truncation-390x844.png') });
+    await page.setViewportSize(LANDSCAPE);
+    await k.getByRole('button', { name: 'Hydraulic conductivity K: remove lower bound', exact: true }).click();
+    await expect.poll(() => below.count()).toBe(0);
+    await expect.poll(() => k.getByRole('alert').innerText()).toMatch(/below 0, outside the physical range/);
     await k.locator('select').selectOption('lognormal-range');
     await expect(k.getByRole('alert').count()).resolves.toBe(0);
     await page.getByTestId('distribution-editor').scrollIntoViewIfNeeded();

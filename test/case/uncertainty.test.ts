@@ -252,13 +252,17 @@ describe('bad settings are refused with a message naming the input', () => {
   it.each([
     ['zero runs', { runs: 0 }, /uncertainty\.runs = 0 is not accepted: must be a whole number of realisations from 1 to 50000/],
     ['a non-integer seed', { seed: 2.5 }, /uncertainty\.seed = 2\.5 is not accepted: must be a whole number/],
-    ['low above high', { inputs: { halfLife: { kind: 'uniform', low: 900, high: 300, unit: 'd' } } }, /uncertainty\.inputs\.halfLife\.high .*half-life \(degradation\): the low value \(900\) is not below the high value \(300\)/],
-    ['a negative standard deviation', { inputs: { sourceConcentration: { kind: 'normal', mean: 50, sd: -5 } } }, /source concentration: the standard deviation must be above 0/],
-    ['a normal porosity with a tail below 0', { inputs: { effectivePorosity: { kind: 'normal', mean: 0.2, sd: 0.1 } } }, /effective porosity: this normal distribution puts 2\.3 % of its probability below 0/],
-    ['porosity above the total porosity', { inputs: { effectivePorosity: { kind: 'uniform', low: 0.1, high: 0.9 } } }, /effective porosity: .* above 0\.3/],
-    ['a length in a time unit', { inputs: { sourceThickness: { kind: 'uniform', low: 1, high: 2, unit: 'd' } } }, /source thickness: "d" is not a length unit/],
+    ['low above high', { inputs: { halfLife: { kind: 'uniform', low: 900, high: 300, unit: 'd' } } }, /uncertainty\.inputs\.halfLife\.high .*Biodegradation half-life: the low value \(900\) is not below the high value \(300\)/],
+    ['a negative standard deviation', { inputs: { sourceConcentration: { kind: 'normal', mean: 50, sd: -5 } } }, /Source concentration C₀: the standard deviation must be above 0/],
+    ['a normal porosity with a tail below 0', { inputs: { effectivePorosity: { kind: 'normal', mean: 0.2, sd: 0.1 } } }, /Effective porosity nₑ: this normal distribution puts 2\.3 % of its probability below 0/],
+    ['porosity above the total porosity', { inputs: { effectivePorosity: { kind: 'uniform', low: 0.1, high: 0.9 } } }, /Effective porosity nₑ: .* above 0\.3/],
+    ['a length in a time unit', { inputs: { sourceThickness: { kind: 'uniform', low: 1, high: 2, unit: 'd' } } }, /Source thickness below the water table: "d" is not a length unit/],
     ['no distribution at all', { inputs: {} }, /no input has a distribution/],
-    ['gradient with flow from heads', { inputs: { gradient: { kind: 'uniform', low: 0.001, high: 0.01 } } }, /hydraulic gradient: the flow comes from head readings/],
+    ['gradient with flow from heads', { inputs: { gradient: { kind: 'uniform', low: 0.001, high: 0.01 } } }, /Hydraulic gradient i: the flow comes from head readings/],
+    ['truncation bounds in the wrong order', { inputs: { hydraulicConductivity: { kind: 'lognormal', median: 10, gsd: 2, truncate: { low: 30, high: 5 } } } }, /Hydraulic conductivity K: the lower truncation bound \(30\) is not below the upper one \(5\)/],
+    // lognormal median 10, gsd 2: its 0.1st and 99.9th percentiles are 10·2^(∓3.090) = 1.17 and 85.2 (Φ⁻¹(0.999) = 3.090, standard normal table)
+    ['truncation bounds that leave nothing', { inputs: { hydraulicConductivity: { kind: 'lognormal', median: 10, gsd: 2, truncate: { low: 1e6, high: 2e6 } } } }, /Hydraulic conductivity K: the truncation bounds \[1000000, 2000000\] leave \(almost\) none of the distribution, which lies from 1\.17 to 85\.2/],
+    ['a truncated normal porosity still below 0', { inputs: { effectivePorosity: { kind: 'normal', mean: 0.2, sd: 0.1, truncate: { low: -0.1, high: 0.3 } } } }, /Effective porosity nₑ: this normal distribution puts .* below 0, outside the physical range \(in \(0, 0\.3\]\)/],
   ])('%s', (_n, u, msg) => {
     expect(run(u as Partial<Case['uncertainty']>)).toThrow(msg);
   });
@@ -318,7 +322,7 @@ describe('probabilistic CSV (src/case/export-uncertainty.ts)', () => {
     const text = uncertaintyCsv(res);
     const lines = text.split('\r\n');
     expect(lines[1]).toMatch(/^Monte Carlo,120,8,"?Latin hypercube/);
-    expect(text).toContain('uncertain input,hydraulic conductivity (K),"lognormal, median 12 m/d, geometric standard deviation 3"');
+    expect(text).toContain('uncertain input,Hydraulic conductivity K,"lognormal, median 12 m/d, geometric standard deviation 3"');
     const farm = lines.find((l) => l.startsWith('Farm supply well,120,8,'))!;
     expect(Number(farm.split(',')[3])).toBe(res.receptors[0].pExceed);
     expect(lines.filter((l) => l.startsWith("Neighbour's garden well,")).length).toBe(1 + res.receptors[1].drivers.length);
@@ -363,7 +367,62 @@ describe('a distribution from an estimate and its standard error (for values fit
     const s = planInput(c, 'halfLife', d).sampler;
     expect(s.sample(0.8413447460685429) / 400).toBeCloseTo(Math.exp(0.1), 9);
     expect(distributionFromEstimate('flowDirection', 110, 8)).toEqual({ kind: 'normal', mean: 110, sd: 8 });
-    expect(() => distributionFromEstimate('sourceConcentration', 5, 0)).toThrow(/source concentration: the standard error must be a number above 0/);
-    expect(() => distributionFromEstimate('hydraulicConductivity', -3, 1)).toThrow(/hydraulic conductivity \(K\): the estimate must be above 0/);
+    expect(() => distributionFromEstimate('sourceConcentration', 5, 0)).toThrow(/Source concentration C₀: the standard error must be a number above 0/);
+    expect(() => distributionFromEstimate('hydraulicConductivity', -3, 1)).toThrow(/Hydraulic conductivity K: the estimate must be above 0/);
+  });
+});
+
+describe('the source note after an edit (uncertaintyDefaults.ts noteAfterEdit)', () => {
+  it('a cited starting range changed in type, parameter or bounds says "my own values" and where it started; back at the starting values, the citation again', async () => {
+    const { defaultDistribution, noteAfterEdit, OWN_VALUES } = await import('../../src/case/uncertaintyDefaults');
+    const c = load('fuel-release-farm-well.json');
+    const start = defaultDistribution(c, 'hydraulicConductivity')!;
+    expect(start.note).toMatch(/Bouwer 1978/);
+    type D = typeof start;
+    const typed: D = { kind: 'lognormal', median: 10, gsd: 2, unit: start.unit, note: start.note };
+    const note = noteAfterEdit(c, 'hydraulicConductivity', start, typed);
+    expect(note).toBe(`${OWN_VALUES} (changed from: ${start.note})`);
+    // a second edit keeps the one note (no "changed from: my own values (changed from: …)")
+    expect(noteAfterEdit(c, 'hydraulicConductivity', { ...typed, note }, { ...typed, gsd: 3, note } as D)).toBe(note);
+    // new bounds on the cited range: no longer the cited distribution
+    expect(noteAfterEdit(c, 'hydraulicConductivity', start, { ...start, truncate: { low: 6 } })).toMatch(/^my own values \(changed from: /);
+    // the starting values again: the citation again
+    expect(noteAfterEdit(c, 'hydraulicConductivity', { ...typed, note }, { ...start, note: undefined })).toBe(start.note);
+    // the demo's own note, or none, becomes "my own values"
+    const demo = c.uncertainty.inputs.halfLife!;
+    const wider = { ...demo, high: 4 } as D;
+    expect(noteAfterEdit(c, 'halfLife', demo, wider)).toBe(`my own values (changed from: ${demo.note})`);
+    expect(noteAfterEdit(c, 'halfLife', { ...demo, note: undefined }, wider)).toBe('my own values');
+  });
+});
+
+describe('labels of the uncertain inputs (one list: src/case/fields.ts)', () => {
+  it('each input is labelled as the screen labels the field it replaces, with that field’s unit dimension', async () => {
+    const { INPUT_DEFINITIONS, driverSentence } = await import('../../src/case/uncertainty');
+    const { fieldInfo } = await import('../../src/case/fields');
+    for (const [input, d] of Object.entries(INPUT_DEFINITIONS)) {
+      expect(d.label, input).toBe(fieldInfo(d.field)!.label);
+      expect(d.dimension, input).toBe(fieldInfo(d.field)!.dimension);
+    }
+    expect(INPUT_DEFINITIONS.hydraulicConductivity.label).toBe('Hydraulic conductivity K');
+    const d = { input: 'hydraulicConductivity', label: 'Hydraulic conductivity K', rankCorrelation: 0.8, pExceedLowThird: 0.03, pExceedHighThird: 0.61, measure: '' } as const;
+    expect(driverSentence(d)).toBe('if hydraulic conductivity K is in its low third, 3.0 %; in its high third, 61 %');
+    expect(driverSentence({ ...d, label: 'Organic-carbon partition coefficient Koc' })).toMatch(/^if organic-carbon partition/);
+  });
+});
+
+describe('where new truncation bounds start (truncationStart)', () => {
+  it('a normal K spilling below 0: the 1st and 99th percentiles of its part above 0 (Φ from @stdlib erfc)', async () => {
+    const { truncationStart } = await import('../../src/case/uncertainty');
+    const c = load('fuel-release-farm-well.json');
+    const d = { kind: 'normal', mean: 12, sd: 21.6, unit: 'K:m/d' } as const;
+    const s = truncationStart(c, 'hydraulicConductivity', d)!;
+    const phi = (x: number) => upperTail(-(x - d.mean) / d.sd); // Φ(z) = P(Z > −z), @stdlib erfc (normal-tail.ts)
+    const F = (x: number) => (phi(x) - phi(0)) / (1 - phi(0)); // the normal truncated to (0, ∞)
+    expect(s.low).toBeGreaterThan(0);
+    expect(Math.abs(F(s.low) - 0.01)).toBeLessThan(1e-12);
+    expect(Math.abs(F(s.high) - 0.99)).toBeLessThan(1e-12);
+    // nothing inside the physical range: no starting bounds
+    expect(truncationStart(c, 'effectivePorosity', { kind: 'uniform', low: 2, high: 3 })).toBeNull();
   });
 });

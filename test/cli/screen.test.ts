@@ -303,7 +303,7 @@ describe('npm run screen -- case.json --runs N --seed S', () => {
     expect(c.code).toBe(0);
     const lines = c.out.split('\r\n');
     expect(lines[0]).toContain('mc_runs,mc_seed,p_exceed,p_exceed_se,p_exceed_low95,p_exceed_high95,arrival_p5_d');
-    expect(c.out).toContain('uncertain input,hydraulic conductivity (K),"lognormal, median 12 m/d, geometric standard deviation 3"');
+    expect(c.out).toContain('uncertain input,Hydraulic conductivity K,"lognormal, median 12 m/d, geometric standard deviation 3"');
     expect(c.out).toContain('probabilistic caution');
   });
 

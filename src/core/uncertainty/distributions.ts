@@ -49,6 +49,9 @@ export interface PhysicalRange {
   readonly maxOpen: boolean;
 }
 
+/** A bound in a message: 3 significant figures, a true minus sign. */
+const writtenBound = (v: number): string => String(Number(v.toPrecision(3))).replace('e+', 'e').replace(/^-/, '−');
+
 export function rangeText(r: PhysicalRange): string {
   if (r.max === Infinity) return r.min === -Infinity ? 'any value' : `${r.minOpen ? '>' : '≥'} ${r.min}`;
   if (r.min === -Infinity) return `${r.maxOpen ? '<' : '≤'} ${r.max}`;
@@ -205,8 +208,16 @@ export function makeSampler(field: string, label: string, d: Distribution, range
   }
   const Fa = ta === null ? 0 : b.cdf(ta);
   const Fb = tb === null ? 1 : b.cdf(tb);
-  if (!(Fb - Fa > 1e-12) || !(hi > lo))
-    throw new ValidationError(`${field}.truncate`, t, 'bounds that keep some of the distribution', `${label}: the truncation bounds [${ta ?? '−∞'}, ${tb ?? '∞'}] leave (almost) none of the distribution`);
+  if (!(Fb - Fa > 1e-12) || !(hi > lo)) {
+    // where the distribution lies (its 0.1st to 99.9th percentile), so the message names the range bounds must overlap
+    const within = `${writtenBound(b.quantile(0.001))} to ${writtenBound(b.quantile(0.999))}`;
+    throw new ValidationError(
+      `${field}.truncate`,
+      t,
+      `bounds that overlap ${within}`,
+      `${label}: the truncation bounds [${ta ?? '−∞'}, ${tb ?? '∞'}] leave (almost) none of the distribution, which lies from ${within} (0.1st to 99.9th percentile): set bounds that overlap that range`,
+    );
+  }
 
   // physical range: no probability outside it
   const below = lo < range.min || (lo === range.min && loClosed && range.minOpen);

@@ -12,8 +12,8 @@
 import { currentCase, updateCase } from '../state';
 import { NumberField, unitLabel } from '../fields';
 import { UNCERTAIN_INPUTS, type Case, type UncertainInput, type UncertainValue } from '../../case/schema';
-import { defaultUnit, INPUT_DEFINITIONS, notApplicable, planInput } from '../../case/uncertainty';
-import { defaultDistribution } from '../../case/uncertaintyDefaults';
+import { defaultUnit, INPUT_DEFINITIONS, notApplicable, planInput, truncationStart } from '../../case/uncertainty';
+import { defaultDistribution, noteAfterEdit } from '../../case/uncertaintyDefaults';
 import { detailOf } from '../../case/checked';
 import { normalQuantile } from '../../core/uncertainty';
 
@@ -128,6 +128,8 @@ function InputRow({ c, input }: { c: Case; input: UncertainInput }) {
       if (next) draft.uncertainty.inputs[input] = next;
       else delete draft.uncertainty.inputs[input];
     });
+  // a change of type, parameter or bounds: the source note follows (the cited one, or "my own values")
+  const change = (next: UncertainValue) => d && set({ ...next, note: noteAfterEdit(c, input, d, next) });
   return (
     <div class={`dg-mc-row${problem ? ' dg-invalid' : ''}`} data-input={input}>
       <label class="dg-check">
@@ -147,7 +149,7 @@ function InputRow({ c, input }: { c: Case; input: UncertainInput }) {
                 const kind = (e.target as HTMLSelectElement).value as Kind;
                 // the spread of the distribution as it is, or, when that is not valid, of the starting one
                 const s = planned?.sampler ?? samplerOf(c, input, defaultDistribution(c, input));
-                if (s) set(refitDistribution(d, kind, s.sample(0.05), s.median, s.sample(0.95)));
+                if (s) change(refitDistribution(d, kind, s.sample(0.05), s.median, s.sample(0.95)));
               }}
             >
               {KINDS.map((o) => (
@@ -164,9 +166,10 @@ function InputRow({ c, input }: { c: Case; input: UncertainInput }) {
               field={`uncertainty.inputs.${input}.${p.key}`}
               value={(d as unknown as Record<string, number>)[p.key]}
               suffix={p.unitless || (p.key === 'sd' && input !== 'flowDirection' && !unit) ? undefined : unitText || undefined}
-              onChange={(v) => set({ ...d, [p.key]: v } as UncertainValue)}
+              onChange={(v) => change({ ...d, [p.key]: v } as UncertainValue)}
             />
           ))}
+          <Truncation input={input} label={def.label} d={d} unitText={unitText} start={truncationStart(c, input, d)} change={change} />
           {problem && (
             <p class="dg-field-error" role="alert">
               {problem}
@@ -175,6 +178,47 @@ function InputRow({ c, input }: { c: Case; input: UncertainInput }) {
           {d.note && <p class="dg-help">Source: {d.note}</p>}
         </div>
       )}
+    </div>
+  );
+}
+
+/**
+ * Optional bounds the distribution is truncated to (its probability between them rescaled to 1):
+ * each side added or removed on its own, starting at the 1st or 99th percentile of the part of the
+ * distribution inside the input's physical range (case/uncertainty.ts truncationStart).
+ * The run's check (planInput) says when the bounds leave nothing or the distribution still puts
+ * probability outside the input's physical range.
+ */
+function Truncation(props: { input: UncertainInput; label: string; d: UncertainValue; unitText: string; start: { low: number; high: number } | null; change: (next: UncertainValue) => void }) {
+  const { input, label, d, unitText, start: from, change } = props;
+  const t = d.truncate ?? {};
+  const setBound = (side: 'low' | 'high', v: number | null) => {
+    const next = { ...t, [side]: v };
+    const kept = next.low != null || next.high != null;
+    const { truncate: _old, ...rest } = d;
+    change((kept ? { ...rest, truncate: { ...(next.low != null ? { low: next.low } : {}), ...(next.high != null ? { high: next.high } : {}) } } : rest) as UncertainValue);
+  };
+  const sides = [
+    { side: 'low' as const, words: 'truncated below', add: 'Truncate below', start: from ? sig(from.low) : null },
+    { side: 'high' as const, words: 'truncated above', add: 'Truncate above', start: from ? sig(from.high) : null },
+  ];
+  return (
+    <div class="dg-mc-truncate">
+      {sides.map(({ side, words, add, start }) => {
+        const v = t[side];
+        return v != null ? (
+          <div class="dg-mc-bound" key={side}>
+            <NumberField label={`${label}: ${words}`} field={`uncertainty.inputs.${input}.truncate.${side}`} value={v} suffix={unitText || undefined} onChange={(x) => setBound(side, x)} />
+            <button type="button" onClick={() => setBound(side, null)} aria-label={`${label}: remove ${side === 'low' ? 'lower' : 'upper'} bound`}>
+              Remove {side === 'low' ? 'lower' : 'upper'} bound
+            </button>
+          </div>
+        ) : (
+          <button type="button" key={side} disabled={start === null} onClick={() => start !== null && setBound(side, start)} aria-label={`${label}: ${add.toLowerCase()}`}>
+            {add}
+          </button>
+        );
+      })}
     </div>
   );
 }
