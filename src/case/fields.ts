@@ -124,6 +124,30 @@ export const CASE_FIELDS: Readonly<Record<string, FieldInfo>> = {
   'uncertainty.inputs.dispersivityFactor': f('Dispersivity factor (on αL, αT and αV)', null, POSITIVE),
 };
 
+/**
+ * The words the screen shows for each choice of a field that is a choice, in the order the screen
+ * offers them: the panels' switches and the comparison of two cases read these, never the codes.
+ */
+export const CHOICE_WORDS: Readonly<Record<string, Readonly<Record<string, string>>>> = {
+  'site.frame': { geographic: 'On the basemap (longitude, latitude)', local: 'Local site grid (from a datum)' },
+  'site.flow.method': { direction: 'Arrow and gradient', heads: 'Water levels in wells' },
+  'aquifer.dispersivity.mode': { estimate: 'Estimate from distance', given: 'My values' },
+  'contaminant.sorption.mode': { koc: 'Koc (with foc)', kd: 'Kd directly' },
+  'contaminant.decayPhase': { 'dissolved-and-sorbed': 'Dissolved and sorbed', 'dissolved-only': 'Dissolved only' },
+  'evaluation.solution': { domenico: 'Domenico (1987, approximate)', exact: 'Exact rectangular source' },
+  'units.system': { SI: 'SI (metres)', US: 'US (feet)' },
+};
+
+/** A choice in the screen's words (a value the field does not list: as it is). */
+export function choiceText(path: string, value: string): string {
+  return CHOICE_WORDS[fieldPattern(path)]?.[value] ?? value;
+}
+
+/** A choice field's options for a switch on the screen: [{ id, label }] in the screen's order. */
+export function choiceOptions<T extends string>(path: string): { id: T; label: string }[] {
+  return Object.entries(CHOICE_WORDS[path] ?? {}).map(([id, label]) => ({ id: id as T, label }));
+}
+
 /** 'site.receptors[2].screenTop' → 'site.receptors[].screenTop' */
 export const fieldPattern = (path: string): string => path.replace(/\[\d+\]/g, '[]');
 

@@ -55,7 +55,8 @@ async function mapLayout(page: Page) {
       map,
       band: limitBand ? box(limitBand) : null,
       marks: [...document.querySelectorAll('.dg-mark-receptor, .dg-mark-head')].map((m) => box(m)),
-      labels: [...document.querySelectorAll('.dg-mark-label')].map((l) => ({ text: (l as HTMLElement).innerText, ...box(l) })),
+      // a label the map hides for want of room (map/declutter.ts: the mark keeps its name) is not drawn
+      labels: [...document.querySelectorAll('.dg-mark-label')].filter((l) => getComputedStyle(l).display !== 'none').map((l) => ({ text: (l as HTMLElement).innerText, ...box(l) })),
     };
   });
 }

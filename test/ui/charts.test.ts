@@ -6,7 +6,7 @@
  * their intervals, a point estimate at its time; the band ± 2 standard errors, never below zero.
  */
 import { describe, expect, test } from 'vitest';
-import { particlePoints, receptorMarks } from '../../src/ui/charts/Charts';
+import { arrivalLabelY, M, particlePoints, receptorMarks } from '../../src/ui/charts/Charts';
 
 describe('receptorMarks', () => {
   test('close receptors go into separate rows; none overlaps another in its row', () => {
@@ -48,5 +48,18 @@ describe('particlePoints', () => {
     const p = particlePoints({ ...curve, pumped: false });
     expect(p.ts).toEqual([10, 20, 30]);
     expect(p.c).toEqual([0, 0.5, 1]);
+  });
+});
+
+describe('arrivalLabelY (issue 13: "log scale" overprinted "reaches limit")', () => {
+  // the note's box: x from M.l + 4, about 58 wide (9 characters of 10 px DejaVu Sans), baseline M.t + 11, 10 px tall
+  const noteRight = M.l + 4 + 58;
+  test('on a log axis, words starting over the note go one line (14 px) lower, clear of its baseline by a text height', () => {
+    expect(arrivalLabelY(M.l + 5, true)).toBe(M.t + 27);
+    expect(arrivalLabelY(M.l + 5, true) - 12).toBeGreaterThan(M.t + 11); // 12 px: the words' cap height and more
+    expect(arrivalLabelY(noteRight + 1, true)).toBe(M.t + 13);
+  });
+  test('on a linear axis there is no note: the top line', () => {
+    expect(arrivalLabelY(M.l + 5, false)).toBe(M.t + 13);
   });
 });

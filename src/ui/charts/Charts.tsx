@@ -215,6 +215,10 @@ export function BreakthroughChart(props: {
   const [pt, pc, plo, phi] = pp ? [pp.ts.map(toT), pp.c.map(toC), pp.lo.map(toC), pp.hi.map(toC)] : [[], [], [], []];
   const sx = linearScale(0, toT(props.horizon), M.l, W - M.r);
   const sy = concentrationScale([...vs, ...(alt ?? []), ...p95, ...phi], lim, H - M.b, M.t);
+  // the arrival's words sit at the top of the plot; where they would run into the 'log scale'
+  // note (top left, about LOG_NOTE_W wide) they go one line lower
+  const arrivalX = props.arrival === null ? 0 : Math.min(sx(toT(props.arrival)) + 5, W - M.r - 70);
+  const arrivalY = arrivalLabelY(arrivalX, sy.log);
   return (
     <Frame
       title={`Breakthrough at ${props.name}`}
@@ -253,13 +257,24 @@ export function BreakthroughChart(props: {
         <g class="dg-chart-arrival">
           <line x1={sx(toT(props.arrival))} x2={sx(toT(props.arrival))} y1={M.t} y2={H - M.b} />
           <circle cx={sx(toT(props.arrival))} cy={sy(lim)} r={4.5} />
-          <text x={Math.min(sx(toT(props.arrival)) + 5, W - M.r - 70)} y={M.t + 13}>
+          <text x={arrivalX} y={arrivalY} data-testid="arrival-label">
             reaches limit: {Number(toT(props.arrival).toPrecision(3))} {UNITS[tu].label}
           </text>
         </g>
       )}
     </Frame>
   );
+}
+
+/** Width of the 'log scale' note, chart units (9 characters of 10 px DejaVu Sans, under 6.2 px each). */
+const LOG_NOTE_W = 58;
+
+/**
+ * The baseline of the breakthrough chart's "reaches limit" words starting at x: the top line of the
+ * plot, or one line lower where a log scale's note (top left, baseline M.t + 11) would be under them.
+ */
+export function arrivalLabelY(x: number, log: boolean): number {
+  return log && x < M.l + 4 + LOG_NOTE_W ? M.t + 27 : M.t + 13;
 }
 
 /** Approximate width of a receptor label, chart units (10 px DejaVu Sans averages under 6.2 px a character). */

@@ -3,7 +3,7 @@
  * the update prompt, the two-tab conflict choice, and short notices (with Undo after a delete).
  * Everything is visible text or a button; nothing depends on hover.
  */
-import { useRef } from 'preact/hooks';
+import { useLayoutEffect, useRef, useState } from 'preact/hooks';
 import { createPortal } from 'preact/compat';
 import { dismiss, notices, offlineReady, online, saveState, updateWaiting } from '../../app/session';
 import { resolveConflict } from '../../app/actions';
@@ -77,11 +77,32 @@ function ConflictDialog() {
   );
 }
 
+/**
+ * Where notices sit on a phone (library.css, max-width 600px): over the top of the map, below the
+ * header and the map's tools, which stay usable; the map's top edge is read when notices change and
+ * on resize. Elsewhere the stylesheet places them and ignores the value.
+ */
+function useMapTop(count: number): number | null {
+  const [top, setTop] = useState<number | null>(null);
+  useLayoutEffect(() => {
+    const place = () => {
+      const m = document.querySelector('.dg-map');
+      const t = m ? m.getBoundingClientRect().top : NaN;
+      setTop(Number.isFinite(t) && t > 0 && t < window.innerHeight / 2 ? Math.round(t) + 6 : null);
+    };
+    place();
+    window.addEventListener('resize', place);
+    return () => window.removeEventListener('resize', place);
+  }, [count]);
+  return top;
+}
+
 function Notices() {
   const list = notices.value;
   const s = saveState.value;
+  const mapTop = useMapTop(list.length + (s.kind === 'storage-full' || s.kind === 'error' ? 1 : 0));
   return createPortal(
-    <div class="dg-notices" aria-live="polite">
+    <div class="dg-notices" aria-live="polite" style={mapTop === null ? undefined : { '--dg-notice-top': `${mapTop}px` }}>
       {(s.kind === 'storage-full' || s.kind === 'error') && (
         <div class="dg-notice is-error" role="alert" data-testid="storage-full">
           <p>{s.message}</p>

@@ -7,8 +7,9 @@
  * Receptors are matched by id (a variant keeps its parent's receptor ids), then by name.
  */
 import { formatDuration, formatSig, roundSig, screenNumber } from '../../case/numbers';
-import type { Case } from '../../case/schema';
-import { CASE_FIELDS, fieldLabel } from '../../case/fields';
+import type { Case, ReceptorKind } from '../../case/schema';
+import { KIND_LABEL } from '../../case/receptorKinds';
+import { CASE_FIELDS, choiceText, fieldLabel } from '../../case/fields';
 import { UNITS } from '../../core/units';
 
 export interface Difference {
@@ -128,8 +129,8 @@ function walk(a: unknown, b: unknown, path: string, out: Difference[]): void {
     const ra = a as Record<string, unknown>;
     const rb = b as Record<string, unknown>;
     // a mode switch (e.g. dispersivity estimate → given) is one difference, then the fields of each
-    if ('mode' in ra && ra.mode !== rb.mode) out.push({ path: `${path}.mode`, label: label(`${path}.mode`), a: show(ra.mode), b: show(rb.mode) });
-    if ('method' in ra && ra.method !== rb.method) out.push({ path: `${path}.method`, label: label(`${path}.method`), a: show(ra.method), b: show(rb.method) });
+    if ('mode' in ra && ra.mode !== rb.mode) out.push({ path: `${path}.mode`, label: label(`${path}.mode`), a: shownAt(`${path}.mode`, ra.mode), b: shownAt(`${path}.mode`, rb.mode) });
+    if ('method' in ra && ra.method !== rb.method) out.push({ path: `${path}.method`, label: label(`${path}.method`), a: shownAt(`${path}.method`, ra.method), b: shownAt(`${path}.method`, rb.method) });
     for (const k of new Set([...Object.keys(ra), ...Object.keys(rb)])) {
       if ((k === 'mode' || k === 'method') && ra[k] !== rb[k]) continue;
       const p = path ? `${path}.${k}` : k;
@@ -139,7 +140,14 @@ function walk(a: unknown, b: unknown, path: string, out: Difference[]): void {
     }
     return;
   }
-  if (JSON.stringify(a) !== JSON.stringify(b)) out.push({ path, label: label(path), a: show(a), b: show(b) });
+  if (JSON.stringify(a) !== JSON.stringify(b)) out.push({ path, label: label(path), a: shownAt(path, a), b: shownAt(path, b) });
+}
+
+/** A value as the screen says it at this field: a choice in its words (fields.ts CHOICE_WORDS), a receptor kind in words. */
+function shownAt(path: string, v: unknown): string {
+  if (typeof v !== 'string') return show(v);
+  if (path === 'kind') return KIND_LABEL[v as ReceptorKind] ?? v;
+  return choiceText(path, v);
 }
 
 const RECEPTOR_FIELDS = ['kind', 'position', 'screenTop', 'screenBottom', 'pumping', 'pumpingRate'] as const;

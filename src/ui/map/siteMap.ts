@@ -19,6 +19,7 @@ import { settings } from '../settings';
 import { currentPlume, preparedCase } from '../evaluation';
 import { sourceIcon, receptorIcon, headIcon, flowHandleIcon } from './symbols';
 import { SiteGridLayer, NorthArrow } from './siteGrid';
+import { declutter, symbolRect, type Rect } from './declutter';
 import { shownQuantity, unitSystem } from '../../case/unitSystem';
 import { formatSig } from '../../case/numbers';
 import { UNITS } from '../../core/units';
@@ -58,7 +59,7 @@ const FRAME_PAD_PX = 44;
 /** The smallest ground a frame shows, m (a new case: the release alone). */
 const FRAME_MIN_SPAN_M = 120;
 /** A mark's label starts this far from the mark's centre, px (app.css .dg-mark-label). */
-const LABEL_GAP_PX = 38;
+const LABEL_CLASSES = ['dg-label-right', 'dg-label-left', 'dg-label-above', 'dg-label-below', 'dg-label-hidden'];
 
 export class SiteMap {
   readonly map: L.Map;
@@ -201,7 +202,11 @@ export class SiteMap {
     new FrameControl({ position: 'topleft' }, () => this.frameCase()).addTo(this.map);
   }
 
+  /** set when the map is taken down: a label placement queued for the next frame then does nothing */
+  private removed = false;
+
   destroy(): void {
+    this.removed = true;
     for (const d of this.disposers) d();
     this.monitoring?.destroy();
     this.exceedance?.destroy();
@@ -311,20 +316,50 @@ export class SiteMap {
     this.labelsQueued = true;
     requestAnimationFrame(() => {
       this.labelsQueued = false;
-      const width = this.map.getSize().x;
-      if (!width) return;
-      for (const m of [...this.receptors.values(), ...this.heads.values(), ...(this.monitoring?.marks.values() ?? [])]) {
-        const el = m.getElement();
-        const label = el?.querySelector<HTMLElement>('.dg-mark-label');
-        if (!el || !label) continue;
-        label.style.maxWidth = '';
-        const x = this.map.latLngToContainerPoint(m.getLatLng()).x;
-        const need = label.offsetWidth + LABEL_GAP_PX;
-        const right = width - x, left = x;
-        const onLeft = need > right && (need <= left || left > right);
-        el.classList.toggle('dg-label-left', onLeft);
-        const room = (onLeft ? left : right) - LABEL_GAP_PX - 4;
-        if (need > room + LABEL_GAP_PX) label.style.maxWidth = `${Math.max(40, room)}px`;
+      // the map may have been taken down (another case opened) before this frame
+      if (this.removed) return;
+      const size = this.map.getSize();
+      if (!size.x) return;
+      // every labelled mark, the selected one first, then receptors, water levels, monitoring wells
+      // (declutter.ts: right, left, above, below, else hidden; nothing overprints)
+      const sel = selectedId.peek();
+      const groups = [this.receptors, this.heads, this.monitoring?.marks ?? new Map<string, L.Marker>()];
+      const entries: { id: string; el: HTMLElement; label: HTMLElement; rank: number; x: number; y: number }[] = [];
+      const symbols: Rect[] = [];
+      const controls: Rect[] = [];
+      for (const m of [this.source, this.flowHandle]) {
+        const p = this.map.latLngToContainerPoint(m.getLatLng());
+        symbols.push(symbolRect(p.x, p.y));
+      }
+      groups.forEach((g, rank) => {
+        for (const [id, m] of g) {
+          const el = m.getElement();
+          const p = this.map.latLngToContainerPoint(m.getLatLng());
+          symbols.push(symbolRect(p.x, p.y));
+          const label = el?.querySelector<HTMLElement>('.dg-mark-label');
+          if (!el || !label) continue;
+          el.classList.remove(...LABEL_CLASSES);
+          label.style.maxWidth = '';
+          entries.push({ id: `${rank}:${id}`, el, label, rank: id === sel ? -1 : rank, x: p.x, y: p.y });
+        }
+      });
+      const box = this.map.getContainer().getBoundingClientRect();
+      this.map.getContainer().querySelectorAll('.leaflet-control').forEach((c) => {
+        const r = c.getBoundingClientRect();
+        if (r.width && r.height) controls.push({ x: r.left - box.left, y: r.top - box.top, w: r.width, h: r.height });
+      });
+      entries.sort((a, b) => a.rank - b.rank);
+      const placed = declutter(
+        entries.map((e) => ({ id: e.id, x: e.x, y: e.y, w: e.label.offsetWidth, h: e.label.offsetHeight, keep: e.rank < 0 })),
+        symbols,
+        controls,
+        size.x,
+        size.y,
+      );
+      for (const e of entries) {
+        const p = placed.get(e.id);
+        e.el.classList.add(p?.side ? `dg-label-${p.side}` : 'dg-label-hidden');
+        if (p?.maxWidth) e.label.style.maxWidth = `${p.maxWidth}px`;
       }
     });
   }
@@ -440,6 +475,7 @@ export class SiteMap {
     });
     for (const [id, m] of this.heads) if (!seenH.has(id)) (m.remove(), this.heads.delete(id));
     this.synced = true;
+    this.placeLabels();
     // a point added or moved from outside the map (the panel, an undo) that is out of view
     if (moved.length) {
       const b = L.latLngBounds(moved);

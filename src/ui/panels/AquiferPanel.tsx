@@ -2,6 +2,7 @@
  * What the ground is like: conductivity (with a material picker), porosities, organic carbon and
  * bulk density (which set the retardation), dispersivity and molecular diffusion.
  */
+import { choiceOptions } from '../../case/fields';
 import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
 import { QuantityField, NumberField, Segmented, fmtNum, unitLabel } from '../fields';
@@ -113,10 +114,7 @@ export function AquiferPanel() {
         <Segmented
           label="Dispersivity"
           value={disp.mode}
-          options={[
-            { id: 'estimate', label: 'Estimate from distance' },
-            { id: 'given', label: 'My values' },
-          ]}
+          options={choiceOptions<'estimate' | 'given'>('aquifer.dispersivity.mode')}
           onChange={(m) =>
             updateCase((d) => {
               if (m === d.aquifer.dispersivity.mode) return;

@@ -2,6 +2,7 @@
  * Which way the water goes and how fast: the flow direction (an arrow and gradient, or water levels
  * in wells) and the seepage velocity that follows with the aquifer's inputs (AquiferPanel.tsx).
  */
+import { choiceOptions } from '../../case/fields';
 import { Fragment } from 'preact';
 import { Section } from './Section';
 import { currentCase, updateCase, currentResults } from '../state';
@@ -28,10 +29,7 @@ export function FlowPanel() {
       <Segmented
         label="Flow from"
         value={flow.method}
-        options={[
-          { id: 'direction', label: 'Arrow and gradient' },
-          { id: 'heads', label: 'Water levels in wells' },
-        ]}
+        options={choiceOptions<'direction' | 'heads'>('site.flow.method')}
         onChange={(m) =>
           updateCase((d) => {
             if (m === d.site.flow.method) return;

@@ -1,4 +1,5 @@
 /** Where the release is and what it releases: source geometry and strength, and the contaminant. */
+import { choiceOptions } from '../../case/fields';
 import { Section } from './Section';
 import { currentCase, updateCase } from '../state';
 import { mapLengthUnit, positionShown, positionTyped, unitSystem } from '../../case/unitSystem';
@@ -152,10 +153,7 @@ function Contaminant({ c }: { c: Case }) {
       <Segmented
         label="Sorption given as"
         value={k.sorption.mode}
-        options={[
-          { id: 'koc', label: 'Koc (with foc)' },
-          { id: 'kd', label: 'Kd directly' },
-        ]}
+        options={choiceOptions<'koc' | 'kd'>('contaminant.sorption.mode')}
         onChange={(m) =>
           updateCase((d) => {
             if (m === d.contaminant.sorption.mode) return;
@@ -206,10 +204,7 @@ function Contaminant({ c }: { c: Case }) {
         <Segmented
           label="Degradation acts on"
           value={k.decayPhase}
-          options={[
-            { id: 'dissolved-and-sorbed', label: 'Dissolved and sorbed' },
-            { id: 'dissolved-only', label: 'Dissolved only' },
-          ]}
+          options={choiceOptions<'dissolved-and-sorbed' | 'dissolved-only'>('contaminant.decayPhase')}
           onChange={(v) => updateCase((d) => void (d.contaminant.decayPhase = v))}
         />
       )}

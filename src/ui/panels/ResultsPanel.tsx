@@ -3,6 +3,7 @@
  * receptor table (ReceptorTable.tsx), the charts, and every warning. Results follow the inputs; while new ones are computed the old ones stay,
  * marked as updating, and while an input is invalid they are marked as not matching the inputs.
  */
+import { choiceOptions } from '../../case/fields';
 import { Section } from './Section';
 import { useState } from 'preact/hooks';
 import { memo } from 'preact/compat';
@@ -38,19 +39,13 @@ export function ResultsPanel() {
       <Segmented
         label="Solution"
         value={c.evaluation.solution}
-        options={[
-          { id: 'domenico', label: 'Domenico (1987, approximate)' },
-          { id: 'exact', label: 'Exact rectangular source' },
-        ]}
+        options={choiceOptions<'domenico' | 'exact'>('evaluation.solution')}
         onChange={(v) => updateCase((d) => void (d.evaluation.solution = v))}
       />
       <Segmented
         label="Units"
         value={unitSystem(c)}
-        options={[
-          { id: 'SI', label: 'SI (metres)' },
-          { id: 'US', label: 'US (feet)' },
-        ]}
+        options={choiceOptions<'SI' | 'US'>('units.system')}
         onChange={(v) => updateCase((d) => void (d.units = withUnitSystem(d, v)))}
       />
       {issue && (

@@ -70,8 +70,33 @@ describe('inputDifferences', () => {
       vertical: { value: 0.05, unit: 'm' },
     };
     const d = inputDifferences(base, v);
-    expect(d[0]).toMatchObject({ label: 'Dispersivity', a: 'estimate', b: 'given' });
+    // the choice in the words of the panel's switch (src/case/fields.ts CHOICE_WORDS), not its code
+    expect(d[0]).toMatchObject({ label: 'Dispersivity', a: 'Estimate from distance', b: 'My values' });
     expect(d.some((x) => x.label === 'Longitudinal αL' && x.a === 'none' && x.b === '5 m')).toBe(true);
+  });
+});
+
+describe('choices in the screen\'s words (issue 13 item 3: the comparison showed "kd", "heads")', () => {
+  const base = withWell(newCase({ name: 'Base' }));
+  it('sorption, flow, solution, decay phase and a receptor kind', () => {
+    const v = structuredClone(base);
+    v.contaminant.sorption = { mode: 'kd', kd: { value: 0.5, unit: 'L/kg' } };
+    v.site.flow = { method: 'heads', readings: [] };
+    v.evaluation.solution = 'exact';
+    v.contaminant.decayPhase = 'dissolved-only';
+    v.site.receptors[0].kind = 'surface-water';
+    const d = inputDifferences(base, v);
+    const at = (l: string) => d.find((x) => x.label === l);
+    expect(at('Sorption given as')).toMatchObject({ a: 'Koc (with foc)', b: 'Kd directly' });
+    expect(at('Flow from')).toMatchObject({ a: 'Arrow and gradient', b: 'Water levels in wells' });
+    expect(at('Solution')).toMatchObject({ a: 'Domenico (1987, approximate)', b: 'Exact rectangular source' });
+    expect(at('Decay acts on')).toMatchObject({ a: 'Dissolved and sorbed', b: 'Dissolved only' });
+    expect(d.find((x) => x.label.startsWith('Kind'))).toMatchObject({ a: 'Well', b: 'Creek, pond or river' });
+    const codes = /^(kd|koc|heads|direction|exact|domenico|dissolved-only|dissolved-and-sorbed|surface-water|well)$/;
+    for (const x of d) {
+      expect(x.a, x.label).not.toMatch(codes);
+      expect(x.b, x.label).not.toMatch(codes);
+    }
   });
 });
 
