@@ -2,7 +2,7 @@
  * The probability that the concentration exceeds the limit on the map, at the map's time and
  * depth, from a Monte Carlo run's realisations: P(C > limit) at each node of a fixed lattice in the
  * case's own flow frame, estimated as the share of realisations above the limit there, and its
- * contours (for example 10, 50 and 90 %) in map coordinates.
+ * contours (5, 50 and 95 %) in map coordinates.
  *
  * The lattice is fixed for the whole run, so counts from any realisations add up (a worker counts
  * its ranges; the page sums them). A realisation whose flow direction (or traced source plane)
@@ -30,7 +30,7 @@ export const EXCEEDANCE_GRID = 48;
 /** realisations mapped at most (Domenico; a fifth of it with the exact solution) */
 export const MAP_REALISATIONS = 2000;
 /** the probability contours drawn */
-export const EXCEEDANCE_LEVELS = [0.1, 0.5, 0.9] as const;
+export const EXCEEDANCE_LEVELS = [0.05, 0.5, 0.95] as const;
 
 export interface ExceedanceGrid {
   /** flow-frame lattice of the case as prepared, m (node i·ys.length + j at xs[i], ys[j]) */

@@ -21,6 +21,9 @@ import { prepareCase } from './prepare';
 import { closedCounterClockwise } from '../geo/rings';
 import { SOLUTION_LABEL, type ExportResults } from './export-results';
 import { monitoringWellFeatures } from './export-observations';
+import type { ExceedanceContours } from './exceedanceMap';
+import { probabilisticCaution } from './uncertainty';
+import { packedPolygons } from '../geo/contours';
 import { resultUnit, unitSystem } from './unitSystem';
 import { fileNumber } from './numbers';
 import { fromInternal } from '../core/units';
@@ -42,6 +45,40 @@ function feature(geometry: Geometry, properties: Record<string, unknown>): Featu
 export interface GeoJsonOptions {
   appVersion?: string;
   exported?: Date;
+  /** the probability contours of a Monte Carlo run of this case as it is, with its run count and seed */
+  probability?: { contours: ExceedanceContours; runs: number; seed: number } | null;
+}
+
+/**
+ * The lines where P(C > limit) at the map's time is each level (the outlines of the run's
+ * probability bands, exceedanceMap.ts): one MultiLineString per level that has any, every ring
+ * closed, with the level, the time, the realisations mapped, the run's count and seed (enough to
+ * repeat it), the largest Monte Carlo standard error and the probabilistic caution.
+ */
+export function exceedanceFeatures(p: NonNullable<GeoJsonOptions['probability']>, position: (q: readonly number[]) => GeoPosition = pos): Feature[] {
+  const m = p.contours;
+  const features: Feature[] = [];
+  m.levels.forEach((level, k) => {
+    const lines = packedPolygons(m.bands, k).flatMap((poly) => poly.map((ring) => ring.map(position)));
+    if (!lines.length) return;
+    features.push(
+      feature(
+        { type: 'MultiLineString', coordinates: lines },
+        {
+          role: 'exceedance-contour',
+          name: `P(C > limit) = ${Math.round(100 * level)} %`,
+          'probability of exceeding the limit': level,
+          'view time (d)': Number.isFinite(m.time) ? m.time : 'steady state',
+          'realisations mapped': m.realisations,
+          runs: p.runs,
+          seed: p.seed,
+          'largest standard error': m.maxStandardError,
+          caution: probabilisticCaution(p.runs, p.seed),
+        },
+      ),
+    );
+  });
+  return features;
 }
 
 export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJsonOptions = {}): GeoJsonExport {
@@ -164,6 +201,8 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
       );
     }
   }
+
+  if (opts.probability) features.push(...exceedanceFeatures(opts.probability));
 
   const geojson: FeatureCollection & Record<string, unknown> = {
     type: 'FeatureCollection',

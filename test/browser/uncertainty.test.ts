@@ -57,7 +57,7 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await page.screenshot({ path: artifactPath('uncertainty-bands-1024x768.png') });
     // the map shows the contours of P(C > limit) at the map's time, with a key naming them and their error
     await page.waitForSelector('.leaflet-overlay-pane path.dg-pexceed');
-    await expect(page.getByTestId('exceedance-key').innerText()).resolves.toMatch(/Probability the limit is exceeded after [\s\S]*10 %[\s\S]*50 %[\s\S]*90 %[\s\S]*from 300 realisations; each probability ± up to 2\.9 % \(one standard error\)/);
+    await expect(page.getByTestId('exceedance-key').innerText()).resolves.toMatch(/Probability the limit is exceeded after [\s\S]*5 %[\s\S]*50 %[\s\S]*95 %[\s\S]*from 300 realisations; each probability ± up to 2\.9 % \(one standard error\)/);
     await page.screenshot({ path: artifactPath('uncertainty-map-1024x768.png') });
     await page.locator('.dg-mc-driver').first().scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-drivers-1024x768.png') });
@@ -88,6 +88,12 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     expect(text).toContain('Hydraulic conductivity K: lognormal, median 12 m/d, geometric standard deviation 3');
     expect(text).toMatch(/To narrow it: /);
     expect(text).toContain('conditional on the chosen distributions');
+    // the site plan draws the run's probability lines beside the plume, with their levels in the legend
+    await expect.poll(() => page.locator('[data-testid=site-plan] path.dg-plan-pexceed').count()).toBeGreaterThanOrEqual(2);
+    await expect(page.getByTestId('site-plan-key').innerText()).resolves.toMatch(/P\(exceeds the limit\) 50 %/);
+    await expect(page.locator('.dg-plan figcaption').innerText()).resolves.toMatch(/from 250 of the 250 realisations of the Monte Carlo run \(seed 9\)/);
+    await page.getByTestId('site-plan').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('uncertainty-report-plan-768x1024.png') });
     await page.getByTestId('report-uncertainty').scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('uncertainty-report-768x1024.png') });
     expect(errors).toEqual([]);

@@ -119,3 +119,30 @@ describe('caseToGeoJSON in a US customary case (issue 13 item 4)', () => {
     expect(Object.keys(rec)).toContain('distance from source (m)');
   });
 });
+
+describe('caseToGeoJSON with a Monte Carlo run’s probability contours', () => {
+  it('one MultiLineString per level (5, 50, 95 %) with the level, runs and seed, closed rings the RFC 7946 validator accepts; the lines are the run’s band outlines', async () => {
+    const { planUncertainty, runRealisations, exceedanceMapOf } = await import('../../src/case/uncertainty');
+    const { packedPolygons } = await import('../../src/geo/contours');
+    const c = demoCase('fuel-release-farm-well.json');
+    const plan = planUncertainty(c, { runs: 300, seed: 9, map: true });
+    const contours = exceedanceMapOf(plan, runRealisations(plan, 0, 300))!;
+    const out = caseToGeoJSON(c, exportResultsFor(c), { exported: new Date('2026-12-01T00:00:00Z'), probability: { contours, runs: 300, seed: 9 } });
+    if (!out.ok) throw new Error(out.error);
+    expect(getIssues(out.text)).toEqual([]);
+    const lines = out.geojson.features.filter((f) => f.properties?.role === 'exceedance-contour');
+    expect(lines.map((f) => f.properties?.['probability of exceeding the limit'])).toEqual([0.05, 0.5, 0.95].filter((_, k) => packedPolygons(contours.bands, k).length > 0));
+    expect(lines.length).toBeGreaterThanOrEqual(2);
+    for (const f of lines) {
+      expect(f.geometry.type).toBe('MultiLineString');
+      expect(f.properties).toMatchObject({ runs: 300, seed: 9, 'realisations mapped': 300 });
+      expect(f.properties?.caution).toMatch(/seed 9/);
+      for (const line of (f.geometry as { coordinates: number[][][] }).coordinates) expect(line[0]).toEqual(line[line.length - 1]);
+    }
+    const k = 1; // the 50 % line: the rings of the 50 % band, rounded to 7 decimals (about 1 cm)
+    const rings = packedPolygons(contours.bands, k).flat();
+    const fifty = lines.find((f) => f.properties?.['probability of exceeding the limit'] === 0.5)!;
+    expect((fifty.geometry as { coordinates: number[][][] }).coordinates.length).toBe(rings.length);
+    expect((fifty.geometry as { coordinates: number[][][] }).coordinates[0][0][0]).toBeCloseTo(rings[0][0][0], 7);
+  });
+});

@@ -6,7 +6,9 @@
  * be missing offline and their terms differ by server. The release and receptors are the map's
  * own symbols (map/markShapes.ts), each receptor filled with its status colour as on the map;
  * names sit beside their mark on whichever side keeps them inside the plan; a legend under it
- * shows each symbol, colour and band used.
+ * shows each symbol, colour and band used. After a completed Monte Carlo run of the case as it is,
+ * the lines of its probability of exceeding the limit at the same time (as on the map), with their
+ * levels in the legend and the run's count, seed and standard error under the plan.
  */
 import { niceScaleLength, unitSystem } from '../../case/unitSystem';
 import type { Case } from '../../case/schema';
@@ -18,6 +20,8 @@ import { RECEPTOR_SHAPES, SOURCE_SHAPE } from '../map/markShapes';
 import { kindText } from '../../case/receptorKinds';
 import { statusText } from '../../core/results';
 import { fmtTime } from '../format';
+import { packedPolygons } from '../../geo/contours';
+import { currentRunFor } from '../uncertaintyState';
 
 const W = 680;
 const H = 420;
@@ -61,6 +65,11 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
     polys: f.geometry.coordinates.map((poly) => poly.map((ring) => ring.map(en))),
   }));
   for (const b of bands) for (const poly of b.polys) pts.push(...poly[0]);
+  // the probability lines of a completed Monte Carlo run of the case as it is (as on the map)
+  const run = currentRunFor(c);
+  const pm = run?.status === 'done' && run.result ? run.map : null;
+  const chances = pm ? pm.levels.map((level, k) => ({ level, rings: packedPolygons(pm.bands, k).flatMap((poly) => poly.map((ring) => ring.map(en))) })) : [];
+  for (const ch of chances) for (const ring of ch.rings) pts.push(...ring);
   let arrow: [[number, number], [number, number]] | null = null;
   if (prepared) {
     const reach = Math.max(results?.plumeLength ?? 0, ...prepared.receptors.map((r) => r.x), 20) * 0.35;
@@ -96,6 +105,9 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
             fill-rule="evenodd"
           />
         ))}
+        {chances.map((ch, k) =>
+          ch.rings.length ? <path key={`p${k}`} d={ch.rings.map(path).join('')} class={`dg-plan-pexceed dg-pexceed-${k}`} data-level={ch.level} /> : null,
+        )}
         {foot && <path d={path(foot)} class="dg-plan-foot" />}
         {arrow && (
           <g class="dg-plan-arrow">
@@ -136,10 +148,26 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
           </text>
         </g>
       </svg>
-      <PlanKey kinds={[...new Set(recs.map((r) => r.kind))]} statuses={[...new Set(recs.map((r) => r.status).filter((x) => x !== null))]} bands={bands.length} multiples={limit ? bands.slice(1).map((b) => Math.round(b.threshold / limit)) : []} flow={!!arrow} />
+      <PlanKey
+        kinds={[...new Set(recs.map((r) => r.kind))]}
+        statuses={[...new Set(recs.map((r) => r.status).filter((x) => x !== null))]}
+        bands={bands.length}
+        multiples={limit ? bands.slice(1).map((b) => Math.round(b.threshold / limit)) : []}
+        flow={!!arrow}
+        chances={chances.filter((ch) => ch.rings.length).map((ch) => ({ level: ch.level, k: chances.indexOf(ch) }))}
+      />
       <figcaption>
         Site plan{results?.plume ? `, contours ${Number.isFinite(results.plume.time) ? `after ${fmtTime(results.plume.time)}` : 'at steady state'}` : ''}: the outer line is the limit; inner bands are
-        multiples of it. North up; basemap not printed.
+        multiples of it.
+        {pm && run?.result && (
+          <>
+            {' '}
+            Dotted, dashed and solid lines: where the probability that the concentration exceeds the limit at that time is{' '}
+            {pm.levels.map((l) => `${Math.round(100 * l)} %`).join(', ')}, from {pm.realisations} of the {run.result.runs} realisations of the Monte Carlo run (seed {run.result.seed}),
+            each ± up to {(100 * pm.maxStandardError).toFixed(1)} % (one standard error); conditional on the chosen distributions and the model’s assumptions.
+          </>
+        )}{' '}
+        North up; basemap not printed.
       </figcaption>
     </figure>
   );
@@ -157,7 +185,7 @@ function KeySymbol({ children }: { children: preact.ComponentChildren }) {
 const STATUS_ORDER = ['reaches-limit', 'not-reached-in-horizon', 'below-limit'];
 
 /** The plan's legend: the release, each kind of receptor and status colour present, the bands and the flow arrow. */
-function PlanKey({ kinds, statuses, bands, multiples, flow }: { kinds: ReceptorKind[]; statuses: string[]; bands: number; multiples: number[]; flow: boolean }) {
+function PlanKey({ kinds, statuses, bands, multiples, flow, chances }: { kinds: ReceptorKind[]; statuses: string[]; bands: number; multiples: number[]; flow: boolean; chances: { level: number; k: number }[] }) {
   return (
     <ul class="dg-plan-key" data-testid="site-plan-key">
       <li data-key="release">
@@ -200,6 +228,14 @@ function PlanKey({ kinds, statuses, bands, multiples, flow }: { kinds: ReceptorK
           above {multiples.map((m) => `${m}×`).join(', ')} the limit
         </li>
       )}
+      {chances.map(({ level, k }) => (
+        <li key={`p${k}`} data-key={`pexceed-${k}`}>
+          <KeySymbol>
+            <path d="M-13 0H13" class={`dg-plan-pexceed dg-pexceed-${k}`} />
+          </KeySymbol>
+          P(exceeds the limit) {Math.round(100 * level)} %
+        </li>
+      ))}
       {flow && (
         <li data-key="flow">
           <KeySymbol>

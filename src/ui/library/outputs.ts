@@ -46,7 +46,11 @@ export function caseFile(c: Case): Built {
 export function geojsonFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `GeoJSON: ${NOT_READY}` };
-  const out = caseToGeoJSON(c, forExport(c, res), { appVersion: APP_VERSION });
+  // the probability lines of a completed run of the case as it is now
+  const run = uncertaintyRun.peek();
+  const done = run.status === 'done' && run.result && run.map && run.caseKey === caseKeyOf(c);
+  const probability = done ? { contours: run.map!, runs: run.result!.runs, seed: run.result!.seed } : null;
+  const out = caseToGeoJSON(c, forExport(c, res), { appVersion: APP_VERSION, probability });
   if (!out.ok) return out;
   return { ok: true, file: { name: `${fileStem(c)}.geojson`, type: 'application/geo+json', text: out.text } };
 }

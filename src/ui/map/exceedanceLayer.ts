@@ -1,6 +1,6 @@
 /**
  * The probability-of-exceedance contours on the site map: after a Monte Carlo run of the case as
- * it is now, the lines where P(C > limit) at the map's time is 10, 50 and 90 % (case/exceedanceMap.ts),
+ * it is now, the lines where P(C > limit) at the map's time is 5, 50 and 95 % (case/exceedanceMap.ts),
  * drawn as outlines over the deterministic plume (dotted, dashed, solid as the probability rises),
  * never filled, so the plume's own bands stay readable beneath them. Removed as soon as the case
  * changes (the run is then out of date). Its own module: the site map only creates and destroys it.
