@@ -17,6 +17,7 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { decodeText } from '../case/text';
+import { formatSig, screenNumber } from '../case/numbers';
 import { parseCaseFile, DEFAULT_MAX_BYTES } from '../case/io';
 import { screenCase, type ScreeningResult } from '../case/screen';
 import { ASSUMPTIONS, SCREENING_CAUTION, WELL_FIELD_ASSUMPTIONS } from '../case/caution';
@@ -160,26 +161,20 @@ function parseArgs(argv: string[]): Args | string {
 // ---------------------------------------------------------------------------------------------
 // number formatting
 
-/** three significant figures, plain notation in the usual range */
-export function sig(x: number, digits = 3): string {
-  if (x === 0) return '0';
-  if (!Number.isFinite(x)) return String(x);
-  const ax = Math.abs(x);
-  if (ax < 1e-3 || ax >= 1e6) return x.toExponential(digits - 1);
-  return String(Number(x.toPrecision(digits)));
-}
+/** three significant figures by the app's one rule (src/case/numbers.ts formatSig: plain notation in the usual range, no trailing zeros) */
+const sig = (x: number, digits = 3): string => formatSig(x, digits);
 const years = (d: number) => sig(d / YR);
 
 /**
  * Figures in the case's unit system (src/case/unitSystem.ts) for the table and csv formats: `of`
- * a value in internal units, `text` with three significant digits (a length's rounding noise below
- * a centimetre shows as 0), `label` the unit as written. JSON keeps the contract's fixed units.
+ * a value in internal units, `text` with three significant digits (a length zero within round-off,
+ * by the app's rule in src/case/numbers.ts, shows as 0), `label` the unit as written. JSON keeps the contract's fixed units.
  */
 function unitsOfCase(c: Case) {
   const unit = (d: Dimension) => resultUnit(c, d);
   const of = (v: number, d: Dimension) => fromInternal(v, unit(d));
   const label = (d: Dimension) => UNITS[unit(d)].label;
-  const text = (v: number, d: Dimension, digits = 3) => (d === 'length' && Math.abs(v) < 0.005 ? '0' : sig(of(v, d), digits));
+  const text = (v: number, d: Dimension, digits = 3) => (d === 'length' ? screenNumber(v, 'length', of(v, d), digits) : sig(of(v, d), digits));
   return { unit, of, label, text };
 }
 /** a concentration, with enough digits that a value near the limit is not rounded onto it */
