@@ -7,18 +7,14 @@
 // 1024×768, 768×1024 and 390×844 go to test-artifacts/; axe-core (npm) finds nothing serious.
 import { describe, expect, it } from 'vitest';
 import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
-import { openDemo, useBrowser, waitSaved, watchedPage } from './offline-helpers';
+import { openDemoPage, useBrowser } from './offline-helpers';
 import { axe } from './axe-helpers';
 
 const getBrowser = useBrowser();
 
 describe('the band of a probabilistic run on a monitoring well chart', () => {
   it('is drawn at the well after a run, with its key, and goes when the well moves', async () => {
-    const w = await watchedPage(getBrowser(), LANDSCAPE);
-    const { page, context } = w;
-    await page.goto(w.base);
-    await waitSaved(page);
-    await openDemo(page, 'depot-benzene-monitoring.json');
+    const { page, errors, close } = await openDemoPage(getBrowser(), 'depot-benzene-monitoring.json', LANDSCAPE);
 
     await page.locator('#sec-uncertainty button').click();
     await page.locator('[data-input=hydraulicConductivity] input[type=checkbox]').check();
@@ -57,7 +53,7 @@ describe('the band of a probabilistic run on a monitoring well chart', () => {
     await chart.getByTestId('well-band-stale').waitFor();
     expect(await chart.getByTestId('well-chart-bands').count()).toBe(0);
     expect(await chart.getByTestId('well-band-stale').innerText()).toMatch(/run it again to draw its band here/);
-    expect(w.pageErrors).toEqual([]);
-    await context.close();
+    expect(errors).toEqual([]);
+    await close();
   });
 });
