@@ -136,6 +136,16 @@ export function newMonitoringWell(m: Monitoring, position: [number, number] | nu
   return { id, name: `MW-${n}`, position, screenTop: { value: 0, unit: 'm' }, screenBottom: { value: 3, unit: 'm' } };
 }
 
+/** Where a stored result is in `m.results` (all its fields equal), or −1. */
+export function indexOfResult(m: Monitoring, r: SamplingResult): number {
+  return m.results.findIndex((x) => x.wellId === r.wellId && x.date === r.date && x.analyte === r.analyte && x.value === r.value && x.unit === r.unit && x.nonDetect === r.nonDetect);
+}
+
+/** A stored result as the entry form shows it, to edit. */
+export function draftOf(r: SamplingResult): ResultDraft {
+  return { date: r.date, value: String(r.value), nonDetect: r.nonDetect, unit: r.unit, analyte: r.analyte };
+}
+
 /** A result typed by hand, as the user wrote it. */
 export interface ResultDraft {
   readonly date: string;
@@ -152,9 +162,16 @@ export const MAX_RESULT_MGL = 1e6;
 /**
  * Check a result typed by hand for well `wellId`: either the result to store or a message naming
  * the field and what is accepted. Nothing is stored until it passes; an identical result already
- * stored (same well, date, analyte) is refused with the one stored shown.
+ * stored (same well, date, analyte) is refused with the one stored shown. `replacing`: the index in
+ * `m.results` of a stored result the draft is to replace (an edit in place), which is not counted
+ * as a duplicate of it.
  */
-export function checkResultDraft(m: Monitoring, wellId: string, d: ResultDraft): { ok: true; result: SamplingResult } | { ok: false; field: keyof ResultDraft; message: string } {
+export function checkResultDraft(
+  m: Monitoring,
+  wellId: string,
+  d: ResultDraft,
+  replacing: number | null = null,
+): { ok: true; result: SamplingResult } | { ok: false; field: keyof ResultDraft; message: string } {
   if (!m.wells.some((w) => w.id === wellId)) return { ok: false, field: 'date', message: 'Choose the monitoring well first.' };
   if (!ISO_DATE.test(d.date) || dayNumber(d.date) === null) return { ok: false, field: 'date', message: 'Sampling date: enter a calendar date (YYYY-MM-DD).' };
   const analyte = d.analyte.trim();
@@ -174,8 +191,8 @@ export function checkResultDraft(m: Monitoring, wellId: string, d: ResultDraft):
   if (nonDetect && value === 0) return { ok: false, field: 'value', message: 'Reporting limit: enter the limit the laboratory reported (> 0); a non-detect is kept as “< limit”.' };
   if (toInternal(value, d.unit) > MAX_RESULT_MGL)
     return { ok: false, field: 'value', message: `${label}: at most ${MAX_RESULT_MGL} mg/L (${value} ${UNITS[d.unit].label} is more than pure substance); check the unit.` };
-  if (m.results.length >= MAX_RESULTS) return { ok: false, field: 'date', message: `A case holds at most ${MAX_RESULTS} results.` };
-  const same = m.results.find((r) => r.wellId === wellId && r.date === d.date && sameAnalyte(r.analyte, analyte));
-  if (same) return { ok: false, field: 'date', message: `Sampling date: ${d.date} already has a ${analyte} result at this well (${resultText(same)}); delete that one first to replace it.` };
+  if (replacing === null && m.results.length >= MAX_RESULTS) return { ok: false, field: 'date', message: `A case holds at most ${MAX_RESULTS} results.` };
+  const same = m.results.find((r, i) => i !== replacing && r.wellId === wellId && r.date === d.date && sameAnalyte(r.analyte, analyte));
+  if (same) return { ok: false, field: 'date', message: `Sampling date: ${d.date} already has a ${analyte} result at this well (${resultText(same)}); edit or delete that one first.` };
   return { ok: true, result: { wellId, date: d.date, analyte, value, unit: d.unit, nonDetect } };
 }

@@ -12,7 +12,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { migrateCase } from '../../src/case/migrate';
 import { newCase } from '../../src/case/defaults';
-import { checkResultDraft, newMonitoringWell, type Monitoring } from '../../src/case/monitoring';
+import { checkResultDraft, draftOf, indexOfResult, newMonitoringWell, type Monitoring } from '../../src/case/monitoring';
 import { positionProblem, placementProblem } from '../../src/case/check';
 import { analyseObservations, compareWithModel, wellCurve, type WellObservations } from '../../src/case/observations';
 import { prepareCase } from '../../src/case/prepare';
@@ -54,6 +54,29 @@ describe('a result typed by hand', () => {
   it('a second result for the same well, date and analyte is refused, naming the stored one', () => {
     const r = checkResultDraft(mon, 'a', { ...draft, date: '2024-05-02', analyte: ' BENZENE ' });
     expect(r).toMatchObject({ ok: false, field: 'date', message: expect.stringMatching(/already has a BENZENE result at this well \(12 µg\/L\)/) });
+  });
+});
+
+describe('a stored result edited in place', () => {
+  const two: Monitoring = { ...mon, results: [...mon.results, { wellId: 'a', date: '2024-08-01', analyte: 'benzene', value: 0.5, unit: 'ug/L', nonDetect: true }] };
+  it('its own fields give back the result itself (String and Number round-trip a double exactly)', () => {
+    for (const [k, r] of two.results.entries()) {
+      expect(indexOfResult(two, r)).toBe(k);
+      expect(checkResultDraft(two, 'a', draftOf(r), k)).toEqual({ ok: true, result: { ...r, analyte: r.analyte.trim() } });
+    }
+    expect(draftOf({ ...two.results[0], value: 1e-7 }).value).toBe('1e-7');
+    expect(checkResultDraft(two, 'a', draftOf({ ...two.results[0], value: 1e-7 }), 0)).toMatchObject({ ok: true, result: { value: 1e-7 } });
+    expect(indexOfResult(two, { ...two.results[0], unit: 'mg/L' })).toBe(-1);
+  });
+  it('a changed value, unit, flag or date is checked like a new result; only another stored result on the date is a duplicate', () => {
+    const edit = (patch: object) => checkResultDraft(two, 'a', { ...draftOf(two.results[1]), ...patch }, 1);
+    expect(edit({ value: '2.5', nonDetect: false })).toMatchObject({ ok: true, result: { date: '2024-08-01', value: 2.5, nonDetect: false } });
+    expect(edit({ date: '2024-08-02', unit: 'mg/L' })).toMatchObject({ ok: true, result: { date: '2024-08-02', unit: 'mg/L', nonDetect: true } });
+    expect(edit({ value: 'x' })).toMatchObject({ ok: false, field: 'value', message: expect.stringMatching(/^Reporting limit: enter a number ≥ 0/) });
+    expect(edit({ value: '2e9', nonDetect: false })).toMatchObject({ ok: false, field: 'value', message: expect.stringMatching(/^Measured value: at most 1000000 mg\/L/) });
+    expect(edit({ date: '2024-05-02' })).toMatchObject({ ok: false, field: 'date', message: expect.stringMatching(/2024-05-02 already has a benzene result at this well \(12 µg\/L\); edit or delete that one first/) });
+    // without the index, its own date is a duplicate (a new result, not an edit)
+    expect(checkResultDraft(two, 'a', draftOf(two.results[1]))).toMatchObject({ ok: false, field: 'date' });
   });
 });
 

@@ -11,7 +11,7 @@
  * first use).
  */
 import { useEffect, useRef, useState } from 'preact/hooks';
-import { currentCase, updateCase } from '../state';
+import { currentCase, undoEdit, updateCase } from '../state';
 import { mapTool, selectedId } from '../view';
 import { preparedCase } from '../evaluation';
 import { QuantityField, unitLabel } from '../fields';
@@ -21,6 +21,8 @@ import { positionProblem } from '../../case/check';
 import {
   checkResultDraft,
   comparedAnalyte,
+  draftOf,
+  indexOfResult,
   newMonitoringWell,
   resultText,
   wellSeries,
@@ -261,10 +263,16 @@ function WellPlace({ index }: { index: number }) {
   );
 }
 
-/** The well's stored results (every analyte), newest first, each with Delete and an Undo for the last one deleted. */
+/**
+ * The well's stored results (every analyte), newest first, each with Edit and Delete; an Undo for
+ * the last one deleted, and for the last one changed (the case's own undo step, while nothing was
+ * edited after it).
+ */
 function ResultsList({ well }: { well: MonitoringWell }) {
   const c = currentCase.value;
   const [undo, setUndo] = useState<{ result: SamplingResult; wellId: string } | null>(null);
+  const [editing, setEditing] = useState<SamplingResult | null>(null);
+  const [changed, setChanged] = useState<{ before: SamplingResult; after: SamplingResult; stamp: string } | null>(null);
   const rows = c.monitoring.results
     .map((r, i) => ({ r, i }))
     .filter((x) => x.r.wellId === well.id)
@@ -286,6 +294,23 @@ function ResultsList({ well }: { well: MonitoringWell }) {
           </button>
         </p>
       )}
+      {changed && changed.after.wellId === well.id && (
+        <p class="dg-undo" role="status" data-testid="changed-result">
+          Changed the {changed.before.date} result: {resultText(changed.before)} → {changed.after.date !== changed.before.date ? `${changed.after.date}, ` : ''}
+          {resultText(changed.after)}.{' '}
+          {c.modified === changed.stamp && (
+            <button
+              type="button"
+              onClick={() => {
+                setChanged(null);
+                undoEdit();
+              }}
+            >
+              Undo
+            </button>
+          )}
+        </p>
+      )}
       {rows.length === 0 ? (
         <p class="dg-help">No results at this well yet.</p>
       ) : (
@@ -297,25 +322,38 @@ function ResultsList({ well }: { well: MonitoringWell }) {
                 <th scope="col">analyte</th>
                 <th scope="col">result</th>
                 <th scope="col">
-                  <span class="dg-sr">delete</span>
+                  <span class="dg-sr">edit or delete</span>
                 </th>
               </tr>
             </thead>
             <tbody>
               {rows.map(({ r }) => (
-                <tr key={`${r.date}|${r.analyte}|${r.value}|${r.nonDetect}`}>
+                <tr key={`${r.date}|${r.analyte}|${r.value}|${r.nonDetect}`} class={editing && sameResult(editing, r) ? 'dg-row-editing' : undefined}>
                   <td>{r.date}</td>
                   <td>{r.analyte}</td>
                   <td>{r.nonDetect ? <span title="below the reporting limit">{resultText(r)} (not detected)</span> : resultText(r)}</td>
-                  <td>
+                  <td class="dg-row-actions">
+                    <button
+                      type="button"
+                      class="dg-small"
+                      aria-pressed={editing ? sameResult(editing, r) : false}
+                      aria-label={`Edit the ${r.date} ${r.analyte} result`}
+                      onClick={() => {
+                        setEditing(editing && sameResult(editing, r) ? null : structuredClone(r));
+                        setChanged(null);
+                      }}
+                    >
+                      Edit
+                    </button>
                     <button
                       type="button"
                       class="dg-danger dg-small"
                       aria-label={`Delete the ${r.date} ${r.analyte} result`}
                       onClick={() => {
                         setUndo({ result: structuredClone(r), wellId: well.id });
+                        if (editing && sameResult(editing, r)) setEditing(null);
                         updateCase((d) => {
-                          const k = d.monitoring.results.findIndex((x) => x.wellId === r.wellId && x.date === r.date && x.analyte === r.analyte && x.value === r.value && x.nonDetect === r.nonDetect);
+                          const k = indexOfResult(d.monitoring, r);
                           if (k >= 0) d.monitoring.results.splice(k, 1);
                         });
                       }}
@@ -329,7 +367,75 @@ function ResultsList({ well }: { well: MonitoringWell }) {
           </table>
         </div>
       )}
+      {editing && editing.wellId === well.id && (
+        <ResultEdit
+          key={`${editing.date}|${editing.analyte}|${editing.value}|${editing.nonDetect}|${editing.unit}`}
+          well={well}
+          original={editing}
+          onCancel={() => setEditing(null)}
+          onSaved={(after) => {
+            setEditing(null);
+            setChanged({ before: editing, after, stamp: currentCase.peek().modified });
+          }}
+        />
+      )}
     </div>
+  );
+}
+
+function sameResult(a: SamplingResult, b: SamplingResult): boolean {
+  return a.wellId === b.wellId && a.date === b.date && a.analyte === b.analyte && a.value === b.value && a.unit === b.unit && a.nonDetect === b.nonDetect;
+}
+
+/**
+ * A stored result changed in place: the entry form's fields filled with it, checked as a whole like
+ * a new one (another result on the new date is named), stored only when it passes, as one edit
+ * the case's undo takes back.
+ */
+function ResultEdit({ well, original, onCancel, onSaved }: { well: MonitoringWell; original: SamplingResult; onCancel: () => void; onSaved: (r: SamplingResult) => void }) {
+  const [draft, setDraft] = useState<ResultDraft>(() => draftOf(original));
+  const [error, setError] = useState<{ field: keyof ResultDraft; message: string } | null>(null);
+  const ref = useRef<HTMLFieldSetElement>(null);
+  useEffect(() => {
+    ref.current?.scrollIntoView({ block: 'nearest' });
+    ref.current?.querySelector<HTMLInputElement>('[data-entry=value]')?.focus();
+  }, []);
+  const save = () => {
+    const m = currentCase.peek().monitoring;
+    const k = indexOfResult(m, original);
+    if (k < 0) {
+      setError({ field: 'date', message: 'This result is no longer stored as it was (deleted or undone meanwhile).' });
+      return;
+    }
+    const r = checkResultDraft(m, well.id, draft, k);
+    if (!r.ok) {
+      setError({ field: r.field, message: r.message });
+      return;
+    }
+    if (sameResult(r.result, original)) return onCancel();
+    updateCase((d) => void (d.monitoring.results[k] = r.result));
+    onSaved(r.result);
+  };
+  return (
+    <fieldset class="dg-result-entry dg-result-edit" ref={ref} data-testid="result-edit">
+      <legend>
+        Change the {original.date} {original.analyte} result at {well.name}
+      </legend>
+      <ResultFields draft={draft} set={(patch) => setDraft({ ...draft, ...patch })} invalid={(f) => (error?.field === f ? true : undefined)} onEnter={save} />
+      <div class="dg-btn-row">
+        <button type="button" class="dg-on" data-action="save-result" onClick={save}>
+          Save the change
+        </button>
+        <button type="button" data-action="cancel-edit" onClick={onCancel}>
+          Cancel
+        </button>
+      </div>
+      {error && (
+        <p class="dg-field-error" role="alert" data-testid="result-edit-error">
+          {error.message} Nothing was changed.
+        </p>
+      )}
+    </fieldset>
   );
 }
 
@@ -364,46 +470,7 @@ function ResultEntry({ well }: { well: MonitoringWell }) {
   return (
     <fieldset class="dg-result-entry" data-testid="result-entry">
       <legend>Add a result at {well.name}</legend>
-      <div class="dg-pair">
-        <label class="dg-field">
-          <span>Sampling date</span>
-          <input type="date" class="dg-text" value={draft.date} aria-invalid={invalid('date')} data-entry="date" onInput={(e) => set({ date: (e.target as HTMLInputElement).value })} />
-        </label>
-        <label class="dg-field">
-          <span>Analyte</span>
-          <input class="dg-text" value={draft.analyte} maxLength={100} aria-invalid={invalid('analyte')} data-entry="analyte" onInput={(e) => set({ analyte: (e.target as HTMLInputElement).value })} />
-        </label>
-      </div>
-      <div class="dg-pair dg-result-value">
-        <label class="dg-check">
-          <input type="checkbox" checked={draft.nonDetect} data-entry="nonDetect" onChange={(e) => set({ nonDetect: (e.target as HTMLInputElement).checked })} />
-          <span>below the limit (“&lt;”)</span>
-        </label>
-        <label class="dg-field">
-          <span>{draft.nonDetect ? 'Reporting limit' : 'Measured value'}</span>
-          <input
-            class="dg-num"
-            type="text"
-            inputMode="decimal"
-            autoComplete="off"
-            value={draft.value}
-            aria-invalid={invalid('value')}
-            data-entry="value"
-            onInput={(e) => set({ value: (e.target as HTMLInputElement).value })}
-            onKeyDown={(e) => e.key === 'Enter' && add()}
-          />
-        </label>
-        <label class="dg-field">
-          <span>Unit</span>
-          <select class="dg-unit" value={draft.unit} data-entry="unit" onChange={(e) => set({ unit: (e.target as HTMLSelectElement).value })}>
-            {unitsOf('concentration').map((u) => (
-              <option value={u.id} key={u.id}>
-                {unitLabel(u.id)}
-              </option>
-            ))}
-          </select>
-        </label>
-      </div>
+      <ResultFields draft={draft} set={set} invalid={invalid} onEnter={add} />
       <div class="dg-btn-row">
         <button type="button" class="dg-on" data-action="add-result" onClick={add}>
           Add result
@@ -420,5 +487,63 @@ function ResultEntry({ well }: { well: MonitoringWell }) {
         </p>
       )}
     </fieldset>
+  );
+}
+
+/** The fields of a result (date, analyte, non-detect, value or limit, unit), for a new one and for an edit. */
+function ResultFields({
+  draft,
+  set,
+  invalid,
+  onEnter,
+}: {
+  draft: ResultDraft;
+  set: (patch: Partial<ResultDraft>) => void;
+  invalid: (f: keyof ResultDraft) => true | undefined;
+  onEnter: () => void;
+}) {
+  return (
+    <>
+        <div class="dg-pair">
+          <label class="dg-field">
+            <span>Sampling date</span>
+            <input type="date" class="dg-text" value={draft.date} aria-invalid={invalid('date')} data-entry="date" onInput={(e) => set({ date: (e.target as HTMLInputElement).value })} />
+          </label>
+          <label class="dg-field">
+            <span>Analyte</span>
+            <input class="dg-text" value={draft.analyte} maxLength={100} aria-invalid={invalid('analyte')} data-entry="analyte" onInput={(e) => set({ analyte: (e.target as HTMLInputElement).value })} />
+          </label>
+        </div>
+        <div class="dg-pair dg-result-value">
+          <label class="dg-check">
+            <input type="checkbox" checked={draft.nonDetect} data-entry="nonDetect" onChange={(e) => set({ nonDetect: (e.target as HTMLInputElement).checked })} />
+            <span>below the limit (“&lt;”)</span>
+          </label>
+          <label class="dg-field">
+            <span>{draft.nonDetect ? 'Reporting limit' : 'Measured value'}</span>
+            <input
+              class="dg-num"
+              type="text"
+              inputMode="decimal"
+              autoComplete="off"
+              value={draft.value}
+              aria-invalid={invalid('value')}
+              data-entry="value"
+              onInput={(e) => set({ value: (e.target as HTMLInputElement).value })}
+              onKeyDown={(e) => e.key === 'Enter' && onEnter()}
+            />
+          </label>
+          <label class="dg-field">
+            <span>Unit</span>
+            <select class="dg-unit" value={draft.unit} data-entry="unit" onChange={(e) => set({ unit: (e.target as HTMLSelectElement).value })}>
+              {unitsOf('concentration').map((u) => (
+                <option value={u.id} key={u.id}>
+                  {unitLabel(u.id)}
+                </option>
+              ))}
+            </select>
+          </label>
+        </div>
+    </>
   );
 }
