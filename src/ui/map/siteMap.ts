@@ -9,7 +9,7 @@
  * The flow arrow's round handle turns the flow direction when the flow is given by direction.
  */
 import * as L from 'leaflet';
-import { effect, signal } from '@preact/signals';
+import { computed, effect, signal } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import { currentCase, currentResults, updateCase, registerMapElement } from '../state';
@@ -142,7 +142,10 @@ export class SiteMap {
     this.fitTo(this.frameTargets(c, null));
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
     // the grid's labels follow the case's unit system
-    this.disposers.push(effect(() => void (unitSystem(currentCase.value) && this.grid.redraw())));
+    // the site grid's labels follow the case's unit system: redrawn when the system changes, not
+    // with every edit (a computed notifies only on a new value)
+    const system = computed(() => unitSystem(currentCase.value));
+    this.disposers.push(effect(() => void (system.value && this.grid.redraw())));
     this.disposers.push(effect(() => guarded('marks', () => this.syncCase(currentCase.value, selectedId.value, currentResults.value))));
     this.disposers.push(effect(() => guarded('plume', () => this.syncPlume(currentPlume.value))));
     this.exceedance = new ExceedanceLayer(this.map);
@@ -475,7 +478,14 @@ export class SiteMap {
     });
     for (const [id, m] of this.heads) if (!seenH.has(id)) (m.remove(), this.heads.delete(id));
     this.synced = true;
-    this.placeLabels();
+    // labels are placed again when a mark moved, came or went, or the flow turned (a new icon
+    // places them above); an edit of anything else leaves them, and no layout is forced for it
+    const places = [c.site.source.position, ...c.site.receptors.map((r) => r.position), ...readings.map((h) => h.position)];
+    const placesKey = JSON.stringify([places, c.site.flow.method === 'direction' ? c.site.flow.azimuthDeg : (results?.derived.azimuthDeg ?? null)]);
+    if (placesKey !== this.labelPlacesKey) {
+      this.labelPlacesKey = placesKey;
+      this.placeLabels();
+    }
     // a point added or moved from outside the map (the panel, an undo) that is out of view
     if (moved.length) {
       const b = L.latLngBounds(moved);
@@ -484,6 +494,8 @@ export class SiteMap {
   }
   /** whether the case's points have been put on the map once (later additions are new) */
   private synced = false;
+  /** the marks' places (and the flow's direction) when syncCase last placed the labels */
+  private labelPlacesKey = '';
 
   /** The arrow from the release along the flow; its handle turns it when the flow is a direction. */
   private syncFlowArrow(c: Case, fittedAzimuth: number | null): void {
