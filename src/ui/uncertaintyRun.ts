@@ -40,6 +40,8 @@ export function startUncertainty(c: Case): void {
   let finished = false;
   let summarisedAt = 0;
   let summaryMs = 0;
+  let bandsAt = 0;
+  let bandsMs = 0;
   const workers = Array.from({ length: n }, () => new Worker(new URL('../worker/uncertainty.ts', import.meta.url), { type: 'module', name: 'downgradient-monte-carlo' }));
   const stop = (status: RunState['status'], error: string | null = null) => {
     if (finished) return;
@@ -79,18 +81,29 @@ export function startUncertainty(c: Case): void {
       const elapsed = (now - startedAt) / 1000;
       const last = done >= runs;
       // partial results at most twice a second, and the page spends at most a fifth of its time on them
-      const joined = last || now - summarisedAt > Math.max(500, 4 * summaryMs) ? joinBlocks(plan, blocks, { curves: last }) : null;
-      const result = joined ? summariseRun(plan, joined) : uncertaintyRun.peek().result;
+      const due = last || now - summarisedAt > Math.max(500, 4 * summaryMs);
+      // the bands sort every receptor's values at every time: refreshed at most once a second and
+      // within a fifth of the page's time too, so a long run's bands grow as its figures do
+      const bandsDue = last || (due && now - bandsAt > Math.max(1000, 4 * bandsMs));
+      const prev = uncertaintyRun.peek();
+      const joined = due ? joinBlocks(plan, blocks, { curves: bandsDue }) : null;
+      const result = joined ? summariseRun(plan, joined) : prev.result;
       if (joined) {
         summarisedAt = performance.now();
         summaryMs = summarisedAt - now;
       }
-      // the bands sort every receptor's values at every time: once, at the end
-      const bands = last && joined ? breakthroughBands(plan, joined) : null;
-      const wellBands = last && joined ? monitoringWellBands(plan, joined) : null;
+      let bands = prev.bands;
+      let wellBands = prev.wellBands;
+      if (joined && bandsDue) {
+        const t0 = performance.now();
+        bands = breakthroughBands(plan, joined);
+        wellBands = monitoringWellBands(plan, joined);
+        bandsAt = performance.now();
+        bandsMs = bandsAt - t0;
+      }
       // the probability map grows with the realisations mapped (contouring its lattice is cheap)
       const map = joined ? exceedanceMapOf(plan, joined) : uncertaintyRun.peek().map;
-      uncertaintyRun.value = { ...uncertaintyRun.peek(), result, bands, wellBands, map, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
+      uncertaintyRun.value = { ...prev, result, bands, wellBands, map, done, secondsLeft: done > 0 ? (elapsed / done) * (runs - done) : null };
       if (last) stop('done');
       else give(w);
     };

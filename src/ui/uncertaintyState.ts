@@ -20,9 +20,9 @@ export interface RunState {
   readonly secondsLeft: number | null;
   readonly error: string | null;
   readonly workers: number;
-  /** percentile bands of each receptor's breakthrough curve (when the run is done or cancelled) */
+  /** percentile bands of each receptor's breakthrough curve (refreshed during a run, at most once a second; final when it is done or cancelled) */
   readonly bands: BreakthroughBands[] | null;
-  /** the same bands at each placed monitoring well with results, over its chart's times (when the run is done or cancelled) */
+  /** the same bands at each placed monitoring well with results, over its chart's times (refreshed with them) */
   readonly wellBands: WellBands[] | null;
   /** contours of P(C > limit) on the map at the map's time, from the realisations mapped so far */
   readonly map: ExceedanceContours | null;

@@ -107,6 +107,9 @@ describe('How sure is it? (Monte Carlo in web workers)', () => {
     await page.waitForSelector('.dg-mc-progress progress');
     await page.waitForFunction(() => Number(document.querySelector('.dg-mc-progress progress')?.getAttribute('value') ?? 0) >= 400, undefined, { timeout: 60_000 });
     await expect(page.locator('.dg-mc-progress').innerText()).resolves.toMatch(/of 50000 realisations on \d+ workers?/);
+    // the percentile bands are on the breakthrough chart while the run goes on, not only at its end
+    await page.waitForSelector('[data-testid=breakthrough-bands]', { timeout: 60_000 });
+    await expect(page.locator('.dg-mc-progress progress').isVisible()).resolves.toBe(true);
     // an edit while the run goes on: the deterministic table and the plume on the map follow it at once
     const table = () => page.locator('[data-testid=receptor-table] tbody').innerText();
     const plume = () => page.locator('.leaflet-overlay-pane path.dg-band-0').first().getAttribute('d');
