@@ -4,12 +4,11 @@
 // moderate findings are written to test-artifacts/axe-*.json to be read.
 import { describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
-import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { artifactPath, LANDSCAPE, PORTRAIT, PHONE } from './browser';
 import { openDemo, openFiles, useBrowser, waitSaved, watchedPage } from './offline-helpers';
 import { axe, type Finding } from './axe-helpers';
 
 const getBrowser = useBrowser();
-const PHONE = { width: 390, height: 844 };
 
 const serious = (fs: Finding[]) => fs.filter((f) => f.impact === 'serious' || f.impact === 'critical');
 

@@ -24,6 +24,7 @@ export async function launch(): Promise<Browser> {
 
 export const PORTRAIT = { width: 768, height: 1024 };
 export const LANDSCAPE = { width: 1024, height: 768 };
+export const PHONE = { width: 390, height: 844 };
 
 export async function newPage(
   browser: Browser,

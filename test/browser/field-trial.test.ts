@@ -2,11 +2,10 @@
 // covered the header; map labels of receptors, water levels and monitoring wells overprinted each
 // other in the demo cases. In real Chromium at 390×844, screenshots kept in test-artifacts/.
 import { describe, expect, it } from 'vitest';
-import { artifactPath } from './browser';
+import { artifactPath, PHONE } from './browser';
 import { settled, startScreen, useBrowser, waitSaved, watchedPage } from './offline-helpers';
 
 const getBrowser = useBrowser();
-const PHONE = { width: 390, height: 844 };
 
 describe('on a phone', () => {
   it('a notice sits over the top of the map, below the header and the map tools, never over them', async () => {

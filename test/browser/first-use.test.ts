@@ -7,11 +7,10 @@
 import { describe, expect, it } from 'vitest';
 import { inflateSync } from 'node:zlib';
 import type { Locator, Page } from 'playwright-core';
-import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { artifactPath, LANDSCAPE, PORTRAIT, PHONE } from './browser';
 import { startScreen, useBrowser } from './offline-helpers';
 
 const getBrowser = useBrowser();
-const PHONE = { width: 390, height: 844 };
 const NITRATE = 'nitrate-field-supply.json';
 
 const start = (viewport = LANDSCAPE, file?: string) => startScreen(getBrowser(), viewport, file);

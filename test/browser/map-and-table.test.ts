@@ -4,11 +4,10 @@
 // polish items. Screenshots at 1024×768, 768×1024 and 390×844 are kept in test-artifacts/.
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { artifactPath, LANDSCAPE, PORTRAIT, PHONE } from './browser';
 import { openDemo, settled, startScreen, useBrowser } from './offline-helpers';
 
 const getBrowser = useBrowser();
-const PHONE = { width: 390, height: 844 };
 const NITRATE = 'nitrate-field-supply.json';
 
 const start = (viewport = LANDSCAPE, file?: string) => startScreen(getBrowser(), viewport, file);

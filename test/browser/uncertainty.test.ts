@@ -5,27 +5,19 @@
 // probability contours on the map, and gives the same
 // figures as the command line's code (src/case/uncertainty.ts) for the same case, seed and runs.
 // Screenshots at the three sizes go to test-artifacts/.
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
-import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
-import { openDemoPage, openFiles, setNumber } from './offline-helpers';
+import { artifactPath, LANDSCAPE, PORTRAIT, PHONE } from './browser';
+import { openDemoPage, openFiles, setNumber, useBrowser } from './offline-helpers';
 import { axe } from './axe-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { runUncertainty } from '../../src/case/uncertainty';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-const PHONE = { width: 390, height: 844 };
+const getBrowser = useBrowser();
 
 async function openFuelDemo(viewport: { width: number; height: number }): Promise<{ page: Page; errors: string[]; close: () => Promise<void> }> {
-  const opened = await openDemoPage(browser, 'fuel-release-farm-well.json', viewport);
+  const opened = await openDemoPage(getBrowser(), 'fuel-release-farm-well.json', viewport);
   await opened.page.locator('#sec-uncertainty button').click();
   return opened;
 }

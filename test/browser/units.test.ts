@@ -2,12 +2,11 @@
 // input lengths in ft and the receptor table's distances in ft; switching back shows every stored
 // value exactly as typed (nothing is converted and written back). Screenshots at three sizes.
 import { describe, expect, it } from 'vitest';
-import { artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { artifactPath, LANDSCAPE, PORTRAIT, PHONE } from './browser';
 import { readFileSync } from 'node:fs';
 import { openDemo, openFiles, storedCases, useBrowser, waitForResults, waitSaved, watchedPage } from './offline-helpers';
 
 const getBrowser = useBrowser();
-const PHONE = { width: 390, height: 844 };
 
 describe('unit system', () => {
   it('SI → US → SI: fields and tables follow; the stored values read exactly as typed', async () => {

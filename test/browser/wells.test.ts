@@ -5,28 +5,20 @@
 // with the command line's code for the same case, particles and seed (the walk does not depend on
 // how the particles are split across workers; summation order aside); the particle plume is drawn.
 // Screenshots at 1024×768, 768×1024 and 390×844 go to test-artifacts/; axe-core finds no serious issue.
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
-import { launch, artifactPath, LANDSCAPE, PORTRAIT } from './browser';
+import { artifactPath, LANDSCAPE, PORTRAIT, PHONE } from './browser';
 import { axe } from './axe-helpers';
-import { download, openDemoPage, openFiles, setNumber } from './offline-helpers';
+import { download, openDemoPage, openFiles, setNumber, useBrowser } from './offline-helpers';
 import { parseCaseFile } from '../../src/case/io';
 import { screenCase } from '../../src/case/screen';
 import { runCaseParticles } from '../../src/case/particles';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launch();
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-const PHONE = { width: 390, height: 844 };
+const getBrowser = useBrowser();
 
 async function openRiverside(viewport: { width: number; height: number }): Promise<{ page: Page; errors: string[]; close: () => Promise<void> }> {
-  const opened = await openDemoPage(browser, 'riverside-supply-well.json', viewport);
+  const opened = await openDemoPage(getBrowser(), 'riverside-supply-well.json', viewport);
   await opened.page.waitForSelector('path.dg-capture-zone', { state: 'attached' });
   return opened;
 }
