@@ -14,7 +14,8 @@
  * a rise shorter than the sample spacing could be missed there, which the result notes.
  */
 import type { ScreeningModel, SolutionKind } from './model';
-import { relativeAt, relativeGrid, relativePoint, relativeSeries, kinetics, type Kinetics } from './transport';
+import { domenicoClosedForm, domenicoRelative, relativeAt, relativeGrid, relativePoint, relativeSeries, kinetics, type Kinetics } from './transport';
+import { domenicoLevelTime, domenicoSpread } from './solutions/domenico';
 import type { ExactOptions } from './solutions/patchSource';
 import { domenicoAdmits, validateModel } from './validateModel';
 import { ValidationError, inWorkingRange, requireFinite, requireFiniteEach, requireNonNegative, requirePositive, requireTime, type Warning } from './validation';
@@ -35,9 +36,10 @@ export interface PointLike {
   readonly z: number;
 }
 
+const fine = (v: unknown): boolean => typeof v === 'number' && Number.isFinite(v) && inWorkingRange(v);
+
 function checkReceptor(r: Receptor, field = 'receptor'): void {
   // the common case first, without building field names (this runs per receptor and realisation)
-  const fine = (v: unknown): boolean => typeof v === 'number' && Number.isFinite(v) && inWorkingRange(v);
   if (fine(r?.x) && fine(r.y) && fine(r.zTop) && r.zTop >= 0 && fine(r.zBottom) && r.zBottom >= r.zTop) return;
   requireFinite(`${field}.x`, r?.x);
   requireFinite(`${field}.y`, r?.y);
@@ -208,11 +210,7 @@ function arrivalOn(curve: ConcentrationCurve, continuousConstant: boolean, limit
   if (continuousConstant) {
     const fH = atHorizon - limit;
     if (fH < 0) return null;
-    if (curve.timeAt) {
-      // closed form (Domenico): reached by the horizon, so a time past it is rounding
-      const t = curve.timeAt(limit);
-      return t === null ? horizon : Math.min(t, horizon);
-    }
+    if (curve.timeAt) return reachedBy(curve.timeAt(limit), horizon);
     return brentRoot(f, 0, horizon, -limit, fH, tol);
   }
   const ts = sampleTimes(horizon);
@@ -225,6 +223,11 @@ function arrivalOn(curve: ConcentrationCurve, continuousConstant: boolean, limit
     prevF = ft;
   }
   return null;
+}
+
+/** A closed-form first time at the limit (Domenico) where the value at the horizon reaches it: a time past the horizon (or none) is rounding. */
+function reachedBy(t: number | null, horizon: number): number {
+  return t === null ? horizon : Math.min(t, horizon);
 }
 
 /** The largest value of the curve c(t) on [0, horizon] and its time (see the header). */
@@ -315,19 +318,33 @@ export function screenReceptorsInto(m: ScreeningModel, receptors: readonly Recep
   checkLimitAndHorizon(limit, horizon);
   const k = kinetics(m);
   const continuousConstant = k.continuousConstant;
+  const domenico = m.solution === 'domenico';
+  const { curves, times } = out;
   for (let j = 0; j < receptors.length; j++) {
     const r = receptors[j];
     checkReceptor(r);
+    const at = offset + j;
+    if (domenico && domenicoClosedForm(k, r.x)) {
+      // the common case of a Monte Carlo realisation: Domenico's closed forms without a curve
+      // (the values concentrationCurve's would give, with no closure per receptor)
+      const x = r.x;
+      const spread = domenicoSpread(x, r.y, r, k.dom);
+      const c = mgPerL(m, domenicoRelative(k, x, spread, horizon));
+      out.atHorizon[at] = c;
+      out.peak[at] = c; // continuous and constant: rising at a fixed point, so the peak is the value at the horizon
+      out.arrival[at] = c >= limit ? reachedBy(domenicoLevelTime(x, spread, k.dom, limit / m.c0), horizon) : Infinity;
+      if (curves && times) for (let q = 0, i = at * times.length; q < times.length; q++) curves[i + q] = mgPerL(m, domenicoRelative(k, x, spread, times[q]));
+      continue;
+    }
     const curve = concentrationCurve(m, m.solution, r, k);
     const c = curve.at;
     const atHorizon = c(horizon);
     // a continuous, constant source rises monotonically at a fixed point: its peak is the value at the horizon
     const peak = continuousConstant ? atHorizon : peakOn(curve, false, horizon).c;
-    out.atHorizon[offset + j] = atHorizon;
-    out.peak[offset + j] = peak;
-    out.arrival[offset + j] = peak >= limit ? (arrivalOn(curve, continuousConstant, limit, horizon, atHorizon) ?? Infinity) : Infinity;
-    const { curves, times } = out;
-    if (curves && times) for (let k = 0, at = (offset + j) * times.length; k < times.length; k++) curves[at + k] = c(times[k]);
+    out.atHorizon[at] = atHorizon;
+    out.peak[at] = peak;
+    out.arrival[at] = peak >= limit ? (arrivalOn(curve, continuousConstant, limit, horizon, atHorizon) ?? Infinity) : Infinity;
+    if (curves && times) for (let q = 0, i = at * times.length; q < times.length; q++) curves[i + q] = c(times[q]);
   }
 }
 

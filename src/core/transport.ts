@@ -13,7 +13,7 @@
  */
 import type { DepthSpan } from './solutions/spread';
 import { depthFactor, spreadFactor } from './solutions/spread';
-import { domenicoGridInto, domenicoLevelTime, domenicoYTerm, domenicoZTerm, isSymmetric, pointInTime, type DomenicoParams } from './solutions/domenico';
+import { domenicoAtSpread, domenicoGridInto, domenicoLevelTime, domenicoSpread, isSymmetric, type DomenicoParams } from './solutions/domenico';
 import { exactColumn, exactSeries, type ExactOptions, type PatchParams } from './solutions/patchSource';
 import { exactGridShared } from './solutions/patchGrid';
 import type { ScreeningModel, SolutionKind } from './model';
@@ -164,6 +164,25 @@ export function relativeAt(
   return relativePoint(m, kind, x, y, depth, opts).at(t);
 }
 
+/**
+ * Domenico's C/C0 at x ≥ 0 and time t (Infinity: steady state) given the point's lateral and
+ * vertical factors (`spread`, domenicoSpread): the source decline folded into the rate, a release
+ * of finite duration by superposition. relativePoint's curve, and the receptor screening without
+ * a closure per receptor (results.ts screenReceptorsInto).
+ */
+export function domenicoRelative(k: Kinetics, x: number, spread: number, t: number): number {
+  const p = k.dom;
+  if (t === Infinity) return k.continuousConstant ? domenicoAtSpread(x, spread, Infinity, p, 0) : 0;
+  let c = domenicoAtSpread(x, spread, t, p, -k.gamma * t);
+  if (k.duration < t && c > 0) c = Math.max(0, c - domenicoAtSpread(x, spread, t - k.duration, p, -k.gamma * t));
+  return c;
+}
+
+/** Whether Domenico's first time at a level has its closed form at x (domenicoLevelTime): a continuous constant source, downgradient, with dispersion and flow. */
+export function domenicoClosedForm(k: Kinetics, x: number): boolean {
+  return k.continuousConstant && x > 0 && k.dom.Dx > 0 && k.dom.v > 0;
+}
+
 export interface RelativePoint {
   /** C/C0 at time t */
   readonly at: (t: number) => number;
@@ -192,17 +211,9 @@ export function relativePoint(
 ): RelativePoint {
   if (kind === 'domenico') {
     if (x < 0) return { at: () => 0, levelTime: null };
-    const p = k.dom;
-    const spread = domenicoYTerm(x, y, p) * domenicoZTerm(x, depth, p);
-    const point = pointInTime(x, spread, p);
-    const at = (t: number): number => {
-      if (t === Infinity) return k.continuousConstant ? point(Infinity, 0) : 0;
-      let c = point(t, -k.gamma * t);
-      if (k.duration < t && c > 0) c = Math.max(0, c - point(t - k.duration, -k.gamma * t));
-      return c;
-    };
-    const closed = k.continuousConstant && x > 0 && p.Dx > 0 && p.v > 0;
-    return { at, levelTime: closed ? (level) => domenicoLevelTime(x, spread, p, level) : null };
+    const spread = domenicoSpread(x, y, depth, k.dom);
+    const closed = domenicoClosedForm(k, x);
+    return { at: (t) => domenicoRelative(k, x, spread, t), levelTime: closed ? (level) => domenicoLevelTime(x, spread, k.dom, level) : null };
   }
   const xs = [x];
   const ys = [y];

@@ -26,7 +26,7 @@
 import { depthFactor, erfRatioSafe, spreadFactor, uniformStep, type DepthSpan } from './spread';
 import { lateralLattice } from '../lattice';
 import { erfDiff } from '../special/erf';
-import { lnCdf, pistonCdf, uMinusV } from './oneD';
+import { pistonCdf, scaledCdf, uMinusV } from './oneD';
 import { normalQuantile } from '../uncertainty/normal';
 
 export interface DomenicoParams {
@@ -47,8 +47,7 @@ export function domenicoXTerm(x: number, t: number, p: DomenicoParams, logScale 
   if (!(t > 0) || x < 0) return 0; // upgradient of the source plane: no transport represented
   if (x === 0) return Math.exp(logScale);
   if (p.Dx === 0) return Math.exp(logScale) * pistonCdf(x, t, p.v, p.lam);
-  const val = Math.exp(logScale + lnCdf(x, t, p.v, p.Dx, p.lam, true));
-  return val;
+  return scaledCdf(x, t, p.v, p.Dx, p.lam, logScale, true);
 }
 
 /** Lateral factor at (x, y): ½[erf((y + W/2)/(2√(αy x))) − erf((y − W/2)/(2√(αy x)))]. */
@@ -64,26 +63,19 @@ export function domenicoZTerm(x: number, depth: DepthSpan, p: DomenicoParams): n
   return depthFactor(depth, p.thickness, s);
 }
 
-/** C/C0 at one point (x ≥ 0; upgradient points are the caller's business). */
-export function domenicoPoint(x: number, y: number, depth: DepthSpan, t: number, p: DomenicoParams, logScale = 0): number {
-  return domenicoPointInTime(x, y, depth, p)(t, logScale);
-}
-
 /**
- * C/C0 at one point as a function of time (and log scale): the lateral and vertical factors do
- * not depend on t, so a breakthrough, an arrival search or a peak search computes them once and
- * one erfc-type x-term per time.
+ * The lateral and vertical factors of a point or screen at x (their product, which does not
+ * depend on time): a breakthrough, an arrival or a peak computes it once and then one x-term per
+ * time (domenicoAtSpread).
  */
-export function domenicoPointInTime(x: number, y: number, depth: DepthSpan, p: DomenicoParams): (t: number, logScale: number) => number {
-  return pointInTime(x, domenicoYTerm(x, y, p) * domenicoZTerm(x, depth, p), p);
+export function domenicoSpread(x: number, y: number, depth: DepthSpan, p: DomenicoParams): number {
+  return domenicoYTerm(x, y, p) * domenicoZTerm(x, depth, p);
 }
 
-/** C/C0 at x as a function of time, given the product of its lateral and vertical factors. */
-export function pointInTime(x: number, spread: number, p: DomenicoParams): (t: number, logScale: number) => number {
-  return (t, logScale) => {
-    const X = domenicoXTerm(x, t, p, logScale);
-    return X === 0 ? 0 : X * spread;
-  };
+/** C/C0 at x and time t (and log scale), given the product of its lateral and vertical factors (domenicoSpread). */
+export function domenicoAtSpread(x: number, spread: number, t: number, p: DomenicoParams, logScale: number): number {
+  const X = domenicoXTerm(x, t, p, logScale);
+  return X === 0 ? 0 : X * spread;
 }
 
 /**

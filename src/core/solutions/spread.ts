@@ -3,9 +3,7 @@
  * ½[erf((c + h)/s) − erf((c − h)/s)] for a source of half-extent h spread over length s, its
  * s → 0 limit, and its average over a well screen.
  */
-import { erf, erfDiff } from '../special/erf';
-
-const INV_SQRT_PI = 0.5641895835477563;
+import { erf, erfDiff, erfIntegral } from '../special/erf';
 
 /** Depth interval of a receptor: a point when zTop === zBottom. */
 export interface DepthSpan {
@@ -17,11 +15,6 @@ export interface DepthSpan {
 export function erfRatioSafe(q: number, s: number): number {
   if (s > 0) return erf(q / s);
   return q > 0 ? 1 : q < 0 ? -1 : 0;
-}
-
-/** ∫ erf(w) dw = w·erf(w) + e^{−w²}/√π */
-function ierf(w: number): number {
-  return w * erf(w) + INV_SQRT_PI * Math.exp(-w * w);
 }
 
 /** ½[erf((c + h)/s) − erf((c − h)/s)]: the lateral or vertical factor at one point (h ≥ 0). */
@@ -53,7 +46,7 @@ export function depthFactor(span: DepthSpan, H: number, s: number): number {
     for (let k = 0; k < 3; k++) acc += GL3_W[k] * spreadFactor(c + 0.5 * len * GL3_X[k], H, s);
     return 0.5 * acc;
   }
-  const val = (s / (2 * len)) * (ierf((z2 + H) / s) - ierf((z1 + H) / s) - ierf((z2 - H) / s) + ierf((z1 - H) / s));
+  const val = (s / (2 * len)) * (erfIntegral((z2 + H) / s) - erfIntegral((z1 + H) / s) - erfIntegral((z2 - H) / s) + erfIntegral((z1 - H) / s));
   return Math.min(1, Math.max(0, val));
 }
 

@@ -21,22 +21,6 @@
  * solutions only call erfcx with x ≥ 0). NaN in gives NaN out.
  */
 
-const A = [3.1611237438705656, 113.864154151050156, 377.485237685302021, 3209.37758913846947, 0.185777706184603153];
-const B = [23.6012909523441209, 244.024637934444173, 1282.61652607737228, 2844.23683343917062];
-const C = [
-  0.564188496988670089, 8.88314979438837594, 66.1191906371416295, 298.635138197400131, 881.95222124176909,
-  1712.04761263407058, 2051.07837782607147, 1230.33935479799725, 2.15311535474403846e-8,
-];
-const D = [
-  15.7449261107098347, 117.693950891312499, 537.181101862009858, 1621.38957456669019, 3290.79923573345963,
-  4362.61909014324716, 3439.36767414372164, 1230.33935480374942,
-];
-const P = [
-  0.305326634961232344, 0.360344899949804439, 0.125781726111229246, 0.0160837851487422766,
-  6.58749161529837803e-4, 0.0163153871373020978,
-];
-const Q = [2.56852019228982242, 1.87295284992346047, 0.527905102951428412, 0.0605183413124413191, 0.00233520497626869185];
-
 const THRESH = 0.46875;
 const INV_SQRT_PI = 0.56418958354775628695;
 /** above this erfc(x) underflows to zero */
@@ -44,40 +28,47 @@ const XBIG = 26.543;
 /** above this the 1/(x√π) term alone is exact in double precision */
 const XHUGE = 6.71e7;
 
-/** erf(x)/x·… for |x| ≤ 0.46875: returns erf(x). */
+// The rational functions in Horner form with Cody's coefficients written out (CALERF's A, B; C, D;
+// P, Q, highest degree first). Literal constants rather than a loop over coefficient arrays: the
+// same operations in the same order (so the same values to the last bit), about twice as fast in
+// V8, and the error function is the inner cost of every Domenico point and screen average.
+
+/** erf(x) for |x| ≤ 0.46875: x·P₄(x²)/Q₄(x²). */
 function erfSmall(x: number): number {
   const z = x * x;
-  let num = A[4] * z;
-  let den = z;
-  for (let i = 0; i < 3; i++) {
-    num = (num + A[i]) * z;
-    den = (den + B[i]) * z;
-  }
-  return (x * (num + A[3])) / (den + B[3]);
+  const num = (((0.185777706184603153 * z + 3.1611237438705656) * z + 113.864154151050156) * z + 377.485237685302021) * z + 3209.37758913846947;
+  const den = (((z + 23.6012909523441209) * z + 244.024637934444173) * z + 1282.61652607737228) * z + 2844.23683343917062;
+  return (x * num) / den;
 }
 
 /** exp(y²)·erfc(y) for 0.46875 < y ≤ 4 (unscaled rational part). */
 function erfcxMid(y: number): number {
-  let num = C[8] * y;
-  let den = y;
-  for (let i = 0; i < 7; i++) {
-    num = (num + C[i]) * y;
-    den = (den + D[i]) * y;
-  }
-  return (num + C[7]) / (den + D[7]);
+  const num =
+    (((((((2.15311535474403846e-8 * y + 0.564188496988670089) * y + 8.88314979438837594) * y + 66.1191906371416295) * y + 298.635138197400131) * y +
+      881.95222124176909) *
+      y +
+      1712.04761263407058) *
+      y +
+      2051.07837782607147) *
+      y +
+    1230.33935479799725;
+  const den =
+    (((((((y + 15.7449261107098347) * y + 117.693950891312499) * y + 537.181101862009858) * y + 1621.38957456669019) * y + 3290.79923573345963) * y +
+      4362.61909014324716) *
+      y +
+      3439.36767414372164) *
+      y +
+    1230.33935480374942;
+  return num / den;
 }
 
 /** exp(y²)·erfc(y) for y > 4. */
 function erfcxLarge(y: number): number {
   if (y >= XHUGE) return INV_SQRT_PI / y;
   const z = 1 / (y * y);
-  let num = P[5] * z;
-  let den = z;
-  for (let i = 0; i < 4; i++) {
-    num = (num + P[i]) * z;
-    den = (den + Q[i]) * z;
-  }
-  const r = (z * (num + P[4])) / (den + Q[4]);
+  const num = ((((0.0163153871373020978 * z + 0.305326634961232344) * z + 0.360344899949804439) * z + 0.125781726111229246) * z + 0.0160837851487422766) * z + 6.58749161529837803e-4;
+  const den = ((((z + 2.56852019228982242) * z + 1.87295284992346047) * z + 0.527905102951428412) * z + 0.0605183413124413191) * z + 0.00233520497626869185;
+  const r = (z * num) / den;
   return (INV_SQRT_PI - r) / y;
 }
 
@@ -106,6 +97,19 @@ export function erf(x: number): number {
   // at most 36ε·erfc(y) ≤ 4e-15 absolute here, below an ulp of erf for y > 0.46875.
   const r = 1 - Math.exp(-y * y) * (y <= 4 ? erfcxMid(y) : erfcxLarge(y));
   return x < 0 ? -r : r;
+}
+
+/**
+ * w·erf(w) + e^{−w²}/√π, the antiderivative of erf (∫erf(w)dw) that screen averages take
+ * differences of: the same value as writing it out with erf, with erf's own e^{−w²} serving the
+ * second term too (one exponential instead of two).
+ */
+export function erfIntegral(w: number): number {
+  const y = Math.abs(w); // w·erf(w) = |w|·erf(|w|)
+  if (y <= THRESH) return w * erfSmall(w) + INV_SQRT_PI * Math.exp(-w * w);
+  const e = Math.exp(-y * y);
+  if (y >= 5.93) return y + INV_SQRT_PI * e; // erf rounds to ±1 (see erf)
+  return y * (1 - e * (y <= 4 ? erfcxMid(y) : erfcxLarge(y))) + INV_SQRT_PI * e;
 }
 
 /** The complementary error function erfc(x) = 1 − erf(x), accurate in relative terms for large x. */
