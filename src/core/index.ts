@@ -78,7 +78,7 @@ export {
   type BoundaryKind,
   type FlowField,
 } from './flow/field';
-export { confinedHead, unconfinedHead, dewatered, type HeadReference } from './flow/heads';
+export { confinedHead, confinedHeadLattice, unconfinedHead, dewatered, type HeadReference } from './flow/heads';
 export {
   traceStreamline,
   stagnationPoints,

@@ -269,3 +269,145 @@ export function contoursToGeoJSON(
 ): FeatureCollection<MultiPolygon> {
   return packedToGeoJSON(packContours(bands, toMap), typeof props === 'function' ? (_b, k) => props(bands[k], k) : props);
 }
+
+/** An open polyline (or a closed one: last vertex = first) in the flow frame, metres. */
+export type Polyline = [number, number][];
+
+export interface ContourLineSet {
+  level: number;
+  /** the lines where the field equals `level`, open where they leave the lattice */
+  lines: Polyline[];
+}
+
+/**
+ * Contour lines (isolines) at each level, from the same marching squares as the bands: the
+ * boundary of the band C ≥ level is the isoline plus, where the band reaches the lattice's edge,
+ * stretches along that edge (contourBands closes bands there). Those stretches — segments with
+ * both ends on one edge of the lattice (x = xs[0], x = xs[n−1], y = ys[0] or y = ys[m−1]) — are
+ * cut out; what remains is the isoline, open where it leaves the lattice and closed (last vertex =
+ * first) where it loops inside it. A level line lying exactly along an edge of the lattice would
+ * be cut out with it (a degenerate case: the field equal to the level along a whole edge).
+ */
+export function contourLines({ values, xs, ys, levels }: { values: ArrayLike<number>; xs: ArrayLike<number>; ys: ArrayLike<number>; levels: ArrayLike<number> }): ContourLineSet[] {
+  const bands = contourBands({ values, xs, ys, thresholds: levels });
+  const x0 = xs[0], x1 = xs[xs.length - 1], y0 = ys[0], y1 = ys[ys.length - 1];
+  const onEdge = (a: [number, number], b: [number, number]) =>
+    (a[0] === x0 && b[0] === x0) || (a[0] === x1 && b[0] === x1) || (a[1] === y0 && b[1] === y0) || (a[1] === y1 && b[1] === y1);
+  return bands.map((band) => {
+    const lines: Polyline[] = [];
+    for (const poly of band.polygons)
+      for (const ring of poly) {
+        const n = ring.length - 1; // closed: ring[n] = ring[0]
+        let cut = -1;
+        for (let k = 0; k < n && cut < 0; k++) if (onEdge(ring[k], ring[k + 1])) cut = k;
+        if (cut < 0) {
+          lines.push(ring.map((p): [number, number] => [p[0], p[1]]));
+          continue;
+        }
+        // walk the ring from just after an edge stretch, all the way round to it
+        let piece: Polyline = [];
+        for (let s = 1; s <= n; s++) {
+          const k = (cut + s) % n;
+          const a = ring[k], b = ring[k + 1];
+          if (onEdge(a, b)) {
+            if (piece.length >= 2) lines.push(piece);
+            piece = [];
+            continue;
+          }
+          if (piece.length === 0) piece.push([a[0], a[1]]);
+          piece.push([b[0], b[1]]);
+        }
+        if (piece.length >= 2) lines.push(piece);
+      }
+    return { level: band.threshold, lines };
+  });
+}
+
+/** The side of a straight line kept by clipLines: points with (x − px)·nx + (y − py)·ny ≥ 0. */
+export interface HalfPlane {
+  px: number;
+  py: number;
+  nx: number;
+  ny: number;
+}
+
+/** A disk cut out by clipLines (its interior removed). */
+export interface Disk {
+  x: number;
+  y: number;
+  r: number;
+}
+
+/**
+ * The parts of a polyline inside every half-plane and outside every disk, exactly (each segment
+ * clipped in its own parameter: linear for a half-plane, the roots of a quadratic for a circle).
+ * Pieces shorter than two vertices are dropped; a closed line that survives whole stays closed.
+ */
+export function clipLines(line: readonly (readonly [number, number])[], halfPlanes: readonly HalfPlane[], disks: readonly Disk[]): Polyline[] {
+  const out: Polyline[] = [];
+  let piece: Polyline = [];
+  const flush = () => {
+    if (piece.length >= 2) out.push(piece);
+    piece = [];
+  };
+  for (let k = 0; k + 1 < line.length; k++) {
+    const [ax, ay] = line[k];
+    const dx = line[k + 1][0] - ax, dy = line[k + 1][1] - ay;
+    // kept parameter intervals of this segment
+    let kept: [number, number][] = [[0, 1]];
+    for (const h of halfPlanes) {
+      const d0 = (ax - h.px) * h.nx + (ay - h.py) * h.ny;
+      const dd = dx * h.nx + dy * h.ny;
+      let lo = 0, hi = 1;
+      if (dd === 0) {
+        if (d0 < 0) hi = -1;
+      } else if (dd > 0) lo = Math.max(0, -d0 / dd);
+      else hi = Math.min(1, -d0 / dd);
+      kept = kept.map(([a, b]): [number, number] => [Math.max(a, lo), Math.min(b, hi)]).filter(([a, b]) => b > a);
+    }
+    for (const c of disks) {
+      // |A + t·D − C|² < r² for t in (t1, t2)
+      const ex = ax - c.x, ey = ay - c.y;
+      const qa = dx * dx + dy * dy;
+      const qb = 2 * (ex * dx + ey * dy);
+      const qc = ex * ex + ey * ey - c.r * c.r;
+      const disc = qb * qb - 4 * qa * qc;
+      if (!(qa > 0) || disc <= 0) {
+        if (qc < 0) kept = []; // a zero-length segment inside the disk
+        continue;
+      }
+      const sq = Math.sqrt(disc);
+      // stable roots (no cancellation between qb and sq)
+      const q = -0.5 * (qb + (qb >= 0 ? sq : -sq));
+      const r1 = q / qa, r2 = qc / q;
+      const t1 = Math.min(r1, r2), t2 = Math.max(r1, r2);
+      kept = kept.flatMap(([a, b]): [number, number][] => {
+        const parts: [number, number][] = [];
+        if (Math.min(b, t1) > a) parts.push([a, Math.min(b, t1)]);
+        if (b > Math.max(a, t2)) parts.push([Math.max(a, t2), b]);
+        return parts;
+      });
+    }
+    const at = (t: number): [number, number] => (t === 0 ? [ax, ay] : t === 1 ? [line[k + 1][0], line[k + 1][1]] : [ax + t * dx, ay + t * dy]);
+    for (const [a, b] of kept) {
+      if (a > 0 || piece.length === 0) {
+        flush();
+        piece.push(at(a));
+      }
+      piece.push(at(b));
+      if (b < 1) flush();
+    }
+    if (kept.length === 0) flush();
+  }
+  flush();
+  // a closed line cut somewhere: its last piece runs on into its first
+  const first = line[0], last = line[line.length - 1];
+  if (out.length >= 2 && first[0] === last[0] && first[1] === last[1]) {
+    const a = out[0], z = out[out.length - 1];
+    if (a[0][0] === first[0] && a[0][1] === first[1] && z[z.length - 1][0] === last[0] && z[z.length - 1][1] === last[1]) {
+      out[0] = [...z, ...a.slice(1)];
+      out.pop();
+    }
+  }
+  return out;
+}

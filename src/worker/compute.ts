@@ -14,6 +14,8 @@ import { breakthroughCurve, concentrationGrid, plumeLength, sampleTimes, concent
 import { contourBands, packContours } from '../geo/contours';
 import type { Evaluation, PlumeLayer, ReceptorRow, WellsLayer } from './protocol';
 import { headWarnings as headWarningsOf, mapCaptureZones, receptorHeads } from '../case/wells';
+import { mapHeadContours } from '../case/headContours';
+import { unitSystem } from '../case/unitSystem';
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
@@ -70,7 +72,7 @@ export function evaluateCase(c: Case): Evaluation {
     plumeLengthSteady: s.plumeLength.steady,
     profile,
     plume: null,
-    wells: wellsLayer(s),
+    wells: wellsLayer(s, c),
     warnings: s.warnings.map((w) => ({ ...w })),
     caution: s.caution,
     timing: { screenMs: t1 - t0, curvesMs: t2 - t1 },
@@ -78,7 +80,7 @@ export function evaluateCase(c: Case): Evaluation {
 }
 
 /** The well field's figures and capture zones for the screen (see WellsLayer). */
-function wellsLayer(s: ReturnType<typeof screenCase>): WellsLayer | null {
+function wellsLayer(s: ReturnType<typeof screenCase>, c: Case): WellsLayer | null {
   const w = s.wells;
   if (!w.field || w.thickness === null) return null;
   let zones: WellsLayer['zones'] = [];
@@ -90,7 +92,10 @@ function wellsLayer(s: ReturnType<typeof screenCase>): WellsLayer | null {
   }
   const heads = receptorHeads(s.prepared, w);
   const headWarnings = headWarningsOf(s.prepared, w, heads).map((x) => x.message);
-  return { thickness: w.thickness, captures: s.captures.map((c) => ({ ...c })), zones, zoneError, heads, headWarnings };
+  const t0 = now();
+  const headContours = mapHeadContours(s.prepared, w, unitSystem(c));
+  const headContoursMs = now() - t0;
+  return { thickness: w.thickness, captures: s.captures.map((x) => ({ ...x })), zones, zoneError, heads, headWarnings, headContours, headContoursMs };
 }
 
 /**

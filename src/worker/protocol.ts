@@ -8,6 +8,7 @@ import type { PackedBands } from '../geo/contours';
 import type { ExportReceptorResult } from '../case/export-results';
 import type { ReceptorResult } from '../core';
 import type { MapCaptureZone, ReceptorHead, WellCapture } from '../case/wells';
+import type { HeadContours } from '../case/headContours';
 
 /**
  * The steady well field of the case (pumping receptors with rates, boundary lines): per pumping
@@ -26,6 +27,10 @@ export interface WellsLayer {
   heads: ReceptorHead[];
   /** where the unconfined thickness departs from the constant one, in words */
   headWarnings: string[];
+  /** lines of equal head around the wells for the map (src/case/headContours.ts), or null */
+  headContours: HeadContours | null;
+  /** worker milliseconds spent on them (lattice, contouring, mapping) */
+  headContoursMs: number;
 }
 
 export type ReceptorStatus = 'reaches-limit' | 'below-limit' | 'not-reached-in-horizon';

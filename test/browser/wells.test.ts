@@ -137,6 +137,45 @@ describe('pumping wells: capture zones and particles', () => {
     await close();
   });
 
+  it('draws the lines of equal head with their levels beside the capture zone; the legend’s switch hides and shows them', async () => {
+    for (const [vp, name, labels] of [
+      [LANDSCAPE, '1024x768', 3],
+      [PORTRAIT, '768x1024', 1],
+      [PHONE, '390x844', 1],
+    ] as const) {
+      const { page, errors, close } = await openRiverside(vp);
+      // the riverside demo: a line every 0.2 m (src/case/headContours.ts; test/case/headContours.test.ts holds the levels)
+      await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(6);
+      await expect.poll(() => page.locator('.dg-head-label').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(labels);
+      for (const t of await page.locator('.dg-head-label').allInnerTexts()) expect(t).toMatch(/^-?\d+(\.\d)? m$/);
+      // head labels overlap neither one another nor the marks' labels
+      const boxes = await page.locator('.dg-head-label span, .dg-mark:not(.dg-label-hidden) .dg-mark-label').evaluateAll((els) =>
+        els.map((e) => e.getBoundingClientRect()).filter((r) => r.width > 0).map((r) => ({ x: r.left, y: r.top, w: r.width, h: r.height })),
+      );
+      for (let a = 0; a < boxes.length; a++)
+        for (let b = a + 1; b < boxes.length; b++) {
+          const A = boxes[a], B = boxes[b];
+          expect(A.x < B.x + B.w && B.x < A.x + A.w && A.y < B.y + B.h && B.y < A.y + A.h, `labels ${a} and ${b} overlap`).toBe(false);
+        }
+      const key = page.locator('[data-testid=head-lines-key]');
+      await expect(key.innerText()).resolves.toMatch(/Water level relative to the release: a line every 0\.2 m, none within 20 m of a pumping well/);
+      await page.screenshot({ path: artifactPath(`wells-head-lines-${name}.png`) });
+      const toggle = key.getByRole('checkbox', { name: /Water level relative to the release/ });
+      const box = await key.locator('label.dg-key-check').boundingBox();
+      expect(box!.height).toBeGreaterThanOrEqual(44);
+      await toggle.uncheck();
+      await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count()).toBe(0);
+      await expect.poll(() => page.locator('.dg-head-label').count()).toBe(0);
+      await toggle.check();
+      await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count()).toBeGreaterThanOrEqual(6);
+      await expect.poll(() => page.locator('.dg-head-label').count()).toBeGreaterThanOrEqual(labels);
+      const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
+      expect(findings).toEqual([]);
+      expect(errors).toEqual([]);
+      await close();
+    }
+  });
+
   it('portrait tablet and phone: the map layers, the wells panel and its run fit', async () => {
     for (const [vp, name] of [
       [PORTRAIT, '768x1024'],

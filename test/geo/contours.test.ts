@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { check } from '@placemarkio/check-geojson';
-import { contourBands, contoursToGeoJSON, packContours, packedPolygons, packedToGeoJSON, packedTransferables, ringArea, type PolygonSet } from '../../src/geo/contours';
+import { clipLines, contourBands, contourLines, contoursToGeoJSON, packContours, packedPolygons, packedToGeoJSON, packedTransferables, ringArea, type PolygonSet } from '../../src/geo/contours';
 import { makeLocalFrame } from '../../src/geo/projection';
 import { fromFlow } from '../../src/geo/flowFrame';
 
@@ -231,5 +231,78 @@ describe('packContours (typed arrays for the worker → page transfer)', () => {
     const moved = structuredClone(packed, { transfer: buffers });
     expect(packed.coords.length).toBe(0); // detached: moved, not copied
     expect(Array.from(moved.coords)).toEqual(copy);
+  });
+});
+
+describe('contourLines: the isolines of the same marching squares, without the lattice edge', () => {
+  it('a linear field C = x gives the straight line x = level across the lattice, open at its ends (exact: linear interpolation)', () => {
+    const xs = [0, 1, 3, 7, 10, 15, 21, 30];
+    const ys = [-5, -4.5, 0, 2, 8];
+    const [set] = contourLines({ values: sample(xs, ys, (x) => x), xs, ys, levels: [12.5] });
+    expect(set.level).toBe(12.5);
+    expect(set.lines.length).toBe(1);
+    const line = set.lines[0];
+    for (const [x] of line) expect(x).toBe(12.5);
+    const yEnds = [line[0][1], line[line.length - 1][1]].sort((a, b) => a - b);
+    expect(yEnds).toEqual([-5, 8]);
+  });
+
+  it('C = x² at level 4: two open lines, x = −2 and x = 2 (within the O(h²) of linear interpolation: h = 0.1, error ≤ h²/4·|f″|/|f′| = 0.0025)', () => {
+    const xs = range(-5, 5, 101), ys = range(-3, 3, 7);
+    const [set] = contourLines({ values: sample(xs, ys, (x) => x * x), xs, ys, levels: [4] });
+    expect(set.lines.length).toBe(2);
+    const xsOf = set.lines.map((l) => l.map((p) => p[0]));
+    for (const l of xsOf) for (const x of l) expect(Math.abs(Math.abs(x) - 2)).toBeLessThan(2.5e-3);
+    expect(xsOf.map((l) => Math.sign(l[0])).sort()).toEqual([-1, 1]);
+  });
+
+  it('the ellipse level sets of a Gaussian bump are closed lines on the ellipse (within 0.5 %, as the bands)', () => {
+    const sx = 30, sy = 10;
+    const xs = range(-120, 120, 481), ys = range(-40, 40, 401);
+    const sets = contourLines({ values: sample(xs, ys, (x, y) => Math.exp(-(x * x) / (2 * sx * sx) - (y * y) / (2 * sy * sy))), xs, ys, levels: [0.1, 0.5] });
+    for (const set of sets) {
+      const k = Math.sqrt(-2 * Math.log(set.level));
+      expect(set.lines.length).toBe(1);
+      const l = set.lines[0];
+      expect(l[0]).toEqual(l[l.length - 1]);
+      for (const [x, y] of l) expect(Math.abs(Math.hypot(x / (sx * k), y / (sy * k)) - 1)).toBeLessThan(5e-3);
+    }
+  });
+
+  it('a level no node reaches gives no line', () => {
+    const xs = range(0, 10, 5), ys = range(0, 10, 5);
+    const [set] = contourLines({ values: sample(xs, ys, (x) => x), xs, ys, levels: [20] });
+    expect(set.lines).toEqual([]);
+  });
+});
+
+describe('clipLines', () => {
+  it('keeps the part of a segment inside a half-plane, cut exactly at the line', () => {
+    const got = clipLines([[0, 0], [10, 0]], [{ px: 4, py: 0, nx: -1, ny: 0 }], []);
+    expect(got).toEqual([[[0, 0], [4, 0]]]);
+  });
+
+  it('cuts a disk out of a segment, in two pieces ending on the circle', () => {
+    const got = clipLines([[-10, 1], [10, 1]], [], [{ x: 0, y: 0, r: 2 }]);
+    expect(got.length).toBe(2);
+    const cut = Math.sqrt(3); // x² + 1 = 4
+    expect(got[0][1][0]).toBeCloseTo(-cut, 12);
+    expect(got[1][0][0]).toBeCloseTo(cut, 12);
+  });
+
+  it('a closed line cut once by a half-plane comes back as one open piece', () => {
+    const n = 64;
+    const circle = Array.from({ length: n + 1 }, (_, k): [number, number] => [Math.cos((2 * Math.PI * k) / n), Math.sin((2 * Math.PI * k) / n)]);
+    circle[n] = circle[0];
+    const got = clipLines(circle, [{ px: 0.5, py: 0, nx: -1, ny: 0 }], []);
+    expect(got.length).toBe(1);
+    for (const [x] of got[0]) expect(x).toBeLessThanOrEqual(0.5 + 1e-12);
+    expect(got[0][0][0]).toBeCloseTo(0.5, 12);
+    expect(got[0][got[0].length - 1][0]).toBeCloseTo(0.5, 12);
+  });
+
+  it('a line wholly outside is dropped; wholly inside is kept as it was', () => {
+    expect(clipLines([[0, 0], [1, 0], [2, 0]], [{ px: 5, py: 0, nx: 1, ny: 0 }], [])).toEqual([]);
+    expect(clipLines([[0, 0], [1, 0], [2, 0]], [{ px: -5, py: 0, nx: 1, ny: 0 }], [{ x: 9, y: 9, r: 1 }])).toEqual([[[0, 0], [1, 0], [2, 0]]]);
   });
 });

@@ -326,15 +326,19 @@ export function velocityGradient(f: FlowField, x: number, y: number, out: Veloci
 
 /**
  * Discharge potential Φ = −Q₀x + Σ s_j ln r_j (L³/T, up to a constant); Φ/T is head up to a
- * constant in a confined aquifer (T = K·B). Inside a well's radius r is taken as rw.
+ * constant in a confined aquifer (T = K·B). Inside a well's radius r is taken as rw; with
+ * `clipRadius` > rw, r is taken as at least clipRadius for every well and image (a clipped
+ * potential, finite on a map lattice whose nodes may fall on a well: the well's own cone is then
+ * flat inside clipRadius, the other terms exact).
  */
-export function potential(f: FlowField, x: number, y: number): number {
+export function potential(f: FlowField, x: number, y: number, clipRadius = 0): number {
   let phi = -f.q0 * x;
   const n = f.sx.length;
+  const c2 = clipRadius * clipRadius;
   for (let k = 0; k < n; k++) {
     const dx = x - f.sx[k];
     const dy = y - f.sy[k];
-    phi += 0.5 * f.ss[k] * Math.log(Math.max(dx * dx + dy * dy, f.sr2[k]));
+    phi += 0.5 * f.ss[k] * Math.log(Math.max(dx * dx + dy * dy, f.sr2[k], c2));
   }
   return phi;
 }

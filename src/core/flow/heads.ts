@@ -14,9 +14,14 @@
  * be dewatered (the well cannot deliver its rate there): `unconfinedHead` returns 0 there and
  * `dewatered` says so; no NaN.
  * Inside a well's radius r is taken as rw (field.ts), so the head there is the head at the well face.
+ *
+ * `confinedHeadLattice`: the confined head on a map lattice, each well's (and image's) distance
+ * taken as at least a stated clip radius (field.ts `potential`): the head is exact outside every
+ * well's clip circle and held at its value on the circle inside it, so a node on a well gives a
+ * finite number, not the −∞ of the line sink.
  */
 import { potential, type FlowField } from './field';
-import { requireFinite, requirePositive } from '../validation';
+import { ValidationError, requireFinite, requireNonNegative, requirePositive } from '../validation';
 
 export interface HeadReference {
   readonly x: number;
@@ -53,4 +58,33 @@ export function unconfinedHead(f: FlowField, conductivity: number, ref: HeadRefe
 /** Whether the Dupuit–Forchheimer form has the aquifer dewatered at (x, y) (h² ≤ 0). */
 export function dewatered(f: FlowField, conductivity: number, ref: HeadReference, x: number, y: number): boolean {
   return unconfinedSquare(f, conductivity, ref, x, y) <= 0;
+}
+
+/**
+ * Confined heads h_ref + (Φ − Φ_ref)/(K·B) at every node (xs[i], ys[j]), in the core grid's layout
+ * values[i·ys.length + j], with r ≥ clipRadius for every well and image (see the header; the
+ * reference point's own potential is not clipped). Throws ValidationError for a non-finite node.
+ */
+export function confinedHeadLattice(
+  f: FlowField,
+  conductivity: number,
+  ref: HeadReference,
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  clipRadius: number,
+): Float64Array {
+  check(conductivity, ref);
+  requireNonNegative('clipRadius', clipRadius);
+  const axis = (a: ArrayLike<number>, name: string) => {
+    if (!a || typeof a.length !== 'number') throw new ValidationError(name, a, 'a list of coordinates');
+    for (let k = 0; k < a.length; k++) requireFinite(`${name}[${k}]`, a[k]);
+  };
+  axis(xs, 'xs');
+  axis(ys, 'ys');
+  const T = conductivity * f.thickness;
+  const phiRef = potential(f, ref.x, ref.y);
+  const out = new Float64Array(xs.length * ys.length);
+  for (let i = 0; i < xs.length; i++)
+    for (let j = 0; j < ys.length; j++) out[i * ys.length + j] = ref.head + (potential(f, xs[i], ys[j], clipRadius) - phiRef) / T;
+  return out;
 }

@@ -1,19 +1,25 @@
 /**
  * Legend of the well-field layers under the map: the capture zones with the choice of
- * time-of-travel marks (water, as for wellhead protection, or the contaminant, slowed by R), and
- * the particle plume with its run (particles, seed, partial or out of date) and a switch to hide it.
+ * time-of-travel marks (water, as for wellhead protection, or the contaminant, slowed by R), the
+ * lines of equal water level (what they show, their interval, where they are left out) with a switch
+ * to hide them, and the particle plume with its run (particles, seed, partial or out of date) and a
+ * switch to hide it.
  */
 import { currentCase, currentResults } from '../state';
-import { travelMarks } from './wellLayers';
+import { showHeadLines, travelMarks } from './wellLayers';
 import { particleCaseKey, particleLayer, particleRun, showParticleLayer } from '../particleState';
 import { fmtTime } from '../format';
+import { scaleLabel, unitSystem } from '../../case/unitSystem';
 import '../wells.css';
 
 export function WellsKey() {
   const w = currentResults.value?.wells ?? null;
   const layer = particleLayer.value;
   const run = particleRun.value;
-  if (!(w && w.zones.length) && !layer) return null;
+  const heads = w?.headContours ?? null;
+  const hasHeads = !!heads && heads.levels.length > 0;
+  if (!(w && w.zones.length) && !layer && !hasHeads) return null;
+  const system = unitSystem(currentCase.value);
   const current = run.caseKey === particleCaseKey(currentCase.value);
   return (
     <div class="dg-plume-key dg-wells-key" aria-label="Well field legend">
@@ -30,6 +36,18 @@ export function WellsKey() {
               </button>
             ))}
           </span>
+        </div>
+      )}
+      {hasHeads && (
+        <div class="dg-key-row" data-testid="head-lines-key">
+          <label class="dg-check dg-key-check">
+            <input type="checkbox" data-testid="show-head-lines" checked={showHeadLines.value} onChange={(e) => (showHeadLines.value = (e.target as HTMLInputElement).checked)} />
+            <Sample kind="heads" />
+            <span>
+              Water level relative to the release: a line every {Number(heads.step.toPrecision(6))} {heads.unit}, none within {scaleLabel(heads.clipRadius, system, 1)} of a
+              pumping well
+            </span>
+          </label>
         </div>
       )}
       {layer && (
@@ -51,13 +69,13 @@ export function WellsKey() {
 }
 
 /** A sample of the line or area as drawn on the map (the map's own classes, so the colours match). */
-function Sample({ kind }: { kind: 'capture' | 'mark' | 'particles' }) {
+function Sample({ kind }: { kind: 'capture' | 'mark' | 'particles' | 'heads' }) {
   return (
     <svg class="dg-key-sample" viewBox="0 0 30 14" width="30" height="14" aria-hidden="true">
       {kind === 'capture' ? (
         <rect class="dg-capture-zone" x="1.5" y="1.5" width="27" height="11" rx="2" stroke-width="2" />
       ) : (
-        <path class={kind === 'mark' ? 'dg-travel-mark' : 'dg-particle-band'} d="M1 7H29" stroke-width="2.5" fill="none" />
+        <path class={kind === 'mark' ? 'dg-travel-mark' : kind === 'heads' ? 'dg-head-line' : 'dg-particle-band'} d="M1 7H29" stroke-width="2.5" fill="none" />
       )}
     </svg>
   );

@@ -103,3 +103,58 @@ export function declutter(items: readonly LabelItem[], symbols: readonly Rect[],
   }
   return out;
 }
+
+/** A label that goes on a line (a contour), centred on a point of it. */
+export interface LineLabelItem {
+  id: string;
+  /** the line's vertices in the map container's pixels */
+  points: readonly { x: number; y: number }[];
+  w: number;
+  h: number;
+}
+
+/** Where along a line a label is tried, as fractions of its length: the middle first, then outwards. */
+export const LINE_LABEL_AT = [0.5, 0.35, 0.65, 0.2, 0.8, 0.1, 0.9] as const;
+/** Room kept free around a line label, px (so labels of neighbouring lines do not read as one). */
+export const LINE_LABEL_GAP = 6;
+
+/** The point a fraction `t` of the way along a polyline (by length); null for a line of no length. */
+export function pointAlong(points: readonly { x: number; y: number }[], t: number): { x: number; y: number } | null {
+  let total = 0;
+  for (let k = 1; k < points.length; k++) total += Math.hypot(points[k].x - points[k - 1].x, points[k].y - points[k - 1].y);
+  if (!(total > 0)) return null;
+  let left = t * total;
+  for (let k = 1; k < points.length; k++) {
+    const a = points[k - 1], b = points[k];
+    const s = Math.hypot(b.x - a.x, b.y - a.y);
+    if (left <= s && s > 0) return { x: a.x + ((b.x - a.x) * left) / s, y: a.y + ((b.y - a.y) * left) / s };
+    left -= s;
+  }
+  return points[points.length - 1];
+}
+
+/**
+ * Places labels on lines (contour levels), in the order given: each at the first of LINE_LABEL_AT
+ * along its line whose box, centred there and grown by LINE_LABEL_GAP, lies inside the view and
+ * clear of `blocked` (marks, their labels, controls, notices over the map) and of the labels already
+ * placed. A label with no such place is left out (null): a line without a label keeps its legend.
+ */
+export function placeOnLines(items: readonly LineLabelItem[], blocked: readonly Rect[], width: number, height: number): Map<string, { x: number; y: number } | null> {
+  const out = new Map<string, { x: number; y: number } | null>();
+  const placed: Rect[] = [];
+  for (const it of items) {
+    let chosen: { x: number; y: number } | null = null;
+    for (const t of LINE_LABEL_AT) {
+      const p = pointAlong(it.points, t);
+      if (!p) break;
+      const rect = { x: p.x - it.w / 2 - LINE_LABEL_GAP, y: p.y - it.h / 2 - LINE_LABEL_GAP, w: it.w + 2 * LINE_LABEL_GAP, h: it.h + 2 * LINE_LABEL_GAP };
+      if (!inside(rect, width, height)) continue;
+      if (blocked.some((b) => overlaps(rect, b)) || placed.some((b) => overlaps(rect, b))) continue;
+      placed.push(rect);
+      chosen = p;
+      break;
+    }
+    out.set(it.id, chosen);
+  }
+  return out;
+}

@@ -29,7 +29,7 @@ import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource, setFootprint } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
-import { WellLayers, travelMarks } from './wellLayers';
+import { WellLayers, showHeadLines, travelMarks } from './wellLayers';
 import { ParticleLayerView } from './particleLayer';
 import { particleCaseKey, particleLayer, particleRun, showParticleLayer } from '../particleState';
 
@@ -155,6 +155,13 @@ export class SiteMap {
     });
     this.disposers.push(effect(() => guarded('capture zones', () => this.wells.syncZones(currentResults.value?.wells ?? null, travelMarks.value))));
     this.disposers.push(effect(() => guarded('boundary lines', () => this.wells.syncBoundaries(currentCase.value))));
+    this.disposers.push(
+      effect(() =>
+        guarded('head lines', () => {
+          if (this.wells.syncHeads(currentResults.value?.wells?.headContours ?? null, showHeadLines.value)) this.placeLabels();
+        }),
+      ),
+    );
     this.disposers.push(
       effect(() => {
         const run = particleRun.value;
@@ -364,6 +371,23 @@ export class SiteMap {
         e.el.classList.add(p?.side ? `dg-label-${p.side}` : 'dg-label-hidden');
         if (p?.maxWidth) e.label.style.maxWidth = `${p.maxWidth}px`;
       }
+      // then the head lines' labels, clear of the marks, their labels as placed, the controls and
+      // anything laid over the map (notices, the stale-plume message, a tool's hint)
+      const taken: Rect[] = [...symbols, ...controls];
+      const rectOf = (el: Element): Rect | null => {
+        const r = el.getBoundingClientRect();
+        return r.width && r.height ? { x: r.left - box.left, y: r.top - box.top, w: r.width, h: r.height } : null;
+      };
+      for (const e of entries) {
+        const r = e.el.classList.contains('dg-label-hidden') ? null : rectOf(e.label);
+        if (r) taken.push(r);
+      }
+      const wrap = this.map.getContainer().closest('.dg-map-wrap') ?? document.body;
+      for (const el of [...wrap.querySelectorAll('.dg-map-stale, .dg-tool-hint'), ...document.querySelectorAll('.dg-notices > *')]) {
+        const r = rectOf(el);
+        if (r) taken.push(r);
+      }
+      guarded('head labels', () => this.wells.placeHeadLabels(taken));
     });
   }
 

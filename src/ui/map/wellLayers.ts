@@ -8,12 +8,20 @@
  *   beyond them dashed (the model takes it as infinitely long), with a handle at each point to drag;
  * - the 'add-boundary' tool: two taps on the map make a new line (a constant-head line by default;
  *   its kind and name are edited in the flow panel).
- * Own panes, so the zones lie under the plume bands and the lines over them.
+ * - the lines of equal head around the wells (src/case/headContours.ts: the water level relative to
+ *   the release, confined form, at round intervals of the case's length unit), beside the capture
+ *   zones, each labelled with its level where a label fits (declutter.ts placeOnLines: clear of the
+ *   marks, their labels, the map's controls and notices, and each other); shown or hidden from the
+ *   well-field legend (showHeadLines).
+ * Own panes, so the zones and head lines lie under the plume bands and the boundary lines and
+ * labels over them.
  */
 import * as L from 'leaflet';
 import { signal } from '@preact/signals';
 import type { Case, Position } from '../../case/schema';
 import type { WellsLayer } from '../results';
+import type { HeadContours } from '../../case/headContours';
+import { placeOnLines, type Rect } from './declutter';
 import { newId } from '../../case/defaults';
 import { updateCase } from '../state';
 import { escapeHtml } from './symbols';
@@ -21,6 +29,11 @@ import { escapeHtml } from './symbols';
 export type TravelMarks = 'water' | 'contaminant';
 /** which time-of-travel marks are drawn (screen-only) */
 export const travelMarks = signal<TravelMarks>('water');
+/** whether the lines of equal head are drawn (screen-only) */
+export const showHeadLines = signal(true);
+
+/** the label box used for placement: 12 px bold digits about 7.5 px wide, 4 px padding, a 1 px border (wells.css .dg-map-text) */
+const headLabelSize = (text: string) => ({ w: Math.ceil(7.5 * text.length) + 10, h: 18 });
 
 const toLatLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
 const toPosition = (ll: L.LatLng): Position => [ll.lng, ll.lat];
@@ -53,6 +66,9 @@ export class WellLayers {
   private lines = new Map<string, DrawnLine>();
   private firstTap: L.Marker | null = null;
   private drawnZones: { w: WellsLayer | null; marks: TravelMarks } | null = null;
+  private headLines: L.Polyline[] = [];
+  private headLabels: L.Marker[] = [];
+  private drawnHeads: { h: HeadContours | null; show: boolean } | null = null;
 
   constructor(private readonly map: L.Map) {
     map.createPane('dg-capture').style.zIndex = '390';
@@ -86,6 +102,75 @@ export class WellLayers {
         const at = longest[Math.floor(longest.length / 2)];
         this.markLabels.push(L.marker(at, { icon: labelIcon(`${m.years} yr`, 'dg-travel-label'), interactive: false, keyboard: false, pane: 'dg-boundaries' }).addTo(this.map));
       }
+    }
+  }
+
+  /**
+   * The lines of equal head (one polyline per level, its pieces together); their labels are placed
+   * by placeHeadLabels, which the site map calls after its own labels (and on every move).
+   */
+  syncHeads(h: HeadContours | null, show: boolean): boolean {
+    if (this.drawnHeads && this.drawnHeads.h === h && this.drawnHeads.show === show) return false;
+    this.drawnHeads = { h, show };
+    for (const l of this.headLines) l.remove();
+    this.headLines = [];
+    if (!h || !show) {
+      this.clearHeadLabels();
+      return true;
+    }
+    for (const lv of h.levels) {
+      const pieces = lv.lines.filter((p) => p.length >= 2).map((p) => p.map(toLatLng));
+      if (!pieces.length) continue;
+      this.headLines.push(L.polyline(pieces, { pane: 'dg-capture', className: 'dg-head-line', interactive: false, weight: 1.5 }).addTo(this.map));
+    }
+    return true;
+  }
+
+  private clearHeadLabels(): void {
+    for (const m of this.headLabels) m.remove();
+    this.headLabels = [];
+  }
+
+  /**
+   * Labels the head lines for the view as it is: each visible stretch of a line gets its level once,
+   * where placeOnLines finds room (clear of `blocked`, the travel-time and boundary labels and each
+   * other), else none. Rects in the map container's pixels.
+   */
+  placeHeadLabels(blocked: Rect[]): void {
+    this.clearHeadLabels();
+    const h = this.drawnHeads?.h;
+    if (!h || !this.drawnHeads?.show) return;
+    const size = this.map.getSize();
+    const box = this.map.getContainer().getBoundingClientRect();
+    const own: Rect[] = [];
+    for (const m of [...this.markLabels, ...[...this.lines.values()].map((d) => d.label)]) {
+      const r = m.getElement()?.firstElementChild?.getBoundingClientRect();
+      if (r && r.width) own.push({ x: r.left - box.left, y: r.top - box.top, w: r.width, h: r.height });
+    }
+    const items: { id: string; text: string; points: { x: number; y: number }[]; w: number; h: number }[] = [];
+    h.levels.forEach((lv, k) =>
+      lv.lines.forEach((piece, j) => {
+        // the longest run of the piece inside the view
+        let best: { x: number; y: number }[] = [];
+        let run: { x: number; y: number }[] = [];
+        for (const p of piece) {
+          const c = this.map.latLngToContainerPoint(toLatLng(p));
+          if (c.x >= 0 && c.y >= 0 && c.x <= size.x && c.y <= size.y) run.push({ x: c.x, y: c.y });
+          else {
+            if (run.length > best.length) best = run;
+            run = [];
+          }
+        }
+        if (run.length > best.length) best = run;
+        if (best.length >= 2) items.push({ id: `${k}:${j}`, text: lv.label, points: best, ...headLabelSize(lv.label) });
+      }),
+    );
+    const placed = placeOnLines(items, [...blocked, ...own], size.x, size.y);
+    for (const it of items) {
+      const at = placed.get(it.id);
+      if (!at) continue;
+      const ll = this.map.containerPointToLatLng(L.point(at.x, at.y));
+      this.headLabels.push(L.marker(ll, { icon: labelIcon(it.text, 'dg-head-label'), interactive: false, keyboard: false, pane: 'dg-boundaries' }).addTo(this.map));
     }
   }
 

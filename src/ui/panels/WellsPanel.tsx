@@ -19,6 +19,7 @@ import { particleCaseKey, particleRun } from '../particleState';
 import { cancelParticles, startParticles } from '../particleRun';
 import { singleWellText } from './WellInputs';
 import '../wells.css';
+import { scaleLabel, unitSystem } from '../../case/unitSystem';
 
 export function WellsPanel() {
   const c = currentCase.value;
@@ -166,6 +167,14 @@ function WaterLevels() {
         The capture zones and particles take the saturated thickness as constant (confined form: head = Φ/(K·B)); in an unconfined aquifer the
         water table falls towards a pumping well and the thickness follows h = √(B² + 2ΔΦ/K) (Dupuit–Forchheimer), shown beside it.
       </p>
+      {w.headContours && w.headContours.levels.length > 0 && (
+        <p class="dg-method" data-testid="head-lines-note">
+          On the map, the lines of equal water level are the confined-form head relative to the release, a line every{' '}
+          {Number(w.headContours.step.toPrecision(6))} {w.headContours.unit}: equipotentials, which the flow crosses at right angles. In the Dupuit–Forchheimer
+          form the lines lie in the same places, only their values differ. Towards a pumping well the level falls ever more steeply (the model's well is a
+          line sink), so within {scaleLabel(w.headContours.clipRadius, unitSystem(c), 1)} of one no line is drawn; its level at its face is in the table.
+        </p>
+      )}
       {w.headWarnings.map((t) => (
         <p class="dg-field-warn" key={t}>
           {t}

@@ -1,7 +1,7 @@
 // Map labels never overprint (src/ui/map/declutter.ts): checked by rectangle intersection, the rule
 // itself (no outside reference applies; the layout is the program's own).
 import { describe, expect, test } from 'vitest';
-import { declutter, labelRect, overlaps, symbolRect, type LabelItem } from '../../../src/ui/map/declutter';
+import { declutter, labelRect, overlaps, placeOnLines, pointAlong, symbolRect, LINE_LABEL_GAP, type LabelItem } from '../../../src/ui/map/declutter';
 
 const W = 390;
 const H = 380;
@@ -52,5 +52,37 @@ describe('declutter', () => {
     const p = declutter([{ id: 'a', x: 80, y: 40, w: 120, h: 20, keep: true }], [], [zoom], W, H);
     const r = labelRect({ id: 'a', x: 80, y: 40, w: 120, h: 20 }, p.get('a')!.side!, 120);
     expect(overlaps(r, zoom)).toBe(false);
+  });
+});
+
+describe('placeOnLines (labels of the head lines)', () => {
+  const line = (y: number) => [{ x: 0, y }, { x: 200, y }];
+  test('pointAlong walks the line by length', () => {
+    expect(pointAlong([{ x: 0, y: 0 }, { x: 10, y: 0 }, { x: 10, y: 10 }], 0.75)).toEqual({ x: 10, y: 5 });
+    expect(pointAlong([{ x: 3, y: 3 }, { x: 3, y: 3 }], 0.5)).toBeNull();
+  });
+
+  test('a lone label goes to the middle of its line', () => {
+    expect(placeOnLines([{ id: 'a', points: line(50), w: 40, h: 18 }], [], W, H).get('a')).toEqual({ x: 100, y: 50 });
+  });
+
+  test('close parallel lines: labels move along their lines and never overlap (with their gap); no room, no label', () => {
+    const items = Array.from({ length: 12 }, (_, k) => ({ id: `l${k}`, points: line(40 + 8 * k), w: 40, h: 18 }));
+    const p = placeOnLines(items, [symbolRect(100, 60)], W, H);
+    const boxes = items.flatMap((it) => {
+      const at = p.get(it.id);
+      return at ? [{ x: at.x - it.w / 2 - LINE_LABEL_GAP, y: at.y - it.h / 2 - LINE_LABEL_GAP, w: it.w + 2 * LINE_LABEL_GAP, h: it.h + 2 * LINE_LABEL_GAP }] : [];
+    });
+    expect(boxes.length).toBeGreaterThan(1);
+    expect(boxes.length).toBeLessThan(items.length);
+    for (let a = 0; a < boxes.length; a++) {
+      expect(overlaps(boxes[a], symbolRect(100, 60))).toBe(false);
+      for (let b = a + 1; b < boxes.length; b++) expect(overlaps(boxes[a], boxes[b])).toBe(false);
+    }
+  });
+
+  test('a label that would leave the view is tried further along, else left out', () => {
+    const p = placeOnLines([{ id: 'edge', points: [{ x: 0, y: 2 }, { x: 100, y: 2 }], w: 40, h: 18 }], [], W, H);
+    expect(p.get('edge')).toBeNull();
   });
 });
