@@ -13,7 +13,9 @@
  * (§6.1) and in each receptor's properties.
  *
  * A case drawn on a local site grid (metres east/north of a datum with no geographic position)
- * has no WGS 84 coordinates, so it cannot be written as RFC 7946 GeoJSON: the export says so.
+ * has no WGS 84 coordinates, so it cannot be written as RFC 7946 GeoJSON: the export says so and
+ * points the way (place the case on the basemap). `geojsonNeedsPlacement` is that one rule, which
+ * the Files view also reads for its captions and its "place on the basemap" button.
  */
 import type { Feature, FeatureCollection, Geometry, Position as GeoPosition } from 'geojson';
 import type { Case, Position } from './schema';
@@ -29,7 +31,22 @@ import { fileNumber } from './numbers';
 import { fromInternal } from '../core/units';
 import { captureZoneFeatures, particleProperties } from './export-wells';
 
-export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string };
+/** `placeOnMap`: the refusal is geojsonNeedsPlacement's (the way forward is to place the case on the basemap) */
+export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string; placeOnMap?: boolean };
+
+/**
+ * Why this case cannot be GeoJSON until it is placed on the basemap, or null when it can: a case on
+ * a local site grid has no longitude and latitude, and RFC 7946 requires WGS 84. Every GeoJSON of a
+ * case (its layers, the capture zones and travel-time marks among them) goes by this one rule.
+ */
+export function geojsonNeedsPlacement(c: Pick<Case, 'site'>): string | null {
+  if (c.site.frame === 'geographic') return null;
+  return (
+    'GeoJSON export: this case is drawn on a local site grid (metres from a datum), which has no longitude and latitude; ' +
+    'RFC 7946 GeoJSON needs WGS 84 coordinates, for the release, receptors, plume contours and any capture zones and travel-time marks alike. ' +
+    'Place the site on the map (give the datum its longitude and latitude) to export GeoJSON, or export the CSV tables, which keep the site grid\'s east/north metres.'
+  );
+}
 
 const round7 = (v: number) => Math.round(v * 1e7) / 1e7;
 const pos = (p: readonly number[]): GeoPosition => [round7(p[0]), round7(p[1])];
@@ -82,14 +99,8 @@ export function exceedanceFeatures(p: NonNullable<GeoJsonOptions['probability']>
 }
 
 export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJsonOptions = {}): GeoJsonExport {
-  if (c.site.frame !== 'geographic') {
-    return {
-      ok: false,
-      error:
-        'GeoJSON export: this case is drawn on a local site grid (metres from a datum), which has no longitude and latitude; ' +
-        'RFC 7946 GeoJSON needs WGS 84 coordinates. Place the site on the map (geographic frame) to export GeoJSON, or export the CSV tables.',
-    };
-  }
+  const placement = geojsonNeedsPlacement(c);
+  if (placement) return { ok: false, error: placement, placeOnMap: true };
   let prepared;
   try {
     prepared = prepareCase(c);

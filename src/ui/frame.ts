@@ -20,6 +20,9 @@ export function convertFrame(c: Case, to: 'geographic' | 'local', geoDatum: Posi
   if (d.site.source.footprint) d.site.source.footprint = d.site.source.footprint.map(conv);
   d.site.receptors.forEach((r) => (r.position = conv(r.position)));
   if (d.site.flow.method === 'heads') d.site.flow.readings.forEach((h) => (h.position = conv(h.position)));
+  // boundary lines (version 3) and placed monitoring wells move with the rest
+  for (const b of d.site.boundaries ?? []) b.points = [conv(b.points[0]), conv(b.points[1])];
+  for (const w of d.monitoring.wells) if (w.position) w.position = conv(w.position);
   return d;
 }
 

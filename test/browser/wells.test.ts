@@ -176,6 +176,35 @@ describe('pumping wells: capture zones and particles', () => {
     }
   });
 
+  it('GeoJSON of the capture zones on the site grid: refused with the way forward (place on the basemap), then written with the zones', async () => {
+    const { page, errors, close } = await openRiverside(PORTRAIT);
+    await openFiles(page);
+    await expect(page.getByTestId('export-geojson').innerText()).resolves.toMatch(/capture zones and travel-time marks for a GIS; first place the case on the basemap/);
+    await expect(page.getByTestId('export-capture-zones').innerText()).resolves.toMatch(/as the site grid's east\/north metres/);
+    await page.getByTestId('export-geojson').click();
+    await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/local site grid.*capture zones and travel-time marks alike/);
+    await page.screenshot({ path: artifactPath('wells-geojson-local-768x1024.png') });
+    await page.getByTestId('place-on-map').click();
+    const lon = page.locator('#dg-datum-lon');
+    await expect.poll(() => lon.evaluate((el) => el === document.activeElement)).toBe(true);
+    await lon.fill('-2.731');
+    await page.getByLabel(/Datum latitude/).fill('52.413');
+    await page.getByRole('button', { name: 'Put this case on the basemap' }).click();
+    await page.getByRole('button', { name: 'Close' }).click();
+    // the river moved with the case: the zone is traced again and the release still lies in it
+    const row = page.locator('[data-testid=receptor-table] tr[data-receptor=supply-well]');
+    await expect.poll(() => row.locator('[data-col=capture]').innerText(), { timeout: 20_000 }).toMatch(/Release in its capture zone: contaminant arrives in about 1\.7\d* yr/);
+    await openFiles(page);
+    await expect(page.getByTestId('export-capture-zones').innerText()).resolves.toMatch(/as longitude and latitude/);
+    const g = await download(page, 'export-geojson');
+    const fc = JSON.parse(g.text);
+    const roles = fc.features.map((f: { properties: { role: string } }) => f.properties.role);
+    expect(roles).toContain('capture-zone');
+    expect(roles.filter((x: string) => x === 'travel-time-mark')).toHaveLength(8);
+    expect(errors).toEqual([]);
+    await close();
+  });
+
   it('portrait tablet and phone: the map layers, the wells panel and its run fit', async () => {
     for (const [vp, name] of [
       [PORTRAIT, '768x1024'],

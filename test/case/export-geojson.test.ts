@@ -3,7 +3,10 @@
 // RFC's rules it does not check itself (WGS 84 ranges §4, no crs member §4).
 import { describe, expect, it } from 'vitest';
 import { check, getIssues } from '@placemarkio/check-geojson';
-import { caseToGeoJSON } from '../../src/case/export-geojson';
+import { caseToGeoJSON, geojsonNeedsPlacement } from '../../src/case/export-geojson';
+import { screenCase } from '../../src/case/screen';
+import { mapCaptureZones } from '../../src/case/wells';
+import { convertFrame } from '../../src/ui/frame';
 import { demoCase, exportResultsFor } from './export-fixture';
 import { ringArea } from '../../src/geo/rings';
 
@@ -66,11 +69,38 @@ describe('caseToGeoJSON', () => {
     expect(Math.abs(az - 110)).toBeLessThan(0.5); // equirectangular estimate, fine at < 1 km
   });
 
-  it('a local-grid case is refused with a message naming why', () => {
+  it('a local-grid case is refused with a message naming why, and the way forward (place it on the basemap)', () => {
     const local = demoCase('nitrate-field-supply.json');
     const r = caseToGeoJSON(local, null);
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.error).toMatch(/local site grid.*RFC 7946/);
+    if (!r.ok) {
+      expect(r.error).toMatch(/local site grid.*RFC 7946/);
+      expect(r.placeOnMap).toBe(true);
+    }
+    expect(geojsonNeedsPlacement(local)).toBe(r.ok ? null : r.error);
+    expect(geojsonNeedsPlacement(c)).toBeNull();
+  });
+
+  it('capture zones of a local-grid case go by the same rule: refused until placed; placed, they are written (RFC 7946 check)', () => {
+    const local = demoCase('riverside-supply-well.json');
+    const s = screenCase(local);
+    const wells = { captures: s.captures, zones: mapCaptureZones(s.prepared, s.wells) };
+    const r = caseToGeoJSON(local, { ...exportResultsFor(local), wells });
+    expect(r.ok).toBe(false);
+    if (!r.ok) {
+      expect(r.placeOnMap).toBe(true);
+      expect(r.error).toMatch(/capture zones and travel-time marks/);
+    }
+    // placed on the basemap (the Settings button's conversion), the zones are in the GeoJSON
+    const g = convertFrame(local, 'geographic', [-2.731, 52.413]);
+    const sg = screenCase(g);
+    const placed = caseToGeoJSON(g, { ...exportResultsFor(g), wells: { captures: sg.captures, zones: mapCaptureZones(sg.prepared, sg.wells) } });
+    expect(placed.ok).toBe(true);
+    if (!placed.ok) return;
+    expect(getIssues(placed.text)).toEqual([]);
+    const roles = placed.geojson.features.map((f) => f.properties?.role);
+    expect(roles).toContain('capture-zone');
+    expect(roles.filter((x) => x === 'travel-time-mark').length).toBe(8);
   });
 
   it('an invalid case is refused with the field named, not written half-way', () => {

@@ -67,3 +67,35 @@ describe('convertFrame', () => {
     expect(c).toEqual(copy);
   });
 });
+
+describe('convertFrame carries the well field and the monitoring wells', () => {
+  it('the riverside demo placed on the basemap keeps its river line and its well field (capture, travel time, heads)', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { parseCaseFile } = await import('../../src/case/io');
+    const { screenCase } = await import('../../src/case/screen');
+    const { receptorHeads } = await import('../../src/case/wells');
+    const r = parseCaseFile(readFileSync('cases/riverside-supply-well.json', 'utf8'));
+    if (!r.ok) throw new Error(r.errors.join('; '));
+    const local = r.case;
+    local.monitoring.wells.push({ id: 'mw', name: 'MW', position: [200, 60], screenTop: { value: 2, unit: 'm' }, screenBottom: { value: 5, unit: 'm' } });
+    const g = convertFrame(local, 'geographic', [-2.731, 52.413]);
+    // the river's two ends and the monitoring well: the same ground distance from the release (geodesic, 0.1 %)
+    const b = g.site.boundaries![0];
+    const pairs: [Position, Position][] = [
+      [b.points[0], local.site.boundaries![0].points[0]],
+      [b.points[1], local.site.boundaries![0].points[1]],
+      [g.monitoring.wells.at(-1)!.position!, [200, 60]],
+    ];
+    for (const [geo, en] of pairs) {
+      const ref = geodesicInverse(g.site.source.position, geo);
+      expect(Math.abs(ref.s - Math.hypot(en[0], en[1])) / Math.hypot(en[0], en[1])).toBeLessThan(1e-3);
+    }
+    const a = screenCase(local);
+    const z = screenCase(g);
+    expect(z.captures[0].capturesSource).toBe(true);
+    expect(Math.abs(z.captures[0].travelTimeFromSource! - a.captures[0].travelTimeFromSource!) / a.captures[0].travelTimeFromSource!).toBeLessThan(1e-3);
+    const ha = receptorHeads(a.prepared, a.wells);
+    const hz = receptorHeads(z.prepared, z.wells);
+    ha.forEach((h, k) => expect(Math.abs(hz[k].confined - h.confined)).toBeLessThan(1e-3 * Math.max(1, Math.abs(h.confined))));
+  });
+});

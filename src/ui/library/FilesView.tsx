@@ -26,6 +26,7 @@ import { decodeText } from '../../case/text';
 import { SCREENING_CAUTION } from '../../case/caution';
 import { sheet } from './CaseMenu';
 import { settingsOpen } from '../view';
+import { geojsonNeedsPlacement } from '../../case/export-geojson';
 
 /** Control characters from a hostile file would render as garbage: show them as a visible mark. */
 function printable(s: string): string {
@@ -41,10 +42,11 @@ export function FilesView() {
   const c = currentCase.value;
   const r = currentResults.value;
   const share = canShareFiles();
+  const unplaced = geojsonNeedsPlacement(c) !== null;
 
   const out = (build: () => Built) => {
     const b = build();
-    if (!b.ok) return setMsg({ tone: 'error', lines: [b.error] });
+    if (!b.ok) return setMsg({ tone: 'error', lines: [b.error], placeOnMap: b.placeOnMap });
     downloadFile(b.file);
     setMsg({ tone: 'ok', lines: [`Saved ${b.file.name} to your downloads.`] });
   };
@@ -119,14 +121,13 @@ export function FilesView() {
           Case file (.json)
           <small>re-opens in Downgradient on any device</small>
         </button>
-        <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => {
-            out(() => geojsonFile(c, r));
-            // a case in local metres has no map coordinates: offer the way to give it some
-            if (c.site.frame !== 'geographic') setMsg((m) => m && { ...m, placeOnMap: true });
-          }}
-        >
+        {/* a case in local metres has no map coordinates: the refusal offers the way to give it some (placeOnMap) */}
+        <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => out(() => geojsonFile(c, r))}>
           Map layers (GeoJSON)
-          <small>source, receptors, monitoring wells, flow arrow, plume contours{r?.wells?.zones.length ? ', capture zones' : ''} for a GIS</small>
+          <small>
+            source, receptors, monitoring wells, flow arrow, plume contours{r?.wells?.zones.length ? ', capture zones and travel-time marks' : ''} for a GIS
+            {unplaced ? '; first place the case on the basemap' : ''}
+          </small>
         </button>
         <button type="button" class="dg-lib-btn" data-testid="export-table" onClick={() => out(() => receptorCsvFile(c, r))}>
           Receptor table (CSV)
@@ -145,7 +146,7 @@ export function FilesView() {
         {!!r?.wells?.zones.length && (
           <button type="button" class="dg-lib-btn" data-testid="export-capture-zones" onClick={() => out(() => captureZonesCsvFile(c, r))}>
             Capture zones (CSV)
-            <small>each pumping well's zone and 1–25 year travel-time marks, as map coordinates</small>
+            <small>each pumping well's zone and 1–25 year travel-time marks, as {unplaced ? "the site grid's east/north metres" : 'longitude and latitude'}</small>
           </button>
         )}
         {particleRunFor(c, true) && (

@@ -4,7 +4,7 @@
 import { resultUnit } from '../../case/unitSystem';
 import type { Case } from '../../case/schema';
 import { serializeCase } from '../../case/io';
-import { caseToGeoJSON } from '../../case/export-geojson';
+import { caseToGeoJSON, geojsonNeedsPlacement } from '../../case/export-geojson';
 import { breakthroughCsv, fileStem, receptorTableCsv } from '../../case/export-csv';
 import { observationsCsv } from '../../case/export-observations';
 import { uncertaintyCsv } from '../../case/export-uncertainty';
@@ -19,7 +19,8 @@ import { APP_VERSION } from './version';
 /** Lengths in the exported tables: the case's system (m or ft). */
 const fileLengthUnit = (c: Case): 'm' | 'ft' => (resultUnit(c, 'length') === 'ft' ? 'ft' : 'm');
 
-export type Built = { ok: true; file: OutFile } | { ok: false; error: string };
+/** `placeOnMap`: refused until the case is placed on the basemap (export-geojson.ts geojsonNeedsPlacement) */
+export type Built = { ok: true; file: OutFile } | { ok: false; error: string; placeOnMap?: boolean };
 
 /** Results belong to this case only if they were computed from its current inputs. */
 export function resultsFor(c: Case, r: Evaluation | null): Evaluation | null {
@@ -44,6 +45,9 @@ export function caseFile(c: Case): Built {
 }
 
 export function geojsonFile(c: Case, r: Evaluation | null): Built {
+  // a case on the site grid is refused first, whether or not its results are ready
+  const placement = geojsonNeedsPlacement(c);
+  if (placement) return { ok: false, error: placement, placeOnMap: true };
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `GeoJSON: ${NOT_READY}` };
   // the probability lines of a completed run of the case as it is now
