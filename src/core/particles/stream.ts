@@ -123,6 +123,16 @@ export class ParticleStream {
     }
   }
 
+  /**
+   * Two deviates into z[0] and z[1], in the order two normal() calls give them: the walk's step
+   * takes its pair this way because a double returned from a call the optimiser does not inline
+   * (the walk's loop is past V8's inlining budget) is boxed on the heap, one allocation per deviate.
+   */
+  normalPair(z: Float64Array): void {
+    z[0] = this.normal();
+    z[1] = this.normal();
+  }
+
   /** |X| beyond r given that it is (Marsaglia 1964) */
   private tail(): number {
     for (;;) {
