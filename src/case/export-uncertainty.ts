@@ -6,7 +6,8 @@
  * the caution. The same columns serve the command line's CSV (src/cli/screen.ts).
  */
 import { csvRecords, type Cell } from './export-csv';
-import { describeDistribution, type UncertaintyResult } from './uncertainty';
+import { describeInSystem, type UncertaintyResult } from './uncertainty';
+import type { Case } from './schema';
 
 export const UNCERTAINTY_COLUMNS: readonly string[] = [
   'mc_runs', 'mc_seed', 'p_exceed', 'p_exceed_se', 'p_exceed_low95', 'p_exceed_high95',
@@ -27,22 +28,22 @@ export function uncertaintyCells(u: UncertaintyResult, j: number): Cell[] {
   ];
 }
 
-/** Records describing the inputs: one per distribution (and the head-fit option). */
-export function distributionRecords(u: UncertaintyResult): Cell[][] {
+/** Records describing the inputs: one per distribution (and the head-fit option), in the units of the case's system. */
+export function distributionRecords(u: UncertaintyResult, units: Pick<Case, 'units'> = {}): Cell[][] {
   return [
-    ...u.inputs.map((i): Cell[] => ['uncertain input', i.label, describeDistribution(i.distribution, i.unit, i.input)]),
+    ...u.inputs.map((i): Cell[] => ['uncertain input', i.label, describeInSystem(units, i.input, i.distribution, i.unit)]),
     ...(u.headPlane ? [['uncertain input', 'flow direction and gradient', "from the head readings' plane fit (least-squares covariance)"] as Cell[]] : []),
   ];
 }
 
-/** The whole probabilistic result as one CSV file. */
-export function uncertaintyCsv(u: UncertaintyResult): string {
+/** The whole probabilistic result as one CSV file (distributions in the units of the case's system). */
+export function uncertaintyCsv(u: UncertaintyResult, units: Pick<Case, 'units'> = {}): string {
   const rows: Cell[][] = [
     ['run', 'realisations', 'seed', 'method', 'solution', 'refused'],
     ['Monte Carlo', u.runs, u.seed, 'Latin hypercube (McKay, Beckman & Conover 1979), Philox4x32-10 streams', u.solution, u.refusedCount],
     [],
     ['record', 'input', 'distribution'],
-    ...distributionRecords(u),
+    ...distributionRecords(u, units),
     [],
     ['receptor', ...UNCERTAINTY_COLUMNS],
     ...u.receptors.map((r, j) => [r.name || r.id, ...uncertaintyCells(u, j)]),

@@ -8,13 +8,16 @@
  * - particle figures per receptor (method = particles, concentration at the horizon, its standard
  *   error, first arrival at the limit, estimator, particle count and seed), as CSV columns and as
  *   GeoJSON receptor properties under the same names, and the particle curves as CSV.
- * Every figure says which method produced it. Internal units (m, d, mg/L), named in each key.
+ * Every figure says which method produced it. Lengths and pumping rates in the case's system (m and
+ * m³/d, or ft and US gal/min: unitSystem.ts), times in d, concentrations in mg/L, named in each key.
  */
 import type { Feature, Position as GeoPosition } from 'geojson';
 import type { Case, Position } from './schema';
 import type { ExportParticles, ExportResults, ExportWells } from './export-results';
 import { withCaution, type Cell } from './export-csv';
-import { fileNumber, roundSig } from './numbers';
+import { fileNumber } from './numbers';
+import { resultUnit } from './unitSystem';
+import { UNITS, fromInternal } from '../core/units';
 import { closedCounterClockwise } from '../geo/rings';
 
 const YEAR_D = 365.25;
@@ -27,6 +30,16 @@ export const PARTICLE_METHOD = 'particles: random walk in the well field (Kinzel
 
 /** how far each zone is traced, years of water travel (4 × the longest mark; case/wells.ts mapCaptureZones) */
 const TRACED_YEARS = 100;
+
+/**
+ * A unit of the case's system as an export's key writes it (ASCII: 'm', 'ft', 'm3/d', 'gal/min')
+ * and the value converted to it: pumping rates in m³/d or US gal/min, lengths in m or ft.
+ */
+function fileQuantity(c: Pick<Case, 'units'>, dimension: 'length' | 'flowRate'): { name: string; value: (internal: number) => number } {
+  const u = resultUnit(c, dimension);
+  const name = UNITS[u].label.replace('³', '3');
+  return { name, value: (v) => fileNumber(v, dimension === 'length' ? 'length' : 'ratio', fromInternal(v, u)) };
+}
 
 function wellName(c: Case, id: string): string {
   const r = c.site.receptors.find((x) => x.id === id);
@@ -81,10 +94,12 @@ export function particleCurvesCsv(r: Pick<ExportResults, 'receptors' | 'caution'
 /**
  * Capture zones as a table of vertices: per pumping well its zone's outline and each travel-time
  * mark's lines (water, contaminant), in the case's map coordinates (east/north metres of a local
- * case, longitude/latitude of a geographic one).
+ * case (or feet in a US customary case), longitude/latitude of a geographic one).
  */
 export function captureZonesCsv(c: Case, w: ExportWells, caution: string): string {
   const geographic = c.site.frame === 'geographic';
+  const rate = fileQuantity(c, 'flowRate');
+  const len = fileQuantity(c, 'length');
   const header: Cell[] = [
     'pumping well',
     'feature',
@@ -93,18 +108,18 @@ export function captureZonesCsv(c: Case, w: ExportWells, caution: string): strin
     'travel time (d)',
     'part',
     'vertex',
-    geographic ? 'longitude (degrees)' : 'east (m)',
-    geographic ? 'latitude (degrees)' : 'north (m)',
-    'pumping rate (m3/d)',
+    geographic ? 'longitude (degrees)' : `east (${len.name})`,
+    geographic ? 'latitude (degrees)' : `north (${len.name})`,
+    `pumping rate (${rate.name})`,
     'release in this zone',
     'method',
   ];
-  const coord = (v: number) => (geographic ? Math.round(v * 1e7) / 1e7 : fileNumber(v, 'length'));
+  const coord = (v: number) => (geographic ? Math.round(v * 1e7) / 1e7 : len.value(v));
   const rows: Cell[][] = [];
   for (const z of w.zones) {
     const name = wellName(c, z.receptorId);
     const cap = w.captures.find((x) => x.receptorId === z.receptorId);
-    const tail: Cell[] = [cap ? roundSig(cap.rate, 10) : null, cap ? (cap.capturesSource ? 'yes' : 'no') : null, WELL_FIELD_METHOD];
+    const tail: Cell[] = [cap ? rate.value(cap.rate) : null, cap ? (cap.capturesSource ? 'yes' : 'no') : null, WELL_FIELD_METHOD];
     const vertices = (feature: string, travelling: string | null, years: number | null, parts: readonly (readonly Position[])[]) =>
       parts.forEach((part, i) =>
         part.forEach((p, k) => rows.push([name, feature, travelling, years, years === null ? null : time(years * YEAR_D), i + 1, k + 1, coord(p[0]), coord(p[1]), ...tail])),
@@ -125,6 +140,7 @@ export function captureZonesCsv(c: Case, w: ExportWells, caution: string): strin
  */
 export function captureZoneFeatures(c: Case, w: ExportWells, round: (p: readonly number[]) => GeoPosition): Feature[] {
   const out: Feature[] = [];
+  const rate = fileQuantity(c, 'flowRate');
   for (const z of w.zones) {
     const name = wellName(c, z.receptorId);
     const cap = w.captures.find((x) => x.receptorId === z.receptorId);
@@ -137,7 +153,7 @@ export function captureZoneFeatures(c: Case, w: ExportWells, round: (p: readonly
           role: 'capture-zone',
           name: `Capture zone of ${name}`,
           well: name,
-          'pumping rate (m3/d)': cap ? roundSig(cap.rate, 10) : null,
+          [`pumping rate (${rate.name})`]: cap ? rate.value(cap.rate) : null,
           'release in this zone': cap ? cap.capturesSource : null,
           'share of the source width (%)': cap ? fileNumber(100 * cap.sourceShare, 'ratio') : null,
           'contaminant travel time from the release (d)': cap ? time(cap.travelTimeFromSource) : null,

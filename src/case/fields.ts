@@ -78,6 +78,7 @@ export const CASE_FIELDS: Readonly<Record<string, FieldInfo>> = {
   'site.receptors[].screenTop': f('Screen top below water table', 'length', NON_NEGATIVE),
   'site.receptors[].screenBottom': f('Screen bottom', 'length', NON_NEGATIVE),
   'site.receptors[].pumping': f('Pumps', null),
+  // shown in m³/d (SI) or US gallons per minute (US customary: the unit US well records give; unitSystem.ts)
   'site.receptors[].pumpingRate': f('Pumping rate', 'flowRate', POSITIVE),
   'site.boundaries': f('Boundary lines', null),
   'site.boundaries[]': f('Boundary line', null),

@@ -39,6 +39,13 @@ export const NUMBER_RULES: Readonly<Record<NumberKind, Rule>> = {
   angle: { zeroBelow: 1e-9, screenDigits: 4, fileDigits: 10 },
 };
 
+/**
+ * Significant digits of an input value shown in a unit other than the one it was typed in (a K
+ * typed as 40 m/d reads 131.2 ft/d in a US customary case, not 131.234): enough to read and to
+ * retype, as the other screen figures. The stored value keeps every digit as typed.
+ */
+export const CONVERTED_DIGITS = 4;
+
 /** v rounded to `digits` significant digits (a finite number stays finite; -0 becomes 0). */
 export function roundSig(v: number, digits: number): number {
   if (!Number.isFinite(v) || v === 0) return v === 0 ? 0 : v;

@@ -34,6 +34,7 @@ import {
   type Warning,
 } from '../core';
 import type { CaseWells } from './wells';
+import { resultText } from './unitSystem';
 
 export const OUTPUT_TIMES = 100;
 export const DEFAULT_PARTICLES = 20_000;
@@ -96,7 +97,7 @@ export function caseWalk(c: Case, p: PreparedCase, w: CaseWells, opts: ParticleR
     if (w.thickness === null)
       warnings.push({
         code: 'particles-source-thickness',
-        message: `The saturated thickness is not given, so the particles mix the solute over the source thickness (${m.thickness} m); give the saturated thickness for a depth average over the aquifer.`,
+        message: `The saturated thickness is not given, so the particles mix the solute over the source thickness (${resultText(c, m.thickness, 'length', 'length', 3)}); give the saturated thickness for a depth average over the aquifer.`,
         field: 'aquifer.saturatedThickness',
       });
     field = prepareFlow({ darcyFlux: p.derived.K * p.derived.gradient, porosity: p.inputs.effectivePorosity, thickness: B, wells: [] });
@@ -131,7 +132,8 @@ export function caseWalk(c: Case, p: PreparedCase, w: CaseWells, opts: ParticleR
 }
 
 /** Figures per receptor from a finished (or merged) tally. */
-export function particleFigures(p: PreparedCase, walk: PreparedWalk, tally: WalkTally, pumpingReceptors: Map<number, number>): ParticleFigures[] {
+/** `units`: the case's system for the lengths in the estimator's words (m, or ft). */
+export function particleFigures(p: PreparedCase, walk: PreparedWalk, tally: WalkTally, pumpingReceptors: Map<number, number>, units: Pick<Case, 'units'> = {}): ParticleFigures[] {
   const obs = observerConcentrations(walk, tally);
   const wells = wellConcentrations(walk, tally);
   const times = Array.from(walk.times);
@@ -151,7 +153,7 @@ export function particleFigures(p: PreparedCase, walk: PreparedWalk, tally: Walk
       estimator:
         sink !== undefined
           ? `water pumped: captured particle mass per interval / pumping rate (intervals of ${Number((times[0]).toPrecision(3))} d)`
-          : `depth-averaged, particle mass within ${Number(h.toPrecision(2))} m of the receptor (disk estimator)`,
+          : `depth-averaged, particle mass within ${resultText(units, h, 'length', 'length', 2)} of the receptor (disk estimator)`,
       pumped: sink !== undefined,
       times,
       c,
@@ -170,7 +172,7 @@ export function runCaseParticles(c: Case, p: PreparedCase, w: CaseWells, opts: P
   return {
     particles: walk.input.particles,
     seed: walk.input.seed,
-    receptors: particleFigures(p, walk, tally, pumpingReceptors),
+    receptors: particleFigures(p, walk, tally, pumpingReceptors, c),
     mass: {
       released: tally.released,
       captured: tally.captured,

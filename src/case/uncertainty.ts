@@ -28,7 +28,7 @@ import { UNCERTAIN_INPUTS } from './schema';
 import { prepareCase, type PreparedCase, type PreparedReceptor } from './prepare';
 import { modelFor, type PhysicalInputs } from './physics';
 import { footprintPlaneFor, prepareFrame, receptorReach, type SourcePlane } from './geometry';
-import { unitDef, type Dimension } from '../core/units';
+import { convert, unitDef, type Dimension } from '../core/units';
 import type { ScreeningModel } from '../core/model';
 import { ValidationError, breakthroughCurve, screenAverage, screenReceptorsInto, type Receptor } from '../core';
 import { toInternal } from '../core/units';
@@ -54,6 +54,8 @@ import { SCREENING_CAUTION } from './caution';
 import { countExceedance, exceedanceContours, exceedanceGrid, exceedanceScratch, type ExceedanceContours, type ExceedanceGrid, type TurnedFrame } from './exceedanceMap';
 import { normalizeDeg, sinCosDeg } from '../geo/angles';
 import { fieldInfo } from './fields';
+import { fieldUnit } from './unitSystem';
+import { CONVERTED_DIGITS, roundSig } from './numbers';
 
 export interface InputDefinition {
   /** as the screen labels the field (src/case/fields.ts, the one list of labels) */
@@ -141,6 +143,52 @@ export function defaultUnit(input: UncertainInput, c: Case): string | undefined 
     default:
       return undefined;
   }
+}
+
+/**
+ * The unit a distribution is shown and edited in, by the rule of the field it replaces
+ * (unitSystem.ts fieldUnit): that field's override, else the case's system (ft/d in a US customary
+ * case), else the unit it is stored in. `stored` is the distribution's own unit (or defaultUnit).
+ */
+export function shownDistributionUnit(c: Pick<Case, 'units'>, input: UncertainInput, stored: string | undefined): string | undefined {
+  return stored === undefined ? undefined : fieldUnit(c, INPUT_DEFINITIONS[input].field, { value: 0, unit: stored });
+}
+
+/** The parameters of a distribution that carry its unit (gsd and percentile are pure numbers). */
+const UNIT_KEYS = ['low', 'high', 'mode', 'mean', 'sd', 'median'] as const;
+
+/**
+ * A distribution stated in `unit` instead of its own (`from`): each parameter and truncation bound
+ * converted and rounded to CONVERTED_DIGITS significant digits, the way a converted input field
+ * shows it. The same distribution when no conversion is needed, so a value typed in the unit shown
+ * stays exactly as typed. Editing works on what this returns: a parameter typed into a converted
+ * distribution stores the whole distribution in the unit shown, the typed value exact and the
+ * others as they were shown; the stored unit changes only then, never by switching the system.
+ */
+export function distributionIn(d: UncertainValue, from: string | undefined, unit: string | undefined): UncertainValue {
+  if (!from || !unit || from === unit) return d;
+  const conv = (v: number) => roundSig(convert(v, from, unit), CONVERTED_DIGITS);
+  const out: Record<string, unknown> = { ...d, unit };
+  for (const k of UNIT_KEYS) if (typeof out[k] === 'number') out[k] = conv(out[k] as number);
+  if (d.truncate) out.truncate = Object.fromEntries(Object.entries(d.truncate).map(([k, v]) => [k, typeof v === 'number' ? conv(v) : v]));
+  return out as UncertainValue;
+}
+
+/** A case's distribution of `input` as the screen shows it: in the unit of shownDistributionUnit. */
+export function shownDistribution(c: Case, input: UncertainInput, d: UncertainValue): UncertainValue {
+  const from = d.unit ?? defaultUnit(input, c);
+  return distributionIn(d, from, shownDistributionUnit(c, input, from));
+}
+
+/** A distribution stated in `stored` in words, in the unit the case's system shows it (the report, the CSV export). */
+export function describeInSystem(c: Pick<Case, 'units'>, input: UncertainInput, d: UncertainValue, stored: string | undefined): string {
+  const unit = shownDistributionUnit(c, input, stored);
+  return describeDistribution(distributionIn(d, stored, unit), unit, input);
+}
+
+/** A case's distribution in words, in the unit the screen shows it (the panel, the report). */
+export function describeShown(c: Case, input: UncertainInput, d: UncertainValue): string {
+  return describeInSystem(c, input, d, d.unit ?? defaultUnit(input, c));
 }
 
 export interface PlannedInput {

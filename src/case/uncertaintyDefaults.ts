@@ -16,6 +16,7 @@
 import type { Case, UncertainInput, UncertainValue } from './schema';
 import { contaminantPreset, FIELD_RANGES, MATERIAL_PRESETS, provenanceLabel, type SourcedRange } from './presets';
 import { toInternal } from '../core/units';
+import { shownDistribution } from './uncertainty';
 
 const ASSUMED = 'an assumption offered by Downgradient as a starting point, not a published value: replace it with your site’s own';
 
@@ -26,8 +27,18 @@ function cited(r: SourcedRange, what: string): string {
 
 const round = (v: number) => Number(v.toPrecision(3));
 
-/** A starting distribution for `input` in case `c`, in the field's unit, its source in the note (null: the case has no value to start from). */
+/**
+ * A starting distribution for `input` in case `c`, its source in the note (null: the case has no
+ * value to start from), in the unit the screen shows the input in (a published K range in ft/d in a
+ * US customary case, converted as a converted field is shown: uncertainty.ts shownDistribution).
+ */
 export function defaultDistribution(c: Case, input: UncertainInput): UncertainValue | null {
+  const d = startingDistribution(c, input);
+  return d && shownDistribution(c, input, d);
+}
+
+/** The starting distribution in the unit of its source (a published range, or the case's field). */
+function startingDistribution(c: Case, input: UncertainInput): UncertainValue | null {
   const a = c.aquifer;
   switch (input) {
     case 'hydraulicConductivity': {

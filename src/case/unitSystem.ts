@@ -11,8 +11,9 @@
  * Appendix B (foot = 0.3048 m exactly; US gallon = 3.785411784 L exactly), in src/core/units.ts.
  */
 import type { Case, Quantity } from './schema';
-import { UNITS, convert, type Dimension } from '../core/units';
+import { UNITS, convert, fromInternal, type Dimension } from '../core/units';
 import { INTERNAL_UNIT } from './fields';
+import { screenNumber, type NumberKind } from './numbers';
 
 export type UnitSystem = 'SI' | 'US';
 
@@ -31,6 +32,7 @@ export const SYSTEM_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Dimension
     partition: 'L/kg',
     diffusion: 'ft2/d',
     rate: '1/d',
+    // well rates in US gallons per minute, as US well records and pump curves give them
     flowRate: 'gpm',
     dimensionless: '-',
   },
@@ -44,6 +46,15 @@ export function unitSystem(c: Pick<Case, 'units'>): UnitSystem {
 /** The unit results of a dimension are shown in (lengths, velocities, …). */
 export function resultUnit(c: Pick<Case, 'units'>, dimension: Dimension): string {
   return SYSTEM_UNITS[unitSystem(c)][dimension];
+}
+
+/**
+ * A result (internal units) as the screen writes it in the case's system: "131 ft", "91.7 gal/min".
+ * `kind` sets zero within round-off and the significant digits (numbers.ts).
+ */
+export function resultText(c: Pick<Case, 'units'>, internal: number, dimension: Dimension, kind: NumberKind, digits?: number): string {
+  const u = resultUnit(c, dimension);
+  return `${screenNumber(internal, kind, fromInternal(internal, u), digits)} ${UNITS[u].label}`;
 }
 
 /** Units that belong to neither system's choice (time, concentration units) count as the system's own. */

@@ -30,6 +30,7 @@ import {
   type Warning,
 } from '../core';
 import { CaseFieldError, atCaseField, detailOf, readQuantity, ruleFor } from './checked';
+import { resultText } from './unitSystem';
 
 export const SATURATED_THICKNESS_RULE = ruleFor('aquifer.saturatedThickness');
 export const SATURATED_THICKNESS_HELP =
@@ -100,11 +101,12 @@ export function prepareCaseWells(c: Case, p: PreparedCase): CaseWells {
   } catch (e) {
     throw e instanceof ValidationError ? restate(e, receptorOf) : e;
   }
-  for (const w of flowWarnings(field, ' m')) warnings.push({ ...w, field: caseField(w.field, receptorOf) });
+  const length = (m: number) => resultText(c, m, 'length', 'length', 3);
+  for (const w of flowWarnings(field, length)) warnings.push({ ...w, field: caseField(w.field, receptorOf) });
   if (thickness < p.model.thickness)
     warnings.push({
       code: 'source-thicker-than-aquifer',
-      message: `The source thickness (${p.model.thickness} m) exceeds the saturated thickness (${thickness} m); the particle walk releases the source over the saturated thickness.`,
+      message: `The source thickness (${length(p.model.thickness)}) exceeds the saturated thickness (${length(thickness)}); the particle walk releases the source over the saturated thickness.`,
       field: 'aquifer.saturatedThickness',
     });
   return { field, thickness, receptorOf, boundaries, warnings };
@@ -207,7 +209,9 @@ export function receptorHeads(p: PreparedCase, w: CaseWells): ReceptorHead[] {
 }
 
 /** The receptors where the Dupuit thickness departs from B by more than a fifth, or is dewatered, in words. */
-export function headWarnings(p: PreparedCase, w: CaseWells, heads: readonly ReceptorHead[]): Warning[] {
+/** Lengths in the words are in the case's system (`units`: m, or ft in a US customary case). */
+export function headWarnings(p: PreparedCase, w: CaseWells, heads: readonly ReceptorHead[], units: Pick<Case, 'units'> = {}): Warning[] {
+  const length = (m: number) => resultText(units, m, 'length', 'length', 3);
   const B = w.thickness;
   if (B === null) return [];
   return heads.flatMap((h) => {
@@ -218,7 +222,7 @@ export function headWarnings(p: PreparedCase, w: CaseWells, heads: readonly Rece
       return [
         {
           code: 'thickness-changes',
-          message: `At ${name} the saturated thickness of an unconfined aquifer would be ${Number(h.unconfined.toPrecision(3))} m against ${B} m at the release (Dupuit–Forchheimer): the capture zones and particles take it as constant, which is doubtful there.`,
+          message: `At ${name} the saturated thickness of an unconfined aquifer would be ${length(h.unconfined)} against ${length(B)} at the release (Dupuit–Forchheimer): the capture zones and particles take it as constant, which is doubtful there.`,
         },
       ];
     return [];

@@ -35,7 +35,7 @@ import { serializeCase } from '../case/io';
 import { writeFileSync } from 'node:fs';
 import { SOLUTION_LABEL } from '../case/export-results';
 import { UNCERTAINTY_COLUMNS, distributionRecords, uncertaintyCells } from '../case/export-uncertainty';
-import { describeDistribution, driverSentence, runUncertainty, type Percentiles, type UncertaintyResult } from '../case/uncertainty';
+import { describeDistribution, describeInSystem, driverSentence, runUncertainty, type Percentiles, type UncertaintyResult } from '../case/uncertainty';
 
 export const EXIT = { ok: 0, unexpected: 1, usage: 2, unreadable: 3, invalidCase: 4, invalidValue: 5 } as const;
 type Format = 'table' | 'json' | 'csv';
@@ -219,15 +219,16 @@ function wrap(text: string, width = 96, indent = ''): string[] {
 const pctConc = (x: Percentiles, limit: number) => [x.p5, x.p50, x.p95].map((v) => (v === null ? '–' : conc(v, limit))).join(' / ');
 const pctPercent = (p: number) => `${sig(100 * p, 2)} %`;
 
-function uncertaintyTable(u: UncertaintyResult, limit: number): string[] {
+function uncertaintyTable(c: Case, u: UncertaintyResult, limit: number): string[] {
+  const un = unitsOfCase(c);
   const L: string[] = [];
   L.push(`Probabilistic screening: ${u.runs} realisations, seed ${u.seed} (Latin hypercube; ${SOLUTION_LABEL[u.solution]})`);
   L.push('  Uncertain inputs (sampled independently):');
-  for (const i of u.inputs) L.push(...wrap(`- ${i.label}: ${describeDistribution(i.distribution, i.unit, i.input)}${i.distribution.note ? ` (${i.distribution.note})` : ''}`, 96, '    ').map((l, k) => (k ? '  ' + l : l)));
+  for (const i of u.inputs) L.push(...wrap(`- ${i.label}: ${describeInSystem(c, i.input, i.distribution, i.unit)}${i.distribution.note ? ` (${i.distribution.note})` : ''}`, 96, '    ').map((l, k) => (k ? '  ' + l : l)));
   if (u.headPlane)
     L.push(
       ...wrap(
-        `- flow direction and gradient: from the least-squares covariance of the plane fitted to the head readings (residual SD ${sig(u.headPlane.s)} m, ${u.headPlane.dof} degree${u.headPlane.dof === 1 ? '' : 's'} of freedom; a normal approximation that understates the spread with few readings)`,
+        `- flow direction and gradient: from the least-squares covariance of the plane fitted to the head readings (residual SD ${un.text(u.headPlane.s, 'length')} ${un.label('length')}, ${u.headPlane.dof} degree${u.headPlane.dof === 1 ? '' : 's'} of freedom; a normal approximation that understates the spread with few readings)`,
         96,
         '    ',
       ).map((l, k) => (k ? '  ' + l : l)),
@@ -369,7 +370,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   }
   if (u) {
     L.push('');
-    L.push(...uncertaintyTable(u, p.limit));
+    L.push(...uncertaintyTable(c, u, p.limit));
   }
   const obs = observationSummary(c, p);
   if (obs) {
@@ -531,7 +532,7 @@ function formatCsv(c: Case, s: ScreeningResult, u: UncertaintyResult | null, pt:
     ];
   });
   const inputs: Cell[][] = u
-    ? [...distributionRecords(u).map((r) => [...r, ...Array(head.length - 3).fill('')]), ['probabilistic caution', u.caution, ...Array(head.length - 2).fill('')]]
+    ? [...distributionRecords(u, c).map((r) => [...r, ...Array(head.length - 3).fill('')]), ['probabilistic caution', u.caution, ...Array(head.length - 2).fill('')]]
     : [];
   const caution: Cell[] = ['screening caution', s.caution, ...Array(head.length - 2).fill('')];
   const obs = observationSummary(c, s.prepared);

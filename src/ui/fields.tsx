@@ -10,7 +10,7 @@ import { UNITS, unitsOf, type Dimension } from '../core/units';
 import { shownQuantity, withFieldUnit } from '../case/unitSystem';
 import type { Quantity } from '../case/schema';
 import { fieldIssue, fieldWarnings } from './validity';
-import { formatSig } from '../case/numbers';
+import { CONVERTED_DIGITS, formatSig } from '../case/numbers';
 import { currentCase, historyEpoch, updateCase } from './state';
 import { fieldInfo } from '../case/fields';
 
@@ -99,8 +99,10 @@ function NumberInput(props: {
   localError: string | null;
   setLocalError: (m: string | null) => void;
   onNumber: (v: number) => void;
+  /** significant digits shown: 6 for a value as typed, CONVERTED_DIGITS for one converted to another unit */
+  digits?: number;
 }) {
-  const d = useDraft(props.value, (v) => fmtNum(v, 6));
+  const d = useDraft(props.value, (v) => fmtNum(v, props.digits ?? 6));
   return (
     <input
       id={props.id}
@@ -150,6 +152,7 @@ export function QuantityField(
         label={props.label}
         field={props.field}
         value={value.value}
+        digits={value.unit === props.value.unit ? undefined : CONVERTED_DIGITS}
         kept={`${fmtNum(value.value)} ${unitLabel(value.unit)}`}
         localError={localError}
         setLocalError={setLocalError}

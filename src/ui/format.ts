@@ -7,7 +7,7 @@
 import { fromInternal, toInternal, UNITS } from '../core/units';
 import { currentCase } from './state';
 import { formatDuration, screenNumber, timeUnitFor, type TimeUnit } from '../case/numbers';
-import { resultUnit, shownQuantity } from '../case/unitSystem';
+import { resultText, resultUnit, shownQuantity } from '../case/unitSystem';
 import type { Quantity } from '../case/schema';
 
 export function lengthUnit(): string {
@@ -16,8 +16,12 @@ export function lengthUnit(): string {
 
 /** A seepage velocity (internal m/d) in the case's system. */
 export function fmtVelocity(mPerDay: number, digits?: number): string {
-  const u = resultUnit(currentCase.value, 'velocity');
-  return `${screenNumber(mPerDay, 'velocity', fromInternal(mPerDay, u), digits)} ${UNITS[u].label}`;
+  return resultText(currentCase.value, mPerDay, 'velocity', 'velocity', digits);
+}
+
+/** A pumping rate (internal m³/d) in the case's system: m³/d, or US gal/min. */
+export function fmtRate(m3PerDay: number, digits?: number): string {
+  return resultText(currentCase.value, m3PerDay, 'flowRate', 'ratio', digits);
 }
 
 /** A stored input quantity as its field shows it (the case's system, or the field's own unit). */
@@ -31,8 +35,7 @@ export function concUnit(): string {
 }
 
 export function fmtLength(m: number, digits?: number): string {
-  const u = lengthUnit();
-  return `${screenNumber(m, 'length', fromInternal(m, u), digits)} ${UNITS[u].label}`;
+  return resultText(currentCase.value, m, 'length', 'length', digits);
 }
 
 export function fmtConc(mgL: number, digits?: number): string {

@@ -58,7 +58,7 @@ export function startParticles(c: Case, particles: number, seed: number): void {
   const publish = (extra: Partial<ParticleRunState>) => {
     const done = total.particlesDone;
     const scaled = done > 0 ? scaledTally(total, N / done) : null;
-    const figures = scaled ? particleFigures(prepared, walk, scaled, pumpingReceptors) : null;
+    const figures = scaled ? particleFigures(prepared, walk, scaled, pumpingReceptors, c) : null;
     particleRun.value = {
       ...particleRun.peek(),
       done,

@@ -5,9 +5,9 @@
  */
 import type { Case } from '../case/schema';
 import { UNCERTAIN_INPUTS } from '../case/schema';
-import { describeDistribution, INPUT_DEFINITIONS, type UncertaintyResult } from '../case/uncertainty';
+import { describeShown, INPUT_DEFINITIONS, type UncertaintyResult } from '../case/uncertainty';
 
-/** The uncertain inputs of a case with their distributions and notes; the head-fit option last. */
+/** The uncertain inputs of a case with their distributions (in the case's units) and notes; the head-fit option last. */
 export function UncertainInputsList({ c }: { c: Case }) {
   const inputs = UNCERTAIN_INPUTS.filter((k) => c.uncertainty.inputs[k]);
   return (
@@ -16,7 +16,7 @@ export function UncertainInputsList({ c }: { c: Case }) {
         const d = c.uncertainty.inputs[k]!;
         return (
           <li key={k}>
-            <strong>{INPUT_DEFINITIONS[k].label}</strong>: {describeDistribution(d, d.unit ?? undefined, k)}
+            <strong>{INPUT_DEFINITIONS[k].label}</strong>: {describeShown(c, k, d)}
             {d.note ? <span class="dg-note"> — {d.note}</span> : null}
           </li>
         );

@@ -91,7 +91,7 @@ function wellsLayer(s: ReturnType<typeof screenCase>, c: Case): WellsLayer | nul
     zoneError = e instanceof Error ? e.message : String(e);
   }
   const heads = receptorHeads(s.prepared, w);
-  const headWarnings = headWarningsOf(s.prepared, w, heads).map((x) => x.message);
+  const headWarnings = headWarningsOf(s.prepared, w, heads, c).map((x) => x.message);
   const t0 = now();
   const headContours = mapHeadContours(s.prepared, w, unitSystem(c));
   const headContoursMs = now() - t0;

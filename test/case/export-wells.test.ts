@@ -23,6 +23,7 @@ import { runCaseParticles } from '../../src/case/particles';
 import type { Case } from '../../src/case/schema';
 import type { ExportParticles, ExportResults } from '../../src/case/export-results';
 import { demoCase, exportResultsFor, readRfc4180 } from './export-fixture';
+import { withUnitSystem } from '../../src/case/unitSystem';
 
 function pumpingFuelCase(): Case {
   const c = structuredClone(demoCase('fuel-release-farm-well.json'));
@@ -151,6 +152,32 @@ describe('CSV of capture zones and particle figures', () => {
     const rows = readRfc4180(captureZonesCsv(c, results.wells!, results.caution));
     expect(rows[0].slice(7, 9)).toEqual(['east (m)', 'north (m)']);
     expect(rows.filter((r) => r[0] === 'Town supply well').length).toBeGreaterThan(50);
+  });
+
+  it('a US customary case writes east and north in ft and the pumping rate in US gal/min (NIST SP 811: ft = 0.3048 m, gal = 3.785411784 L)', () => {
+    const si = demoCase('riverside-supply-well.json');
+    const c = { ...si, units: withUnitSystem(si, 'US') };
+    const { results } = withWellsAndParticles(c);
+    const us = readRfc4180(captureZonesCsv(c, results.wells!, results.caution));
+    const m = readRfc4180(captureZonesCsv(si, results.wells!, results.caution));
+    expect(us[0].slice(7, 10)).toEqual(['east (ft)', 'north (ft)', 'pumping rate (gal/min)']);
+    expect(m[0][9]).toBe('pumping rate (m3/d)');
+    // the demo's 800 m³/d = 800 000 L/d / (3.785411784 L/gal × 1440 min/d) = 146.764… gal/min
+    expectRel(Number(us[1][9]), 800_000 / (3.785411784 * 1440));
+    expectRel(Number(us[1][7]), Number(m[1][7]) / 0.3048);
+    expectRel(Number(us[1][8]), Number(m[1][8]) / 0.3048);
+  });
+
+  it('the zone in a US customary case names its rate in gal/min', () => {
+    const c = pumpingFuelCase();
+    const { results } = withWellsAndParticles(c);
+    const u = { ...c, units: withUnitSystem(c, 'US') };
+    const out = caseToGeoJSON(u, results, { appVersion: '0.1.0', exported: new Date('2026-12-03T00:00:00Z') });
+    if (!out.ok) throw new Error(out.error);
+    const z = out.geojson.features.find((f) => f.properties?.role === 'capture-zone')!;
+    // 60 m³/d = 60 000 L/d / (3.785411784 L/gal × 1440 min/d) = 11.007… gal/min
+    expectRel(z.properties!['pumping rate (gal/min)'] as number, 60_000 / (3.785411784 * 1440));
+    expect(z.properties!['pumping rate (m3/d)']).toBeUndefined();
   });
 
   it('particle figures: one record per receptor, method, concentration ± SE, arrival, count and seed; curves per output time', () => {

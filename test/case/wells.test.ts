@@ -226,4 +226,18 @@ describe('water levels in the well field (confined and Dupuit forms)', () => {
     expect(Number.isFinite(heads[0].confined)).toBe(true);
     expect(headWarnings(s.prepared, s.wells, heads).map((w) => w.message).join(' ')).toMatch(/At Town supply well the pumping would dewater an unconfined aquifer/);
   });
+
+  it('a US customary case words the well field’s lengths in ft (NIST SP 811: ft = 0.3048 m)', () => {
+    const c = structuredClone(demo());
+    c.site.receptors[0].pumpingRate = { value: 2000, unit: 'm3/d' };
+    c.units = { system: 'US', fields: {} };
+    const s = screenCase(c);
+    const heads = receptorHeads(s.prepared, s.wells);
+    // B = 15 m at the release = 49.21 ft, to 3 significant digits 49.2 ft
+    const words = headWarnings(s.prepared, s.wells, heads, c).map((w) => w.message).join(' ');
+    expect(words).toMatch(/would be [\d.]+ ft against 49\.2 ft at the release/);
+    expect(words).not.toMatch(/\d m\b/);
+    // the well 120 m from the river: 393.7 ft, written 394 ft
+    expect(s.wells.warnings.map((w) => w.message).join(' ')).toMatch(/is 394 ft from boundary line 1/);
+  });
 });

@@ -379,7 +379,8 @@ export function drawdown(f: FlowField, conductivity: number, x: number, y: numbe
  *   along it (more than 20° off): uniform regional flow cannot meet that boundary condition, so the
  *   picture is exact for the wells' part only.
  */
-export function flowWarnings(f: FlowField, unit = ''): Warning[] {
+/** `length` writes a distance (m) with its unit; default: the number of metres, 3 significant digits, no unit. */
+export function flowWarnings(f: FlowField, length: (m: number) => string = (m) => String(Number(m.toPrecision(3)))): Warning[] {
   const out: Warning[] = [];
   const stag = (w: FlowWell) => (f.q0 > 0 ? Math.abs(w.rate) / (2 * Math.PI * f.q0) : Infinity);
   const name = (j: number) => (f.wells[j].label ? `Well ${j + 1} (${f.wells[j].label})` : `Well ${j + 1}`);
@@ -391,7 +392,7 @@ export function flowWarnings(f: FlowField, unit = ''): Warning[] {
       if (d < near)
         out.push({
           code: 'well-near-boundary',
-          message: `${name(j)} is ${Number(d.toPrecision(3))}${unit} from boundary line ${i + 1} (${l.kind === 'constant-head' ? 'constant head' : 'impermeable'}): the boundary, idealised as a straight fully penetrating line, shapes its capture zone; a real stream bed or barrier may behave differently${l.kind === 'no-flow' ? ', and the steady state takes long to reach' : ''}.`,
+          message: `${name(j)} is ${length(d)} from boundary line ${i + 1} (${l.kind === 'constant-head' ? 'constant head' : 'impermeable'}): the boundary, idealised as a straight fully penetrating line, shapes its capture zone; a real stream bed or barrier may behave differently${l.kind === 'no-flow' ? ', and the steady state takes long to reach' : ''}.`,
           field: `wells[${j}]`,
         });
     });
@@ -405,7 +406,7 @@ export function flowWarnings(f: FlowField, unit = ''): Warning[] {
       if (d < Math.max(stag(A), stag(B), 5))
         out.push({
           code: 'wells-close',
-          message: `${name(a)} and ${name(b)} are ${Number(d.toPrecision(3))}${unit} apart: their drawdown cones and capture zones merge, and the steady picture holds only after both have pumped for long.`,
+          message: `${name(a)} and ${name(b)} are ${length(d)} apart: their drawdown cones and capture zones merge, and the steady picture holds only after both have pumped for long.`,
           field: `wells[${b}]`,
         });
     }

@@ -9,7 +9,7 @@ import type { Case } from '../../case/schema';
 import type { Evaluation } from '../results';
 import { WELL_FIELD_ASSUMPTIONS } from '../../case/caution';
 import { particleRunFor } from '../particleState';
-import { fmtConc, fmtLength, fmtTime } from '../format';
+import { fmtConc, fmtLength, fmtRate, fmtTime } from '../format';
 import { formatSig } from '../../case/numbers';
 
 export function ReportWells({ c, results }: { c: Case; results: Evaluation | null }) {
@@ -39,7 +39,7 @@ export function ReportWells({ c, results }: { c: Case; results: Evaluation | nul
               {w.captures.map((x) => (
                 <tr key={x.receptorId}>
                   <th scope="row">{name(x.receptorId)}</th>
-                  <td>{formatSig(x.rate)} m³/d</td>
+                  <td>{fmtRate(x.rate)}</td>
                   <td>
                     {x.capturesSource ? 'yes' : 'no'} ({formatSig(100 * x.sourceShare)} % of the source width)
                   </td>

@@ -106,5 +106,5 @@ export function uncertaintyCsvFile(c: Case): Built {
   const run = uncertaintyRun.peek();
   if (!run.result || run.status !== 'done' || run.caseKey !== caseKeyOf(c))
     return { ok: false, error: 'Probabilistic results: no completed run for the current inputs; run it under "How sure is it?", then export.' };
-  return { ok: true, file: { name: `${fileStem(c)}-probabilities.csv`, type: 'text/csv', text: uncertaintyCsv(run.result) } };
+  return { ok: true, file: { name: `${fileStem(c)}-probabilities.csv`, type: 'text/csv', text: uncertaintyCsv(run.result, c) } };
 }

@@ -8,7 +8,7 @@ import { mapTool, tileState, type MapTool } from '../view';
 import { TimeBar } from './TimeBar';
 import { ExceedanceKey } from './ExceedanceKey';
 import { currentPlume } from '../evaluation';
-import { fmtTime } from '../format';
+import { fmtLength, fmtTime } from '../format';
 import { swatchBackground } from './bandStyle';
 import { WellsKey } from './WellsKey';
 
@@ -147,7 +147,7 @@ function PlumeKey() {
   return (
     <div class="dg-plume-key" role="group" aria-label="Plume legend" data-testid="plume-key">
       <strong>
-        Plume {p.time === Infinity ? 'at steady state' : `after ${fmtTime(p.time)}`}, {p.depth} m below water table — screening estimate (
+        Plume {p.time === Infinity ? 'at steady state' : `after ${fmtTime(p.time)}`}, {fmtLength(p.depth)} below water table — screening estimate (
         {p.solution === 'domenico' ? 'Domenico' : 'exact solution'}):
       </strong>
       {n === 0 ? (

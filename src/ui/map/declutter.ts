@@ -5,7 +5,9 @@
  *
  * Each label is tried, in the order given (the caller puts the selected mark and receptors first),
  * to the right of its mark, then left, above and below; the first place inside the view that
- * touches nothing already placed wins. Beside the mark a label may be cut short (to at least
+ * touches nothing already placed wins. Above or below, a label near the view's side edge slides
+ * sideways to stay inside it, still spanning its mark (a receptor at the edge of a phone's map
+ * keeps its name). Beside the mark a label may be cut short (to at least
  * MIN_LABEL_W, with an ellipsis) to stay inside the view. A label with no free place is hidden;
  * its mark keeps its name for screen readers and as its title, and tapping it selects it. A label
  * marked `keep` (the selected mark's, placed first) is never hidden: with no free place it may lie
@@ -40,6 +42,8 @@ export interface Placement {
   side: Side | null;
   /** a width to cut the label to, or null for its natural width */
   maxWidth: number | null;
+  /** above or below: px the label is slid sideways from centred, to stay inside the view (absent: centred) */
+  shift?: number;
 }
 
 export const SYMBOL_R = 16;
@@ -52,18 +56,29 @@ export function symbolRect(x: number, y: number): Rect {
   return { x: x - SYMBOL_R, y: y - SYMBOL_R, w: 2 * SYMBOL_R, h: 2 * SYMBOL_R };
 }
 
-/** The box of a label of width w on one side of its mark. */
-export function labelRect(it: LabelItem, side: Side, w = it.w): Rect {
+/** The box of a label of width w on one side of its mark (above or below: slid `shift` px from centred). */
+export function labelRect(it: LabelItem, side: Side, w = it.w, shift = 0): Rect {
   switch (side) {
     case 'right':
       return { x: it.x + LABEL_OFFSET, y: it.y - 12, w, h: it.h };
     case 'left':
       return { x: it.x - LABEL_OFFSET - w, y: it.y - 12, w, h: it.h };
     case 'above':
-      return { x: it.x - w / 2, y: it.y - SYMBOL_R - 2 - it.h, w, h: it.h };
+      return { x: it.x - w / 2 + shift, y: it.y - SYMBOL_R - 2 - it.h, w, h: it.h };
     case 'below':
-      return { x: it.x - w / 2, y: it.y + SYMBOL_R + 2, w, h: it.h };
+      return { x: it.x - w / 2 + shift, y: it.y + SYMBOL_R + 2, w, h: it.h };
   }
+}
+
+/**
+ * Above or below a mark near the view's side edge: the slide that brings the centred label inside
+ * the view while it still spans the mark's point (so it reads as the mark's), else 0.
+ */
+function slideInside(it: LabelItem, w: number, width: number): number {
+  const x = it.x - w / 2;
+  const shift = x < 0 ? -x : x + w > width ? width - (x + w) : 0;
+  const spans = it.x >= x + shift + 8 && it.x <= x + shift + w - 8;
+  return spans ? shift : 0;
 }
 
 /** Do two boxes share any area (touching edges do not count)? */
@@ -73,7 +88,7 @@ export function overlaps(a: Rect, b: Rect): boolean {
 
 const inside = (r: Rect, width: number, height: number) => r.x >= 0 && r.y >= 0 && r.x + r.w <= width && r.y + r.h <= height;
 
-type Chosen = { side: Side; rect: Rect; maxWidth: number | null };
+type Chosen = { side: Side; rect: Rect; maxWidth: number | null; shift: number };
 
 /** The first side (right, left, above, below) whose box is inside the view and clear of `blocked`. */
 function firstFree(it: LabelItem, blocked: readonly Rect[], width: number, height: number): Chosen | null {
@@ -82,8 +97,9 @@ function firstFree(it: LabelItem, blocked: readonly Rect[], width: number, heigh
     if (side === 'right') w = Math.min(w, width - (it.x + LABEL_OFFSET) - 4);
     else if (side === 'left') w = Math.min(w, it.x - LABEL_OFFSET - 4);
     if (w < Math.min(it.w, MIN_LABEL_W)) continue;
-    const rect = labelRect(it, side, w);
-    if (inside(rect, width, height) && !blocked.some((t) => overlaps(rect, t))) return { side, rect, maxWidth: w < it.w ? w : null };
+    const shift = side === 'above' || side === 'below' ? slideInside(it, w, width) : 0;
+    const rect = labelRect(it, side, w, shift);
+    if (inside(rect, width, height) && !blocked.some((t) => overlaps(rect, t))) return { side, rect, maxWidth: w < it.w ? w : null, shift };
   }
   return null;
 }
@@ -99,7 +115,7 @@ export function declutter(items: readonly LabelItem[], symbols: readonly Rect[],
     const chosen =
       firstFree(it, [...symbols, ...controls, ...labels], width, height) ?? (it.keep ? firstFree(it, [...controls, ...labels], width, height) : null);
     if (chosen) labels.push(chosen.rect);
-    out.set(it.id, chosen ? { side: chosen.side, maxWidth: chosen.maxWidth } : { side: null, maxWidth: null });
+    out.set(it.id, chosen ? { side: chosen.side, maxWidth: chosen.maxWidth, ...(chosen.shift ? { shift: chosen.shift } : {}) } : { side: null, maxWidth: null });
   }
   return out;
 }

@@ -7,6 +7,7 @@
  */
 import * as L from 'leaflet';
 import { gridStep, scaleLabel, type UnitSystem } from '../../case/unitSystem';
+import { overlaps, type Rect } from './declutter';
 
 export interface GridFrame {
   toEN(ll: L.LatLng): [number, number];
@@ -15,9 +16,14 @@ export interface GridFrame {
   system(): UnitSystem;
 }
 
+/** Grid labels are 11 px type (app.css .dg-grid-label): about 6.5 px a character, 11 px tall above the baseline. */
+const labelBox = (x: number, baseline: number, text: string): Rect => ({ x, y: baseline - 11, w: 6.5 * text.length, h: 14 });
+
 export class SiteGridLayer extends L.Layer {
   private svg: SVGSVGElement | null = null;
   private host: L.Map | null = null;
+  /** the map's controls at the left edge, where the grid's labels sit (measured once per size, not on every move) */
+  private controls: { topLeft: Rect[]; bottomLeft: Rect[] } | null = null;
   constructor(private frame: GridFrame) {
     super();
   }
@@ -33,12 +39,34 @@ export class SiteGridLayer extends L.Layer {
     host.appendChild(this.svg);
     map.getContainer().appendChild(host);
     map.on('move zoom resize viewreset', this.redraw, this);
+    map.on('resize', this.controlsMoved, this);
     this.redraw();
     return this;
   }
 
+  /** The map's controls changed place or size (a resize, a new scale bar): measure them again at the next redraw. */
+  controlsMoved(): void {
+    this.controls = null;
+  }
+
+  private controlBoxes(map: L.Map): { topLeft: Rect[]; bottomLeft: Rect[] } {
+    if (this.controls) return this.controls;
+    const el = map.getContainer();
+    const at = el.getBoundingClientRect();
+    const boxes = (corner: string): Rect[] =>
+      Array.from(el.querySelectorAll(`.leaflet-${corner} .leaflet-control`), (c) => {
+        const r = c.getBoundingClientRect();
+        return { x: r.left - at.left - 3, y: r.top - at.top - 3, w: r.width + 6, h: r.height + 6 };
+      }).filter((b) => b.w > 6);
+    const found = { topLeft: boxes('top.leaflet-left'), bottomLeft: boxes('bottom.leaflet-left') };
+    // not laid out yet (the zoom buttons are always there): measure again next time
+    if (found.topLeft.length) this.controls = found;
+    return found;
+  }
+
   override onRemove(map: L.Map): this {
     map.off('move zoom resize viewreset', this.redraw, this);
+    map.off('resize', this.controlsMoved, this);
     this.svg?.parentElement?.remove();
     this.svg = null;
     this.host = null;
@@ -65,6 +93,7 @@ export class SiteGridLayer extends L.Layer {
     const system = this.frame.system();
     const step = gridStep(Math.max(e1 - e0, n1 - n0), size.x < 500 ? 5 : 8, system);
     const fmt = (v: number) => scaleLabel(v, system, step);
+    const controls = this.controlBoxes(map);
     const parts: string[] = [];
     const line = (pts: [number, number][], major: boolean) => {
       const d = pts
@@ -83,7 +112,11 @@ export class SiteGridLayer extends L.Layer {
       const major = Math.abs(e) < step / 2;
       line(pts, major);
       const p = map.latLngToContainerPoint(this.frame.fromEN([e, n0 + (n1 - n0) * 0.02]));
-      parts.push(`<text x="${(p.x + 4).toFixed(1)}" y="${(size.y - 8).toFixed(1)}" class="dg-grid-label">E ${fmt(e)}</text>`);
+      // along the foot of the map; above the scale bar where it would sit under it
+      const text = `E ${fmt(e)}`;
+      let y = size.y - 8;
+      for (const b of controls.bottomLeft) if (overlaps(labelBox(p.x + 4, y, text), b)) y = Math.min(y, b.y - 4);
+      parts.push(`<text x="${(p.x + 4).toFixed(1)}" y="${y.toFixed(1)}" class="dg-grid-label">${text}</text>`);
     }
     for (let k = Math.ceil(n0 / step); k * step <= n1; k++) {
       const n = k * step;
@@ -91,7 +124,11 @@ export class SiteGridLayer extends L.Layer {
       for (let k = 0; k <= samples; k++) pts.push([e0 + ((e1 - e0) * k) / samples, n]);
       line(pts, Math.abs(n) < step / 2);
       const p = map.latLngToContainerPoint(this.frame.fromEN([e0, n]));
-      parts.push(`<text x="6" y="${(p.y - 4).toFixed(1)}" class="dg-grid-label">N ${fmt(n)}</text>`);
+      // along the left edge; beside the zoom buttons where it would sit under them
+      const text = `N ${fmt(n)}`;
+      let x = 6;
+      for (const b of [...controls.topLeft, ...controls.bottomLeft]) if (overlaps(labelBox(x, p.y - 4, text), b)) x = Math.max(x, b.x + b.w + 3);
+      parts.push(`<text x="${x.toFixed(1)}" y="${(p.y - 4).toFixed(1)}" class="dg-grid-label">${text}</text>`);
     }
     svg.innerHTML = parts.join('');
   }

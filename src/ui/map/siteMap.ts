@@ -67,6 +67,7 @@ export class SiteMap {
   private disposers: (() => void)[] = [];
   private tiles: L.TileLayer | null = null;
   private grid: SiteGridLayer;
+  private scale: L.Control.Scale | null = null;
   private gridOn = false;
   private source: L.Marker;
   private footprint: L.Polygon;
@@ -106,7 +107,6 @@ export class SiteMap {
     } as L.MapOptions);
     this.map.attributionControl.setPrefix(false);
     registerMapElement(el);
-    L.control.scale({ metric: true, imperial: true, position: 'bottomleft', maxWidth: 140 }).addTo(this.map);
     new NorthArrow({ position: 'topright' }).addTo(this.map);
 
     const lf = makeLocalFrame(c.site.frame, c.site.datum);
@@ -141,11 +141,18 @@ export class SiteMap {
     this.wireGestures();
     this.fitTo(this.frameTargets(c, null));
     this.disposers.push(effect(() => this.syncBasemap(settings.value.tileUrl, settings.value.tileAttribution)));
-    // the grid's labels follow the case's unit system
-    // the site grid's labels follow the case's unit system: redrawn when the system changes, not
-    // with every edit (a computed notifies only on a new value)
+    // the scale bar and the site grid's labels follow the case's unit system (metres, or feet and
+    // miles): redone when the system changes, not with every edit (a computed notifies only on a new value)
     const system = computed(() => unitSystem(currentCase.value));
-    this.disposers.push(effect(() => void (system.value && this.grid.redraw())));
+    this.disposers.push(
+      effect(() => {
+        const us = system.value === 'US';
+        this.scale?.remove();
+        this.scale = L.control.scale({ metric: !us, imperial: us, position: 'bottomleft', maxWidth: 140 }).addTo(this.map);
+        this.grid.controlsMoved();
+        this.grid.redraw();
+      }),
+    );
     this.disposers.push(effect(() => guarded('marks', () => this.syncCase(currentCase.value, selectedId.value, currentResults.value))));
     this.disposers.push(effect(() => guarded('plume', () => this.syncPlume(currentPlume.value))));
     this.exceedance = new ExceedanceLayer(this.map);
@@ -350,6 +357,7 @@ export class SiteMap {
           if (!el || !label) continue;
           el.classList.remove(...LABEL_CLASSES);
           label.style.maxWidth = '';
+          label.style.marginLeft = '';
           entries.push({ id: `${rank}:${id}`, el, label, rank: id === sel ? -1 : rank, x: p.x, y: p.y });
         }
       });
@@ -370,6 +378,8 @@ export class SiteMap {
         const p = placed.get(e.id);
         e.el.classList.add(p?.side ? `dg-label-${p.side}` : 'dg-label-hidden');
         if (p?.maxWidth) e.label.style.maxWidth = `${p.maxWidth}px`;
+        // slid sideways from centred (above or below, at the view's edge): the centring transform stays
+        if (p?.shift) e.label.style.marginLeft = `${p.shift}px`;
       }
       // then the head lines' labels, clear of the marks, their labels as placed, the controls and
       // anything laid over the map (notices, the stale-plume message, a tool's hint)

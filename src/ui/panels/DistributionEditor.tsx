@@ -12,7 +12,7 @@
 import { currentCase, updateCase } from '../state';
 import { NumberField, unitLabel } from '../fields';
 import { UNCERTAIN_INPUTS, type Case, type UncertainInput, type UncertainValue } from '../../case/schema';
-import { defaultUnit, INPUT_DEFINITIONS, notApplicable, planInput, truncationStart } from '../../case/uncertainty';
+import { defaultUnit, INPUT_DEFINITIONS, notApplicable, planInput, shownDistribution, truncationStart } from '../../case/uncertainty';
 import { defaultDistribution, noteAfterEdit } from '../../case/uncertaintyDefaults';
 import { detailOf } from '../../case/checked';
 import { normalQuantile } from '../../core/uncertainty';
@@ -110,7 +110,10 @@ export function DistributionEditor() {
 
 function InputRow({ c, input }: { c: Case; input: UncertainInput }) {
   const def = INPUT_DEFINITIONS[input];
-  const d = c.uncertainty.inputs[input];
+  const stored = c.uncertainty.inputs[input];
+  // shown and edited in the case's units (ft/d in a US customary case); an edit stores what is shown
+  // with the typed value exact, so nothing drifts m → ft → m (case/uncertainty.ts distributionIn)
+  const d = stored && shownDistribution(c, input, stored);
   const start = d ? null : defaultDistribution(c, input);
   let problem: string | null = null;
   let planned: ReturnType<typeof planInput> | null = null;
@@ -129,7 +132,7 @@ function InputRow({ c, input }: { c: Case; input: UncertainInput }) {
       else delete draft.uncertainty.inputs[input];
     });
   // a change of type, parameter or bounds: the source note follows (the cited one, or "my own values")
-  const change = (next: UncertainValue) => d && set({ ...next, note: noteAfterEdit(c, input, d, next) });
+  const change = (next: UncertainValue) => stored && set({ ...next, note: noteAfterEdit(c, input, stored, next) });
   return (
     <div class={`dg-mc-row${problem ? ' dg-invalid' : ''}`} data-input={input}>
       <label class="dg-check">

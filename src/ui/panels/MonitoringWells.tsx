@@ -32,7 +32,9 @@ import {
 } from '../../case/monitoring';
 import type { ObservationSummary } from '../../case/observations';
 import { unitsOf } from '../../core/units';
-import { formatSig, screenNumber } from '../../case/numbers';
+import { formatSig } from '../../case/numbers';
+import { fmtLength } from '../format';
+import { mapLengthUnit, positionShown, positionTyped, unitSystem } from '../../case/unitSystem';
 import { activeSiteMap } from '../map/active';
 import { showMonitoringWell } from '../map/monitoringLayer';
 import type { Case } from '../../case/schema';
@@ -194,17 +196,20 @@ function WellPlace({ index }: { index: number }) {
   const c = currentCase.value;
   const w = c.monitoring.wells[index];
   const geo = c.site.frame === 'geographic';
-  const names = geo ? ['Longitude (°)', 'Latitude (°)'] : ['East (m)', 'North (m)'];
-  const shown = (v: number | undefined) => (v === undefined ? '' : String(Number(v.toFixed(geo ? 7 : 2))));
+  // a local case's east and north in the case's system (ft in a US customary case), stored in metres
+  const system = unitSystem(c);
+  const unit = mapLengthUnit(system).unit;
+  const names = geo ? ['Longitude (°)', 'Latitude (°)'] : [`East (${unit})`, `North (${unit})`];
+  const shown = (v: number | undefined) => (v === undefined ? '' : String(geo ? Number(v.toFixed(7)) : positionShown(v, system)));
   const [text, setText] = useState<[string, string]>([shown(w.position?.[0]), shown(w.position?.[1])]);
   const [error, setError] = useState<string | null>(null);
-  useEffect(() => setText([shown(w.position?.[0]), shown(w.position?.[1])]), [w.position?.[0], w.position?.[1]]);
+  useEffect(() => setText([shown(w.position?.[0]), shown(w.position?.[1])]), [w.position?.[0], w.position?.[1], system]);
   const p = preparedCase.value;
   let where: string | null = null;
   if (w.position && p) {
     try {
       const f = p.fromMap(w.position);
-      where = `${screenNumber(f.x, 'length', f.x, 3)} m downgradient of the release, ${screenNumber(f.y, 'length', f.y, 3)} m across the flow (left +).`;
+      where = `${fmtLength(f.x, 3)} downgradient of the release, ${fmtLength(f.y, 3)} across the flow (left +).`;
     } catch {
       where = null;
     }
@@ -213,10 +218,10 @@ function WellPlace({ index }: { index: number }) {
     const v = text.map((t) => Number(t.trim().replace(',', '.')));
     const bad = v.findIndex((x, i) => text[i].trim() === '' || !Number.isFinite(x));
     if (bad >= 0) {
-      setError(`${names[bad]}: enter a number; accepted: ${geo ? 'longitude −180 to 180, latitude −90 to 90, within 1000 km of the site datum' : 'finite metres in the site grid'}. Nothing was changed.`);
+      setError(`${names[bad]}: enter a number; accepted: ${geo ? 'longitude −180 to 180, latitude −90 to 90, within 1000 km of the site datum' : `a finite number of ${unit === 'ft' ? 'feet' : 'metres'} in the site grid`}. Nothing was changed.`);
       return;
     }
-    const at: [number, number] = [v[0], v[1]];
+    const at: [number, number] = geo ? [v[0], v[1]] : [positionTyped(v[0], system), positionTyped(v[1], system)];
     const problem = positionProblem(c, at);
     if (problem) {
       setError(`Position: ${problem}. Nothing was changed.`);

@@ -11,6 +11,7 @@ import { SATURATED_THICKNESS_HELP } from '../../case/wells';
 import { fieldIssue } from '../validity';
 import { fmtLength } from '../format';
 import type { Receptor } from '../../case/schema';
+import { unitSystem } from '../../case/unitSystem';
 
 export const BOUNDARY_KIND_LABEL: Record<'constant-head' | 'no-flow', string> = {
   'constant-head': 'River or lake shore (constant head)',
@@ -33,7 +34,7 @@ export function SaturatedThicknessField() {
         onChange={(v) =>
           updateCase((d) => {
             if (v === 'none') d.aquifer.saturatedThickness = null;
-            else if (d.aquifer.saturatedThickness == null) d.aquifer.saturatedThickness = { value: 10, unit: 'm' };
+            else if (d.aquifer.saturatedThickness == null) d.aquifer.saturatedThickness = unitSystem(d) === 'US' ? { value: 30, unit: 'ft' } : { value: 10, unit: 'm' };
           })
         }
       />
@@ -56,6 +57,8 @@ export function SaturatedThicknessField() {
 /** A receptor that pumps: its rate (m³/d, L/s, gal/min …), or a note that it is not modelled. */
 export function PumpingRateField({ index, r }: { index: number; r: Receptor }) {
   if (!r.pumping) return null;
+  // a new rate starts in the case's system (US customary: gal/min, fields.ts)
+  const us = unitSystem(currentCase.value) === 'US';
   const thickness = currentCase.value.aquifer.saturatedThickness != null;
   return (
     <>
@@ -66,10 +69,10 @@ export function PumpingRateField({ index, r }: { index: number; r: Receptor }) {
           dimension="flowRate"
           value={r.pumpingRate}
           onChange={(q) => updateCase((d) => void (d.site.receptors[index].pumpingRate = q))}
-          help="The well's steady rate (the long-run average, not the peak); a supply well for a small town pumps some hundreds to a few thousand m³/d."
+          help={`The well's steady rate (the long-run average, not the peak); a supply well for a small town pumps ${us ? 'some tens to a few hundred gal/min' : 'some hundreds to a few thousand m³/d'}.`}
         />
       ) : (
-        <button type="button" onClick={() => updateCase((d) => void (d.site.receptors[index].pumpingRate = { value: 500, unit: 'm3/d' }))}>
+        <button type="button" onClick={() => updateCase((d) => void (d.site.receptors[index].pumpingRate = us ? { value: 100, unit: 'gpm' } : { value: 500, unit: 'm3/d' }))}>
           Give its pumping rate
         </button>
       )}

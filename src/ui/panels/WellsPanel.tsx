@@ -11,7 +11,7 @@ import { useState } from 'preact/hooks';
 import { Section } from './Section';
 import { RunProgress } from '../RunProgress';
 import { currentCase, currentResults } from '../state';
-import { fmtConc, fmtLength, fmtTime } from '../format';
+import { fmtConc, fmtLength, fmtRate, fmtTime } from '../format';
 import { fmtNum } from '../fields';
 import { WELL_FIELD_ASSUMPTIONS } from '../../case/caution';
 import { DEFAULT_PARTICLES } from '../../case/particles';
@@ -103,7 +103,7 @@ function WellFigures() {
               <tr key={x.receptorId} data-well={x.receptorId} data-captures={x.capturesSource}>
                 <th scope="row">
                   {name}
-                  <span class="dg-alt">{fmtNum(x.rate, 3)} m³/d</span>
+                  <span class="dg-alt">{fmtRate(x.rate)}</span>
                 </th>
                 <td>
                   {x.capturesSource ? <strong>Yes</strong> : 'No'}

@@ -10,7 +10,7 @@ function placedRects(items: LabelItem[], obstacles = items.map((i) => symbolRect
   const p = declutter(items, obstacles, [], W, H);
   return { p, rects: items.flatMap((i) => {
     const s = p.get(i.id)!;
-    return s.side ? [{ id: i.id, r: labelRect(i, s.side, s.maxWidth ?? i.w) }] : [];
+    return s.side ? [{ id: i.id, r: labelRect(i, s.side, s.maxWidth ?? i.w, s.shift) }] : [];
   }), obstacles };
 }
 
@@ -18,6 +18,20 @@ describe('declutter', () => {
   test('a lone label goes to the right of its mark', () => {
     const p = declutter([{ id: 'a', x: 100, y: 100, w: 80, h: 20 }], [], [], W, H);
     expect(p.get('a')).toEqual({ side: 'right', maxWidth: null });
+  });
+
+  test('at the right edge with a symbol to its left (the depot demo’s supply well on a phone): above, slid inside the view, still over its mark', () => {
+    const well: LabelItem = { id: 'well', x: 328, y: 200, w: 130, h: 22 };
+    const handle = symbolRect(210, 200);
+    const p = declutter([well], [symbolRect(well.x, well.y), handle], [], W, H);
+    const s = p.get('well')!;
+    expect(s.side).toBe('above');
+    const r = labelRect(well, 'above', well.w, s.shift);
+    expect(r.x + r.w).toBeLessThanOrEqual(W);
+    expect(r.x).toBeGreaterThanOrEqual(0);
+    expect(r.x).toBeLessThan(well.x);
+    expect(r.x + r.w).toBeGreaterThan(well.x);
+    expect(overlaps(r, handle)).toBe(false);
   });
 
   test('near the right edge: to the left', () => {
