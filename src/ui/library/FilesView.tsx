@@ -2,6 +2,7 @@
  * Files out (case file, GeoJSON, CSV tables, share, printable report) and in (case file import
  * with validation: a rejected file changes nothing stored, and the message says what is wrong).
  */
+import { resultUnit } from '../../case/unitSystem';
 import { useState } from 'preact/hooks';
 import { currentCase, currentResults } from '../state';
 import { importCaseText, importForRepair, resolveImport, type ImportOutcome } from '../../app/actions';
@@ -146,7 +147,7 @@ export function FilesView() {
         {!!r?.wells?.zones.length && (
           <button type="button" class="dg-lib-btn" data-testid="export-capture-zones" onClick={() => out(() => captureZonesCsvFile(c, r))}>
             Capture zones (CSV)
-            <small>each pumping well's zone and 1–25 year travel-time marks, as {unplaced ? "the site grid's east/north metres" : 'longitude and latitude'}</small>
+            <small>each pumping well's zone and 1–25 year travel-time marks, as {unplaced ? `the site grid's east/north ${resultUnit(c, 'length') === 'ft' ? 'feet' : 'metres'}` : 'longitude and latitude'}</small>
           </button>
         )}
         {particleRunFor(c, true) && (
