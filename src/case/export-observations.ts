@@ -12,7 +12,11 @@ import { convert, toInternal } from '../core/units';
 import { csvRecords, type Cell } from './export-csv';
 import { comparedAnalyte, resultMgL, wellSeries } from './monitoring';
 
-/** The results as a table, one row per result, sorted by well, analyte and date. */
+/**
+ * The results as a table, one row per result, sorted by well, analyte and date. Screen depths and a
+ * local case's easting/northing in metres in every unit system: the observation import reads these
+ * columns as metres, so the file re-imports to the same wells.
+ */
 export function observationsCsv(c: Case): string {
   const geo = c.site.frame === 'geographic';
   const header: Cell[] = [
@@ -41,8 +45,9 @@ export function observationsCsv(c: Case): string {
         r.value,
         r.unit,
         resultMgL(r),
-        w ? w.screenTop.value : null,
-        w ? w.screenBottom.value : null,
+        // in metres whatever unit they were typed in: the observation import reads these columns as metres
+        w ? fileNumber(toInternal(w.screenTop.value, w.screenTop.unit), 'length') : null,
+        w ? fileNumber(toInternal(w.screenBottom.value, w.screenBottom.unit), 'length') : null,
         w?.position?.[0] ?? null,
         w?.position?.[1] ?? null,
       ];

@@ -19,6 +19,7 @@
  * degrees of freedom counting detected results only), mapped back through exp for the log
  * parameters; they carry the scatter of the data, not the error of the model's form.
  */
+import { resultUnit } from './unitSystem';
 import type { ScreeningModel } from '../core/model';
 import { screenAverage } from '../core/results';
 import { fromInternal, toInternal } from '../core/units';
@@ -341,7 +342,8 @@ export function adoptFitAsVariant(c: Case, fit: FitResult, newId: string, now: s
     } else if (f.parameter === 'longitudinalDispersivity') {
       const k = f.value / p.derived.ax;
       const d = c.aquifer.dispersivity;
-      const unit = d.mode === 'given' ? d.longitudinal.unit : 'm';
+      // the case's own unit, or with estimated dispersivities the system's length unit (m or ft)
+      const unit = d.mode === 'given' ? d.longitudinal.unit : resultUnit(c, 'length');
       const q = (m: number) => ({ value: round(fromInternal(m, unit)), unit });
       v.aquifer.dispersivity = { mode: 'given', longitudinal: q(f.value), transverse: q(p.derived.ay * k), vertical: q(p.derived.az * k) };
     } else {

@@ -10,6 +10,7 @@ import type { Case } from './schema';
 import type { ObservationSummary } from './observations';
 import { resultText } from './monitoring';
 import { formatSig } from './numbers';
+import { resultUnit } from './unitSystem';
 import { FIT_LABELS, type FitResult } from './fit';
 
 const YEAR = 365.25;
@@ -84,12 +85,15 @@ export function observationLines(s: ObservationSummary): string[] {
   return lines;
 }
 
-/** The fit as sentences (command-line table and the app's monitoring panel). */
-export function fitLines(f: FitResult): string[] {
-  const unit: Record<string, string> = { sourceConcentration: 'mg/L', halfLife: 'd', longitudinalDispersivity: 'm', flowDirection: '° from north' };
+/** The fit as sentences (command-line table and the app's monitoring panel); αL in the case's length unit (m or ft). */
+export function fitLines(f: FitResult, units: Pick<Case, 'units'> = {}): string[] {
+  const lu = resultUnit(units, 'length');
+  const unit: Record<string, string> = { sourceConcentration: 'mg/L', halfLife: 'd', longitudinalDispersivity: UNITS[lu].label, flowDirection: '° from north' };
   const lines = f.values.map((v) => {
-    const iv = v.interval ? `, ${Math.round(f.confidence * 100)} % interval ${formatSig(v.interval[0], 3)} to ${formatSig(v.interval[1], 3)}` : ', no interval';
-    return `${FIT_LABELS[v.parameter]}: ${formatSig(v.value, 3)} ${unit[v.parameter]} (case: ${formatSig(v.start, 3)}${iv})`;
+    // the fit works in internal units (m for αL)
+    const shown = (x: number) => formatSig(v.parameter === 'longitudinalDispersivity' ? fromInternal(x, lu) : x, 3);
+    const iv = v.interval ? `, ${Math.round(f.confidence * 100)} % interval ${shown(v.interval[0])} to ${shown(v.interval[1])}` : ', no interval';
+    return `${FIT_LABELS[v.parameter]}: ${shown(v.value)} ${unit[v.parameter]} (case: ${shown(v.start)}${iv})`;
   });
   lines.push(
     `Fitted to ${f.detected} detected results and ${f.nonDetects} below the reporting limit (least squares on ln concentration; non-detects as censored values). Typical misfit ×${Math.exp(f.rmsLn).toFixed(2)} (the case's inputs: ×${Math.exp(f.startRmsLn).toFixed(2)}).`,

@@ -380,7 +380,7 @@ function formatTable(c: Case, s: ScreeningResult, source: string, u: Uncertainty
   if (fit) {
     L.push('');
     L.push('Fit to the monitoring data');
-    for (const line of fitLines(fit)) L.push(...wrap(`- ${line}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
+    for (const line of fitLines(fit, c)) L.push(...wrap(`- ${line}`, 96, '  ').map((l, i) => (i ? '  ' + l : l)));
   }
   L.push('');
   L.push('Warnings');

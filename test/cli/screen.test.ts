@@ -156,6 +156,13 @@ describe('formats', () => {
     expect(header).not.toContain('x_m');
     const x = Number(rows[1].split(',')[header.indexOf('x_ft')]);
     expect(Math.abs((x * 0.3048) / s.results[0].receptor.x - 1)).toBeLessThan(1e-12);
+    // the probabilistic run's distributions in the case's system (the demo's K lognormal about 12 m/d = 39.37 ft/d)
+    const mc = run(f, '--runs', '50');
+    expect(mc.code).toBe(0);
+    expect(mc.out).toMatch(/- Hydraulic conductivity K: lognormal, median 39\.37 ft\/d/);
+    expect(mc.out).not.toMatch(/\bm\/d\b/);
+    const mcCsv = run(f, '--runs', '50', '--format', 'csv').out;
+    expect(mcCsv).toMatch(/uncertain input,Hydraulic conductivity K,"?lognormal, median 39\.37 ft\/d/);
     // JSON: the contract's fixed units (m, d, mg/L) whatever the case's system
     const j = JSON.parse(run(f, '--format', 'json').out);
     expect(j.units.length).toBe('m');

@@ -260,7 +260,7 @@ function FitStep() {
       )}
       {current && (
         <div data-testid="fit-result">
-          {fitLines(current).map((l, i) => (
+          {fitLines(current, c).map((l, i) => (
             <p class="dg-note" key={i}>
               {l}
             </p>

@@ -26,8 +26,8 @@ function depthWords(kind: ReceptorKind): { top: string; bottom: string; help: st
   if (kind === 'well') return undefined; // a well's screen: the labels of src/case/fields.ts
   const help =
     kind === 'spring' || kind === 'surface-water'
-      ? 'Groundwater reaching a spring or a creek comes mostly from the top of the aquifer: 0 – 0 m (at the water table, where the plume is strongest) is the cautious choice (common practice).'
-      : 'The concentration is averaged over this interval; 0 – 0 m reads it at the water table.';
+      ? 'Groundwater reaching a spring or a creek comes mostly from the top of the aquifer: from 0 to 0 (at the water table, where the plume is strongest) is the cautious choice (common practice).'
+      : 'The concentration is averaged over this interval; from 0 to 0 reads it at the water table.';
   return { top: 'Depth below water table: from', bottom: 'to', help };
 }
 
