@@ -1,51 +1,33 @@
 /**
- * CSV files of a screening (RFC 4180): the receptor table and the breakthrough curves. Records end
- * in CRLF; a field holding a comma, a double quote, CR or LF is quoted and its quotes doubled;
- * every record has the same number of fields. Numbers are in the units named in each header, with
- * the file rule of src/case/numbers.ts (10 significant digits; zero within round-off written 0),
- * so arithmetic noise such as 149.99999999999994 never reaches a spreadsheet.
+ * CSV files of a screening (RFC 4180, written by csv-write.ts's one rule, re-exported here): the
+ * receptor table and the breakthrough curves. Every record has the same number of fields. Numbers
+ * are in the units named in each header, with the file rule of src/case/numbers.ts (10 significant
+ * digits; zero within round-off written 0), so arithmetic noise such as 149.99999999999994 never
+ * reaches a spreadsheet. The screening caution closes each file.
  *
- * A text cell that starts with = + - @ or a tab/CR is prefixed with an apostrophe, so that a
- * spreadsheet does not run it as a formula (OWASP "CSV injection" guidance). Numeric cells are
- * never altered. The screening caution closes each file as a final two-field record padded to
- * the column count, so it travels with the numbers.
+ * Every figure of the receptor table names its method: the analytical columns (`method`: the
+ * solution, in uniform flow), and after them the well field's (a pumping well's capture of the
+ * release and the contaminant's travel time from it, with their method) and a complete particle
+ * run's (export-wells.ts RECEPTOR_WELL_COLUMNS), empty where they do not apply.
  */
 import type { Case } from './schema';
-import { otherSolution, type ExportResults } from './export-results';
+import { analyticalMethod, otherSolution, type ExportResults } from './export-results';
+import { RECEPTOR_WELL_COLUMNS, receptorWellCells } from './export-wells';
 import { statusText, type ReceptorFigure } from '../core';
 import { fileNumber, formatSig } from './numbers';
 import { KIND_LABEL } from './receptorKinds';
 import type { ReceptorKind } from './schema';
 import { fromInternal } from '../core/units';
+import { withCaution, type Cell } from './csv-write';
+
+export { csvField, csvRecords, withCaution, type Cell } from './csv-write';
+
+const YEAR_D = 365.25;
 
 const time = (v: number | null) => (v === null ? null : fileNumber(v, 'time'));
 const years = (v: number | null) => (v === null ? null : fileNumber(v, 'time', v / YEAR_D));
 const conc = (v: number) => fileNumber(v, 'concentration');
 
-export type Cell = string | number | null;
-
-const YEAR_D = 365.25;
-
-function textCell(s: string): string {
-  return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
-}
-
-export function csvField(v: Cell): string {
-  let s: string;
-  if (v === null) s = '';
-  else if (typeof v === 'number') s = Number.isFinite(v) ? String(v) : '';
-  else s = textCell(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-export function csvRecords(rows: readonly (readonly Cell[])[]): string {
-  return rows.map((r) => r.map(csvField).join(',')).join('\r\n') + '\r\n';
-}
-
-export function withCaution(header: Cell[], rows: Cell[][], caution: string): string {
-  const pad = (r: Cell[]) => [...r, ...Array(Math.max(0, header.length - r.length)).fill('')];
-  return csvRecords([header, ...rows, pad(['screening caution', caution])]);
-}
 
 export const RECEPTOR_TABLE_HEADER = [
   'receptor',
@@ -64,6 +46,7 @@ export const RECEPTOR_TABLE_HEADER = [
   'steady state (mg/L)',
   'limit (mg/L)',
   'horizon (d)',
+  'method',
   'solution',
   'other solution',
   'other solution: result',
@@ -109,6 +92,7 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>, lengthUnit: 'm
       conc(x.steady),
       conc(r.limit),
       time(r.horizon),
+      analyticalMethod(r.solution),
       r.solution,
       a?.solution ?? null,
       a ? statusText(a.status) : null,
@@ -117,10 +101,11 @@ export function receptorTableCsv(r: Omit<ExportResults, 'plume'>, lengthUnit: 'm
       a ? conc(a.peak.c) : null,
       a ? time(a.peak.t) : null,
       a ? a.differing.map((f) => FIGURE_COLUMN[f]).join('; ') : null,
+      ...receptorWellCells(r, x.id),
     ];
   });
   return withCaution(
-    RECEPTOR_TABLE_HEADER.map((h) => h.replace('(m)', `(${lengthUnit})`)),
+    [...RECEPTOR_TABLE_HEADER.map((h) => h.replace('(m)', `(${lengthUnit})`)), ...RECEPTOR_WELL_COLUMNS],
     rows,
     r.caution,
   );

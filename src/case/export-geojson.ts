@@ -21,7 +21,7 @@ import type { Feature, FeatureCollection, Geometry, Position as GeoPosition } fr
 import type { Case, Position } from './schema';
 import { prepareCase } from './prepare';
 import { closedCounterClockwise } from '../geo/rings';
-import { SOLUTION_LABEL, type ExportResults } from './export-results';
+import { SOLUTION_LABEL, analyticalMethod, type ExportResults } from './export-results';
 import { monitoringWellFeatures } from './export-observations';
 import type { ExceedanceContours } from './exceedanceMap';
 import { probabilisticCaution } from './uncertainty';
@@ -29,7 +29,7 @@ import { packedPolygons } from '../geo/contours';
 import { resultUnit, unitSystem } from './unitSystem';
 import { fileNumber } from './numbers';
 import { fromInternal } from '../core/units';
-import { captureZoneFeatures, particleProperties } from './export-wells';
+import { captureZoneFeatures, particleProperties, wellFieldProperties } from './export-wells';
 
 /** `placeOnMap`: the refusal is geojsonNeedsPlacement's (the way forward is to place the case on the basemap) */
 export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string; placeOnMap?: boolean };
@@ -148,7 +148,7 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
           kind: rc.kind,
           ...(r
             ? {
-                method: `analytical: ${SOLUTION_LABEL[results!.solution]}`,
+                method: analyticalMethod(results!.solution),
                 result: r.status,
                 'first reaches limit (d)': r.arrival,
                 'at horizon (mg/L)': r.atHorizon,
@@ -158,6 +158,7 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
                 [`distance from source (${lu})`]: len(r.distance),
               }
             : { result: null }),
+          ...wellFieldProperties(results?.wells, rc.id),
           ...(results?.particles ? particleProperties(results.particles, rc.id) : {}),
         },
       ),
@@ -207,6 +208,7 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
             role: 'plume-contour',
             'view time (d)': Number.isFinite(results.plume.time) ? results.plume.time : 'steady state',
             solution: SOLUTION_LABEL[results.solution],
+            method: analyticalMethod(results.solution),
           },
         ),
       );

@@ -9,7 +9,7 @@ import type { Case, Quantity } from './schema';
 import { resultUnit } from './unitSystem';
 import { fileNumber } from './numbers';
 import { convert, toInternal } from '../core/units';
-import { csvRecords, type Cell } from './export-csv';
+import { csvRecords, type Cell } from './csv-write';
 import { comparedAnalyte, resultMgL, wellSeries } from './monitoring';
 
 /**

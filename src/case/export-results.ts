@@ -67,3 +67,8 @@ export const SOLUTION_LABEL: Record<'domenico' | 'exact', string> = {
   domenico: 'Domenico 1987 approximation',
   exact: 'exact rectangular-source solution',
 };
+
+/** The method of the analytical figures, as every export names it: the solution, in uniform regional flow (no pumping). */
+export function analyticalMethod(s: 'domenico' | 'exact'): string {
+  return `analytical: ${SOLUTION_LABEL[s]}, uniform regional flow (pumping not represented)`;
+}

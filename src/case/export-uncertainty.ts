@@ -5,7 +5,7 @@
  * within the horizon" where that percentile never arrives), one row per receptor and driver, and
  * the caution. The same columns serve the command line's CSV (src/cli/screen.ts).
  */
-import { csvRecords, type Cell } from './export-csv';
+import { csvRecords, type Cell } from './csv-write';
 import { describeInSystem, type UncertaintyResult } from './uncertainty';
 import type { Case } from './schema';
 

@@ -14,7 +14,7 @@
 import type { Feature, Position as GeoPosition } from 'geojson';
 import type { Case, Position } from './schema';
 import type { ExportParticles, ExportResults, ExportWells } from './export-results';
-import { withCaution, type Cell } from './export-csv';
+import { withCaution, type Cell } from './csv-write';
 import { fileNumber } from './numbers';
 import { resultUnit } from './unitSystem';
 import { UNITS, fromInternal } from '../core/units';
@@ -70,6 +70,32 @@ const PARTICLE_COLUMNS = [
   'particles: count',
   'particles: seed',
 ] as const;
+
+/**
+ * The receptor table's columns from the well field and a complete particle run (export-csv.ts
+ * receptorTableCsv appends them after the analytical ones): for a pumping well, whether the release
+ * lies in its capture zone and the contaminant's advective travel time from it, with their method;
+ * the particle figures under the names the particle CSV and GeoJSON use. Empty where they do not apply.
+ */
+const WELL_FIELD_COLUMNS = ['well field: release in its capture zone', 'well field: contaminant travel time from the release (d)', 'well field: method'] as const;
+
+export const RECEPTOR_WELL_COLUMNS = [...WELL_FIELD_COLUMNS, ...PARTICLE_COLUMNS] as const;
+
+/** A pumping well's figures from the well field, under the names the receptor CSV and GeoJSON use ({} for any other receptor). */
+export function wellFieldProperties(w: ExportWells | null | undefined, receptorId: string): Record<string, string | number | null> {
+  const cap = w?.captures.find((x) => x.receptorId === receptorId);
+  if (!cap) return {};
+  return {
+    [WELL_FIELD_COLUMNS[0]]: cap.capturesSource ? 'yes' : 'no',
+    [WELL_FIELD_COLUMNS[1]]: time(cap.travelTimeFromSource),
+    [WELL_FIELD_COLUMNS[2]]: WELL_FIELD_METHOD,
+  };
+}
+
+export function receptorWellCells(r: Pick<ExportResults, 'wells' | 'particles'>, receptorId: string): Cell[] {
+  const props = { ...wellFieldProperties(r.wells, receptorId), ...(r.particles ? particleProperties(r.particles, receptorId) : {}) };
+  return RECEPTOR_WELL_COLUMNS.map((k) => props[k] ?? null);
+}
 
 /** Particle figures per receptor: one row per receptor, the analytical figure beside for reference. */
 export function particleFiguresCsv(r: Pick<ExportResults, 'receptors' | 'solution' | 'limit' | 'horizon' | 'caution'>, p: ExportParticles): string {

@@ -5,7 +5,7 @@
  */
 import type { Case } from '../case/schema';
 import type { PreparedCase } from '../case/prepare';
-import type { Cell } from '../case/export-csv';
+import type { Cell } from '../case/csv-write';
 import { analyseObservations, type ObservationSummary } from '../case/observations';
 import { OBSERVATION_TABLE_HEADER, observationLines, observationTableRows } from '../case/observations-text';
 export { fitLines } from '../case/observations-text';

@@ -24,7 +24,7 @@ import { ASSUMPTIONS, SCREENING_CAUTION, WELL_FIELD_ASSUMPTIONS } from '../case/
 import { DEFAULT_PARTICLES, runCaseParticles, type CaseParticles } from '../case/particles';
 import { ValidationError, SOLUTIONS_DIFFER_ABOVE, statusText } from '../core';
 import type { Case } from '../case/schema';
-import { csvRecords, type Cell } from '../case/export-csv';
+import { csvRecords, type Cell } from '../case/csv-write';
 import { resultUnit, unitSystem } from '../case/unitSystem';
 import { fromInternal, UNITS, type Dimension } from '../core/units';
 import { KIND_LABEL } from '../case/receptorKinds';

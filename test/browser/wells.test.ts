@@ -121,6 +121,11 @@ describe('pumping wells: capture zones and particles', () => {
     expect(figures.text.split('\r\n')[1]).toMatch(/^Town supply well,well,"particles: random walk[^"]*",.*,4000,7,/);
     const curves = await download(page, 'export-particle-curves');
     expect(curves.text.split('\r\n')).toHaveLength(1 + 100 + 1 + 1);
+    // the receptor table names the method of each figure: analytical, the well field's capture, the particles'
+    const table = await download(page, 'export-table');
+    const [head, well] = table.text.split('\r\n');
+    expect(head).toMatch(/,method,solution,.*,well field: release in its capture zone,well field: contaminant travel time from the release \(d\),well field: method,particles: method,/);
+    expect(well).toMatch(/^Town supply well,.*,"?analytical: Domenico 1987 approximation, uniform regional flow \(pumping not represented\)"?,domenico,.*,yes,[\d.]+,"steady well field: [^"]*","particles: random walk[^"]*",.*,4000,7$/);
     // the printed report carries the well field and the particle figures with their seed and errors
     await page.getByTestId('open-report').click();
     const report = page.locator('[data-testid=report-wells]');

@@ -2,6 +2,7 @@
 // common-practice guard against spreadsheet formula injection (OWASP "CSV Injection").
 import { describe, expect, it } from 'vitest';
 import { breakthroughCsv, csvField, csvRecords, fileStem, receptorTableCsv, RECEPTOR_TABLE_HEADER } from '../../src/case/export-csv';
+import { RECEPTOR_WELL_COLUMNS } from '../../src/case/export-wells';
 import { demoCase, exportResultsFor, readRfc4180 } from './export-fixture';
 
 describe('RFC 4180 fields and records', () => {
@@ -48,9 +49,9 @@ describe('screening tables', () => {
 
   it('receptor table: one record per receptor, every record the same width, values round-trip', () => {
     const rows = readRfc4180(receptorTableCsv(r));
-    expect(rows[0]).toEqual([...RECEPTOR_TABLE_HEADER]);
+    expect(rows[0]).toEqual([...RECEPTOR_TABLE_HEADER, ...RECEPTOR_WELL_COLUMNS]);
     expect(rows).toHaveLength(1 + r.receptors.length + 1);
-    for (const row of rows) expect(row).toHaveLength(RECEPTOR_TABLE_HEADER.length);
+    for (const row of rows) expect(row).toHaveLength(RECEPTOR_TABLE_HEADER.length + RECEPTOR_WELL_COLUMNS.length);
     rows.slice(1, -1).forEach((row, k) => {
       expect(row[0]).toBe(r.receptors[k].name);
       // 10 significant digits (src/case/numbers.ts): relative 5e-10 at most
@@ -58,7 +59,10 @@ describe('screening tables', () => {
       const a = r.receptors[k].arrival;
       if (a === null) expect(row[8]).toBe('');
       else expect(Math.abs(Number(row[8]) / a - 1)).toBeLessThanOrEqual(5e-10);
-      for (const cell of row.slice(2, 17)) expect(cell.replace(/^-|\.|e.*$/g, '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(10);
+      // every figure names its method: the analytical one here (no well field, no particle run: those columns empty)
+      expect(row[RECEPTOR_TABLE_HEADER.indexOf('method')]).toBe('analytical: Domenico 1987 approximation, uniform regional flow (pumping not represented)');
+      expect(row.slice(RECEPTOR_TABLE_HEADER.length).every((x) => x === '')).toBe(true);
+      for (const cell of row.slice(2, 16)) expect(cell.replace(/^-|\.|e.*$/g, '').replace(/^0+/, '').length, cell).toBeLessThanOrEqual(10);
     });
     expect(rows.at(-1)?.[0]).toBe('screening caution');
     expect(rows.at(-1)?.[1]).toMatch(/Screening-level/);

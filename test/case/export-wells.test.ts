@@ -17,6 +17,7 @@ import { check, getIssues } from '@placemarkio/check-geojson';
 import type { Polygon, MultiLineString } from 'geojson';
 import { caseToGeoJSON } from '../../src/case/export-geojson';
 import { captureZonesCsv, particleCurvesCsv, particleFiguresCsv } from '../../src/case/export-wells';
+import { receptorTableCsv } from '../../src/case/export-csv';
 import { screenCase } from '../../src/case/screen';
 import { mapCaptureZones } from '../../src/case/wells';
 import { runCaseParticles } from '../../src/case/particles';
@@ -113,6 +114,11 @@ describe('GeoJSON of capture zones and particle figures', () => {
     rs.forEach((f, i) => {
       const p = particles.receptors[i];
       expect(f.properties?.method).toMatch(/^analytical: /);
+      // the pumping well (receptor 0) carries the well field's capture figures with their method
+      if (i === 0) {
+        expect(f.properties?.['well field: release in its capture zone']).toBe(results.wells!.captures[0].capturesSource ? 'yes' : 'no');
+        expect(f.properties?.['well field: method']).toMatch(/^steady well field/);
+      } else expect(f.properties?.['well field: method']).toBeUndefined();
       expect(f.properties?.['particles: method']).toMatch(/^particles: random walk/);
       // files carry 10 significant digits (src/case/numbers.ts fileNumber)
       expectRel(f.properties?.['particles: concentration at horizon (mg/L)'], p.concentrationAtHorizon);
@@ -144,6 +150,27 @@ describe('CSV of capture zones and particle figures', () => {
     expect(Number(first[8])).toBeCloseTo(z.envelope[0][1], 7);
     const mark = rows.find((r) => r[1] === 'travel-time mark' && r[2] === 'water')!;
     expect(Number(mark[4])).toBeCloseTo(Number(mark[3]) * 365.25, 6);
+  });
+
+  it('the receptor table names the method of every figure: analytical, the well field’s capture and travel time, the particles’', () => {
+    const c = demoCase('riverside-supply-well.json');
+    const { results, s, particles } = withWellsAndParticles(c);
+    const rows = readRfc4180(receptorTableCsv(results));
+    const h = rows[0];
+    const col = (name: string) => h.indexOf(name);
+    const [well, garden] = [rows[1], rows[2]];
+    for (const row of [well, garden]) {
+      expect(row[col('method')]).toMatch(/^analytical: Domenico 1987 approximation, uniform regional flow/);
+      expect(row[col('particles: method')]).toMatch(/^particles: random walk/);
+      expect(row[col('particles: seed')]).toBe('11');
+    }
+    expect(well[col('well field: release in its capture zone')]).toBe('yes');
+    expectRel(Number(well[col('well field: contaminant travel time from the release (d)')]), s.captures[0].travelTimeFromSource!);
+    expect(well[col('well field: method')]).toMatch(/^steady well field: uniform regional flow plus the pumping wells/);
+    expectRel(Number(well[col('particles: concentration at horizon (mg/L)')]), particles.receptors[0].concentrationAtHorizon);
+    // the garden well does not pump: no well-field figures of its own
+    expect(garden[col('well field: release in its capture zone')]).toBe('');
+    expect(garden[col('well field: method')]).toBe('');
   });
 
   it('a local case writes east and north in metres', () => {

@@ -188,6 +188,34 @@ describe('mapCaptureZones: the capture zone drawn on the map against Javandel & 
   });
 });
 
+describe('warnings where the steady picture needs care (wells near a boundary or each other)', () => {
+  // thresholds are the program's screening judgement (src/core/flow/field.ts flowWarnings): closer to a
+  // boundary than twice the well's stagnation distance Q/(2πqB) (Javandel & Tsang 1986) or 5 m; two
+  // wells closer than the larger stagnation distance. Riverside: Q/(2πqB) = 800/(2π·0.12·15) = 70.7 m.
+  it('the riverside supply well, 120 m from the river (< 2 × 70.7 m), is warned about, on its receptor field', () => {
+    const s = screenCase(demo());
+    const w = s.warnings.find((x) => x.code === 'well-near-boundary');
+    expect(w?.message).toMatch(/Town supply well\) is 120 m from boundary line 1 \(constant head\)/);
+    expect(w?.field).toBe('site.receptors[0].position');
+  });
+
+  it('a second pumping well 40 m away: the cones and zones merge, and the steady picture needs both to have pumped long', () => {
+    const c = structuredClone(demo());
+    c.site.receptors.push({ ...structuredClone(c.site.receptors[0]), id: 'second', name: 'Second well', position: [350, 70] });
+    const s = screenCase(c);
+    const w = s.warnings.find((x) => x.code === 'wells-close');
+    expect(w?.message).toMatch(/Town supply well\) and Well 2 \(Second well\) are 40 m apart: .*steady picture holds only after both have pumped for long/);
+    expect(w?.field).toBe('site.receptors[2].position');
+  });
+
+  it('a well beside an impermeable line: the steady state takes long to reach, and the warning says so', () => {
+    const c = structuredClone(demo());
+    c.site.boundaries = [{ id: 'wall', name: 'Clay wall', kind: 'no-flow', points: [[-1000, 60], [1000, 60]] }];
+    const s = screenCase(c);
+    expect(s.warnings.find((x) => x.code === 'well-near-boundary')?.message).toMatch(/impermeable.*steady state takes long to reach/);
+  });
+});
+
 describe('water levels in the well field (confined and Dupuit forms)', () => {
   it('riverside demo: heads at the receptors from Thiem with an image well and the regional gradient; Dupuit thickness from the same potential', () => {
     const c = demo();

@@ -62,7 +62,7 @@ export function geojsonFile(c: Case, r: Evaluation | null): Built {
 export function receptorCsvFile(c: Case, r: Evaluation | null): Built {
   const res = resultsFor(c, r);
   if (!res) return { ok: false, error: `Receptor table: ${NOT_READY}` };
-  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(res, fileLengthUnit(c)) } };
+  return { ok: true, file: { name: `${fileStem(c)}-receptors.csv`, type: 'text/csv', text: receptorTableCsv(forExport(c, res), fileLengthUnit(c)) } };
 }
 
 export function curvesCsvFile(c: Case, r: Evaluation | null): Built {
