@@ -44,7 +44,7 @@ export function geojsonNeedsPlacement(c: Pick<Case, 'site'>): string | null {
   return (
     'GeoJSON export: this case is drawn on a local site grid (metres from a datum), which has no longitude and latitude; ' +
     'RFC 7946 GeoJSON needs WGS 84 coordinates, for the release, receptors, plume contours and any capture zones and travel-time marks alike. ' +
-    'Place the site on the map (give the datum its longitude and latitude) to export GeoJSON, or export the CSV tables, which keep the site grid\'s east/north metres.'
+    'Place the site on the map (give the datum its longitude and latitude) to export GeoJSON, or export the CSV tables, which keep the site grid\'s east/north coordinates.'
   );
 }
 
