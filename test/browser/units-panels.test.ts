@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { artifactPath, LANDSCAPE, PHONE, PORTRAIT } from './browser';
-import { openDemoPage, openFiles, settled, useBrowser } from './offline-helpers';
+import { openDemoPage, openFiles, setNumber, settled, useBrowser } from './offline-helpers';
 import { axe } from './axe-helpers';
 
 const getBrowser = useBrowser();
@@ -82,6 +82,12 @@ describe('a US customary case in the panels', () => {
     await units(page, 'US');
     await expect.poll(() => low.inputValue()).toBe('50');
     expect((await current(page)).uncertainty.inputs.hydraulicConductivity).toMatchObject({ low: 50, unit: 'K:ft/d' });
+    // a run: its results (percentiles of arrival and concentration, drivers) carry no metric unit
+    await setNumber(page, 'Realisations', 200);
+    await page.getByRole('button', { name: 'Run', exact: true }).click();
+    await page.waitForSelector('text=Run again', { timeout: 90_000 });
+    await expect.poll(async () => (await page.locator('.dg-mc-results').textContent()) ?? '').toMatch(/if hydraulic conductivity K is in its low third/);
+    expect(await page.locator('.dg-mc-results').textContent()).not.toMatch(/\d m\b|m\/d|m³/);
     await settled(page);
     expect(serious(await axe(page))).toEqual([]);
 
@@ -91,6 +97,8 @@ describe('a US customary case in the panels', () => {
     await page.locator('[data-testid=report][data-ready=yes]').waitFor({ timeout: 30_000 });
     await expect.poll(async () => (await page.getByTestId('report-uncertainty').textContent()) ?? '').toMatch(/Hydraulic conductivity K: log-uniform from 50 to 328\.1 ft\/d/);
     await expect.poll(async () => (await page.getByTestId('report-wells').textContent()) ?? '').toMatch(/Town supply well147 gal\/min/);
+    expect(await page.getByTestId('report-uncertainty').textContent()).toMatch(/200 realisations, seed 1/);
+    expect(await page.getByTestId('report-uncertainty').textContent()).not.toMatch(/\d m\b|m\/d/);
     expect(await page.getByTestId('report-wells').textContent()).not.toMatch(/m³\/d/);
     expect(errors).toEqual([]);
     await close();

@@ -72,7 +72,8 @@ export function inputRows(c: Case, prepared: PreparedCase | null): InputRow[] {
     'Aquifer',
     'Bulk density ρb',
     a.bulkDensity ? q('aquifer.bulkDensity', a.bulkDensity) : prepared ? derived(prepared.derived.bulkDensity, 'density') : 'estimated',
-    a.bulkDensity ? SITE : 'estimated as 2.65 (1 − n) g/cm³ (quartz grains; common practice)',
+    // the grain density of quartz, 2.65 g/cm³, in the system's unit (165.4 lb/ft³)
+    a.bulkDensity ? SITE : `estimated as ${derived(2.65, 'density')} × (1 − n) (quartz grains; common practice)`,
   );
   add('Aquifer', 'Fraction of organic carbon foc', show(a.fractionOrganicCarbon));
   const d = a.dispersivity;

@@ -54,5 +54,8 @@ describe('inputRows', () => {
     expect(v('Concentration limit')).toBe(row('Concentration limit')?.value);
     expect(v('Horizon')).toBe(row('Horizon')?.value);
     for (const x of r) expect(x.value, x.input).not.toMatch(/\d m(\/d)?$| m$/);
+    // the estimated bulk density's rule in lb/ft³: 2.65 g/cm³ / (0.45359237 kg / 0.3048³ m³ / 1000) = 165.4 lb/ft³
+    expect(demo.aquifer.bulkDensity).toBeNull();
+    expect(r.find((x) => x.input.startsWith('Bulk density'))?.source).toMatch(/^estimated as 165\.4 lb\/ft³ × \(1 − n\)/);
   });
 });
