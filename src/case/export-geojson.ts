@@ -3,7 +3,7 @@
  * and the traced footprint as a polygon), the receptors with their results (each named with the
  * method that gave it: the analytical solution, and the particle figures of a complete particle
  * run when there is one), the flow arrow, the monitoring wells with their latest result, the
- * pumping wells' capture zones and time-of-travel marks (export-wells.ts), and the plume contours
+ * pumping wells' capture zones, time-of-travel marks and lines of equal water level (export-wells.ts), and the plume contours
  * at the map's view time. Coordinates are WGS 84 [longitude, latitude] in
  * decimal degrees (RFC 7946 §4), rounded to 7 decimals (about 1 cm; §11.2 discusses precision).
  * Polygon exteriors are counter-clockwise (§3.1.6). Properties carry their unit in each key:
@@ -29,7 +29,7 @@ import { packedPolygons } from '../geo/contours';
 import { resultUnit, unitSystem } from './unitSystem';
 import { fileNumber } from './numbers';
 import { fromInternal } from '../core/units';
-import { captureZoneFeatures, particleProperties, wellFieldProperties } from './export-wells';
+import { captureZoneFeatures, headContourFeatures, particleProperties, wellFieldProperties } from './export-wells';
 
 /** `placeOnMap`: the refusal is geojsonNeedsPlacement's (the way forward is to place the case on the basemap) */
 export type GeoJsonExport = { ok: true; geojson: FeatureCollection; text: string } | { ok: false; error: string; placeOnMap?: boolean };
@@ -166,7 +166,7 @@ export function caseToGeoJSON(c: Case, results: ExportResults | null, opts: GeoJ
   }
 
   features.push(...monitoringWellFeatures(c, pos));
-  if (results?.wells) features.push(...captureZoneFeatures(c, results.wells, pos));
+  if (results?.wells) features.push(...captureZoneFeatures(c, results.wells, pos), ...headContourFeatures(results.wells, pos));
 
   // Flow arrow from the centre of the source plane, as long as the plume or the farthest receptor.
   const reach = Math.max(

@@ -6,12 +6,15 @@
 import type { FeatureCollection, MultiPolygon } from 'geojson';
 import type { ReceptorResult } from '../core';
 import type { MapCaptureZone, WellCapture } from './wells';
+import type { HeadContours } from './headContours';
 import type { ParticleFigures } from './particles';
 
 /** The steady well field: per pumping well its capture figures and its zone with travel-time marks (map positions). */
 export interface ExportWells {
   captures: readonly WellCapture[];
   zones: readonly MapCaptureZone[];
+  /** the lines of equal water level drawn on the map, when computed */
+  headContours?: HeadContours | null;
 }
 
 /** A particle run of the case: its count and seed, and per receptor (by id) its figures. */

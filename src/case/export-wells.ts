@@ -211,3 +211,34 @@ export function captureZoneFeatures(c: Case, w: ExportWells, round: (p: readonly
   }
   return out;
 }
+
+/**
+ * The lines of equal water level drawn on the map (headContours.ts), as GeoJSON: one
+ * MultiLineString per level, with the level relative to the release in the unit of the map's labels
+ * (the case's system), the interval, the form (confined: saturated thickness held constant, as the
+ * capture zones), how near a pumping well no line is drawn, and the method.
+ */
+export function headContourFeatures(w: ExportWells, round: (p: readonly number[]) => GeoPosition): Feature[] {
+  const h = w.headContours;
+  if (!h) return [];
+  const perUnit = h.unit === 'ft' ? UNITS.ft.factor : 1;
+  return h.levels.flatMap((lv): Feature[] => {
+    const lines = lv.lines.map((piece) => piece.map(round)).filter((l) => l.length >= 2);
+    if (lines.length === 0) return [];
+    return [
+      {
+        type: 'Feature',
+        geometry: { type: 'MultiLineString', coordinates: lines },
+        properties: {
+          role: 'head-contour',
+          name: `Water level ${lv.label} relative to the release`,
+          [`water level relative to the release (${h.unit})`]: fileNumber(lv.head, 'length', lv.head / perUnit),
+          [`interval (${h.unit})`]: h.step,
+          form: 'confined (saturated thickness held constant, as for the capture zones); the unconfined (Dupuit–Forchheimer) lines lie in the same places with other values',
+          [`not drawn within (${h.unit}) of a pumping well`]: fileNumber(h.clipRadius, 'length', h.clipRadius / perUnit),
+          method: WELL_FIELD_METHOD,
+        },
+      },
+    ];
+  });
+}

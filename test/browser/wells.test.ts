@@ -184,7 +184,7 @@ describe('pumping wells: capture zones and particles', () => {
   it('GeoJSON of the capture zones on the site grid: refused with the way forward (place on the basemap), then written with the zones', async () => {
     const { page, errors, close } = await openRiverside(PORTRAIT);
     await openFiles(page);
-    await expect(page.getByTestId('export-geojson').innerText()).resolves.toMatch(/capture zones and travel-time marks for a GIS; first place the case on the basemap/);
+    await expect(page.getByTestId('export-geojson').innerText()).resolves.toMatch(/capture zones and travel-time marks, water-level lines for a GIS; first place the case on the basemap/);
     await expect(page.getByTestId('export-capture-zones').innerText()).resolves.toMatch(/as the site grid's east\/north metres/);
     await page.getByTestId('export-geojson').click();
     await expect.poll(() => page.getByTestId('files-message').textContent()).toMatch(/local site grid.*capture zones and travel-time marks alike/);
@@ -199,6 +199,10 @@ describe('pumping wells: capture zones and particles', () => {
     // the river moved with the case: the zone is traced again and the release still lies in it
     const row = page.locator('[data-testid=receptor-table] tr[data-receptor=supply-well]');
     await expect.poll(() => row.locator('[data-col=capture]').innerText(), { timeout: 20_000 }).toMatch(/Release in its capture zone: contaminant arrives in about 1\.7\d* yr/);
+    // the lines of equal head follow the case onto the basemap (positions now longitude/latitude)
+    await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(6);
+    await expect.poll(() => page.locator('.dg-head-label').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(1);
+    await page.screenshot({ path: artifactPath('wells-placed-768x1024.png') });
     await openFiles(page);
     await expect(page.getByTestId('export-capture-zones').innerText()).resolves.toMatch(/as longitude and latitude/);
     const g = await download(page, 'export-geojson');
@@ -206,6 +210,7 @@ describe('pumping wells: capture zones and particles', () => {
     const roles = fc.features.map((f: { properties: { role: string } }) => f.properties.role);
     expect(roles).toContain('capture-zone');
     expect(roles.filter((x: string) => x === 'travel-time-mark')).toHaveLength(8);
+    expect(roles.filter((x: string) => x === 'head-contour').length).toBeGreaterThanOrEqual(6);
     expect(errors).toEqual([]);
     await close();
   });

@@ -6,6 +6,7 @@ import { check, getIssues } from '@placemarkio/check-geojson';
 import { caseToGeoJSON, geojsonNeedsPlacement } from '../../src/case/export-geojson';
 import { screenCase } from '../../src/case/screen';
 import { mapCaptureZones } from '../../src/case/wells';
+import { mapHeadContours } from '../../src/case/headContours';
 import { convertFrame } from '../../src/ui/frame';
 import { demoCase, exportResultsFor } from './export-fixture';
 import { ringArea } from '../../src/geo/rings';
@@ -94,13 +95,24 @@ describe('caseToGeoJSON', () => {
     // placed on the basemap (the Settings button's conversion), the zones are in the GeoJSON
     const g = convertFrame(local, 'geographic', [-2.731, 52.413]);
     const sg = screenCase(g);
-    const placed = caseToGeoJSON(g, { ...exportResultsFor(g), wells: { captures: sg.captures, zones: mapCaptureZones(sg.prepared, sg.wells) } });
+    const headContours = mapHeadContours(sg.prepared, sg.wells, 'SI')!;
+    const placed = caseToGeoJSON(g, { ...exportResultsFor(g), wells: { captures: sg.captures, zones: mapCaptureZones(sg.prepared, sg.wells), headContours } });
     expect(placed.ok).toBe(true);
     if (!placed.ok) return;
     expect(getIssues(placed.text)).toEqual([]);
     const roles = placed.geojson.features.map((f) => f.properties?.role);
     expect(roles).toContain('capture-zone');
     expect(roles.filter((x) => x === 'travel-time-mark').length).toBe(8);
+    // the lines of equal water level as drawn on the map: one per level, its value a multiple of the interval
+    const heads = placed.geojson.features.filter((f) => f.properties?.role === 'head-contour');
+    expect(heads).toHaveLength(headContours.levels.length);
+    for (const f of heads) {
+      const v = f.properties?.['water level relative to the release (m)'];
+      expect(Math.abs(v / 0.2 - Math.round(v / 0.2))).toBeLessThan(1e-6);
+      expect(f.properties?.['interval (m)']).toBe(0.2);
+      expect(f.properties?.method).toMatch(/^steady well field/);
+      expect(f.geometry.type).toBe('MultiLineString');
+    }
   });
 
   it('an invalid case is refused with the field named, not written half-way', () => {

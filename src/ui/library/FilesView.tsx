@@ -126,7 +126,7 @@ export function FilesView() {
         <button type="button" class="dg-lib-btn" data-testid="export-geojson" onClick={() => out(() => geojsonFile(c, r))}>
           Map layers (GeoJSON)
           <small>
-            source, receptors, monitoring wells, flow arrow, plume contours{r?.wells?.zones.length ? ', capture zones and travel-time marks' : ''} for a GIS
+            source, receptors, monitoring wells, flow arrow, plume contours{r?.wells?.zones.length ? ', capture zones and travel-time marks' : ''}{r?.wells?.headContours?.levels.length ? ', water-level lines' : ''} for a GIS
             {unplaced ? '; first place the case on the basemap' : ''}
           </small>
         </button>
