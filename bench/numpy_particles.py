@@ -12,8 +12,8 @@ number of timed repetitions. Output (one JSON object): seconds per repetition (m
 and the tallies of the last repetition (for the agreement check the JS makes).
 
 The same walk, particle for particle in rule (not in random numbers: numpy's PCG64 normals here,
-xoshiro128** with Marsaglia's polar method in the JS, so the two agree within their statistical
-error, not bit for bit):
+xoshiro128** with a ziggurat in the JS (src/core/particles/stream.ts), so the two agree within
+their statistical error, not bit for bit):
   - release at stratified times t_j = (j + U)/N * T_active, y uniform across the source width,
     mass C0 * H * W * (T_active/N) * q_x(0, y) * exp(-gamma t_j);
   - Ito step X <- X + (u + div D) dt + B xi sqrt(dt), u = v/R, D Scheidegger's tensor
