@@ -96,11 +96,12 @@ export function levelLabel(value: number, step: number, unit: string): string {
 
 /**
  * The head contours of the case's well field on the map (see the header); null when there is no
- * field or the heads are flat (no regional flow and no pumping).
+ * field or no well pumps.
  */
 export function mapHeadContours(p: PreparedCase, w: CaseWells, system: UnitSystem, gridSize = HEAD_LATTICE): HeadContours | null {
   const f = w.field;
-  if (!f) return null;
+  // only where wells pump (boundary lines alone leave the regional slope, which the flow arrow shows)
+  if (!f || !f.wells.some((x) => x.rate !== 0)) return null;
   const { cx, cy, half } = headLatticeExtent(f);
   const n = Math.max(8, Math.floor(gridSize));
   const xs = new Float64Array(n);

@@ -174,6 +174,12 @@ describe('pumping wells: capture zones and particles', () => {
       await toggle.check();
       await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count()).toBeGreaterThanOrEqual(6);
       await expect.poll(() => page.locator('.dg-head-label').count()).toBeGreaterThanOrEqual(labels);
+      if (vp === LANDSCAPE) {
+        // the dark theme: lines and labels in its own colours (wells.css --heads)
+        await page.click('button[aria-label="Dark theme"]');
+        await expect.poll(() => page.getAttribute('html', 'data-theme')).toBe('dark');
+        await page.screenshot({ path: artifactPath(`wells-head-lines-dark-${name}.png`) });
+      }
       const findings = (await axe(page)).filter((f) => f.impact === 'serious' || f.impact === 'critical');
       expect(findings).toEqual([]);
       expect(errors).toEqual([]);

@@ -201,6 +201,15 @@ describe('head contours of the riverside demo (well beside a river)', () => {
     expect(ms.length).toBe(9);
   });
 
+  it('no pumping well (the river line alone): no lines, the regional slope being the flow arrow', () => {
+    const c2 = structuredClone(c);
+    c2.site.receptors[0].pumping = false;
+    c2.site.receptors[0].pumpingRate = null;
+    const s2 = screenCase(c2);
+    expect(s2.wells.field).not.toBeNull();
+    expect(mapHeadContours(s2.prepared, s2.wells, 'SI')).toBeNull();
+  });
+
   it('labels: round levels in metres with the decimals of the interval', () => {
     expect(levelLabel(-0.4000000001, 0.2, 'm')).toBe('-0.4 m');
     expect(levelLabel(-1e-17, 0.2, 'm')).toBe('0 m');
