@@ -226,7 +226,8 @@ describe('lists and tools', () => {
       // the tap under the hint's row still reaches the map
       const marks = await page.locator('.dg-mark-receptor').count();
       await page.mouse.click(after.x + after.width / 2, after.y + 20);
-      await expect.poll(() => page.locator('.dg-mark-receptor').count()).toBe(marks + 1);
+      // the new mark comes with the case's next sync: under load that can take more than the poll's default second
+      await expect.poll(() => page.locator('.dg-mark-receptor').count(), { timeout: 10_000 }).toBe(marks + 1);
       await w.context.close();
     }
   });

@@ -29,10 +29,11 @@ async function openSection(page: Page, id: string): Promise<void> {
   if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click();
 }
 
-/** A monitoring well's mark tapped (a click on the mark itself: another mark may lie over part of it at some sizes). */
+/** A monitoring well's mark chosen from the keyboard (another mark may lie over part of it at some sizes, so not a tap). */
 async function pickWell(page: Page, name: string): Promise<void> {
   const mark = page.locator('.dg-mark-monitor').filter({ hasText: name });
-  await mark.dispatchEvent('click');
+  await mark.focus();
+  await page.keyboard.press('Enter');
   await page.getByTestId('monitoring-well').waitFor();
 }
 

@@ -598,6 +598,16 @@ export class SiteMap {
   // ---- gestures --------------------------------------------------------------------------
   private wireGestures(): void {
     const map = this.map;
+    // a mark is a button (role=button, tabbable): Enter or Space on it acts as a tap, as Leaflet 1.9
+    // no longer turns a keypress into a click (a monitoring well's mark opens its results, a
+    // receptor's selects it)
+    map.getContainer().addEventListener('keydown', (e) => {
+      const el = e.target as HTMLElement;
+      if ((e.key === 'Enter' || e.key === ' ') && el.classList?.contains('leaflet-marker-icon')) {
+        e.preventDefault();
+        el.click();
+      }
+    });
     this.source.on('drag', () => this.moveSource(this.source.getLatLng()));
     this.source.on('dragend', () => this.moveSource(this.source.getLatLng()));
     this.flowHandle.on('dragstart', () => (this.dragging = true));
