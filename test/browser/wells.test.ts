@@ -138,6 +138,17 @@ describe('pumping wells: capture zones and particles', () => {
     await expect(page.locator('.dg-report-charts [data-testid=particle-curve]').count()).resolves.toBe(2);
     await report.scrollIntoViewIfNeeded();
     await page.screenshot({ path: artifactPath('wells-report-1024x768.png') });
+    // the report's site plan draws the well field as the map does: capture zone, river, water-level lines with levels
+    const plan = page.locator('[data-testid=site-plan]');
+    await expect(plan.locator('path.dg-plan-capture').count()).resolves.toBe(1);
+    await expect(plan.locator('path.dg-plan-boundary-constant-head').count()).resolves.toBe(1);
+    await expect(plan.locator('path.dg-plan-head').count()).resolves.toBeGreaterThanOrEqual(6);
+    const planLevels = await plan.locator('text.dg-plan-head-label').allTextContents();
+    expect(planLevels.length).toBeGreaterThanOrEqual(3);
+    for (const t of planLevels) expect(t).toMatch(/^-?\d+(\.\d)? m$/);
+    await expect(page.locator('[data-testid=site-plan-key]').innerText()).resolves.toMatch(/capture zone[\s\S]*river or shore \(constant head\)[\s\S]*water level relative to the release, every 0\.2 m/);
+    await plan.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: artifactPath('wells-report-plan-1024x768.png') });
     expect(errors).toEqual([]);
     await close();
   });

@@ -8,9 +8,13 @@
  * names sit beside their mark on whichever side keeps them inside the plan; a legend under it
  * shows each symbol, colour and band used. After a completed Monte Carlo run of the case as it is,
  * the lines of its probability of exceeding the limit at the same time (as on the map), with their
- * levels in the legend and the run's count, seed and standard error under the plan.
+ * levels in the legend and the run's count, seed and standard error under the plan. Where wells
+ * pump, the well field as on the map: each capture zone's outline, the boundary lines (drawn across
+ * the plan: the model takes them as unbounded) and the lines of equal water level with their levels
+ * (placed by the map's own rule, map/declutter.ts placeOnLines, clear of the marks and names); they
+ * do not widen the plan, which stays framed on the release, receptors and plume.
  */
-import { niceScaleLength, unitSystem } from '../../case/unitSystem';
+import { niceScaleLength, scaleLabel, unitSystem } from '../../case/unitSystem';
 import type { Case } from '../../case/schema';
 import { makeLocalFrame } from '../../geo/projection';
 import type { PreparedCase } from '../../case/prepare';
@@ -22,6 +26,7 @@ import { statusText } from '../../core/results';
 import { fmtTime } from '../format';
 import { packedPolygons } from '../../geo/contours';
 import { currentRunFor } from '../uncertaintyState';
+import { placeOnLines, type Rect } from '../map/declutter';
 
 const W = 680;
 const H = 420;
@@ -89,6 +94,43 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
   const X = (e: number) => (e - x0) * s;
   const Y = (n: number) => (y1 - n) * s;
   const path = (ring: [number, number][]) => ring.map((p, i) => `${i ? 'L' : 'M'}${X(p[0]).toFixed(1)} ${Y(p[1]).toFixed(1)}`).join('') + 'Z';
+  const open = (line: readonly [number, number][]) => line.map((p, i) => `${i ? 'L' : 'M'}${X(p[0]).toFixed(1)} ${Y(p[1]).toFixed(1)}`).join('');
+  // the well field (results.wells): capture zones, boundary lines, lines of equal water level
+  const wl = results?.wells ?? null;
+  const zones = wl ? wl.zones.filter((z) => z.envelope.length >= 3).map((z) => z.envelope.map(en)) : [];
+  const edges = (c.site.boundaries ?? []).map((b) => {
+    const a = en(b.points[0]);
+    const z = en(b.points[1]);
+    const len = Math.hypot(z[0] - a[0], z[1] - a[1]) || 1;
+    const far = (4 * Math.max(W, H)) / s / len; // past the plan's edges both ways
+    return { kind: b.kind, d: open([[a[0] - far * (z[0] - a[0]), a[1] - far * (z[1] - a[1])], [z[0] + far * (z[0] - a[0]), z[1] + far * (z[1] - a[1])]]) };
+  });
+  const hc = wl?.headContours && wl.headContours.levels.length ? wl.headContours : null;
+  const headLines = hc ? hc.levels.map((lv) => ({ label: lv.label, lines: lv.lines.map((piece) => piece.map(en)) })) : [];
+  const headLabels = (() => {
+    if (!hc) return [];
+    // clear of the release and receptor marks and their names (labelPlace's boxes), the scale and north
+    const blocked: Rect[] = [
+      { x: X(src[0]) - 12, y: Y(src[1]) - 12, w: 24, h: 24 },
+      { x: PAD - 4, y: H - 40, w: W * 0.3, h: 40 },
+      { x: W - 48, y: 8, w: 44, h: 52 },
+    ];
+    for (const r of recs) {
+      const x = X(r.p[0]);
+      const y = Y(r.p[1]);
+      const l = labelPlace(x, y, r.name);
+      const w = l.text.length * CHAR_W;
+      blocked.push({ x: x - 12, y: y - 12, w: 24, h: 24 }, { x: l.anchor === 'start' ? l.x : l.x - w, y: l.y - 13, w, h: 17 });
+    }
+    const items = headLines.flatMap((lv, k) =>
+      lv.lines.map((line, j) => ({ id: `${k}:${j}`, label: lv.label, points: line.map((p) => ({ x: X(p[0]), y: Y(p[1]) })), w: lv.label.length * 7 + 6, h: 15 })),
+    );
+    const placed = placeOnLines(items, blocked, W, H);
+    return items.flatMap((it) => {
+      const at = placed.get(it.id);
+      return at ? [{ ...at, label: it.label }] : [];
+    });
+  })();
   const scale = niceScaleLength((W * 0.2) / s, unitSystem(c));
   const bar = scale.metres;
   const limit = results?.limit ?? null;
@@ -97,6 +139,12 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
     <figure class="dg-plan">
       <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label="Site plan with plume contours, release and receptors" data-testid="site-plan">
         <rect x="0" y="0" width={W} height={H} class="dg-plan-bg" />
+        {zones.map((z, i) => (
+          <path key={`z${i}`} d={path(z)} class="dg-plan-capture" />
+        ))}
+        {headLines.map((lv, k) => (
+          <path key={`h${k}`} d={lv.lines.map(open).join('')} class="dg-plan-head" />
+        ))}
         {bands.map((b, i) => (
           <path
             key={i}
@@ -109,6 +157,14 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
           ch.rings.length ? <path key={`p${k}`} d={ch.rings.map(path).join('')} class={`dg-plan-pexceed dg-pexceed-${k}`} data-level={ch.level} /> : null,
         )}
         {foot && <path d={path(foot)} class="dg-plan-foot" />}
+        {edges.map((e, i) => (
+          <path key={`b${i}`} d={e.d} class={`dg-plan-boundary dg-plan-boundary-${e.kind}`} />
+        ))}
+        {headLabels.map((l, i) => (
+          <text key={`hl${i}`} x={l.x.toFixed(1)} y={(l.y + 4).toFixed(1)} text-anchor="middle" class="dg-plan-head-label">
+            {l.label}
+          </text>
+        ))}
         {arrow && (
           <g class="dg-plan-arrow">
             <defs>
@@ -155,6 +211,9 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
         multiples={limit ? bands.slice(1).map((b) => Math.round(b.threshold / limit)) : []}
         flow={!!arrow}
         chances={chances.filter((ch) => ch.rings.length).map((ch) => ({ level: ch.level, k: chances.indexOf(ch) }))}
+        capture={zones.length > 0}
+        boundaries={[...new Set(edges.map((e) => e.kind))]}
+        heads={hc ? `water level relative to the release, every ${Number(hc.step.toPrecision(6))} ${hc.unit}` : null}
       />
       <figcaption>
         Site plan{results?.plume ? `, contours ${Number.isFinite(results.plume.time) ? `after ${fmtTime(results.plume.time)}` : 'at steady state'}` : ''}: the outer line is the limit; inner bands are
@@ -166,7 +225,10 @@ export function SitePlan({ c, prepared, results }: { c: Case; prepared: Prepared
             {pm.levels.map((l) => `${Math.round(100 * l)} %`).join(', ')}, from {pm.realisations} of the {run.result.runs} realisations of the Monte Carlo run (seed {run.result.seed}),
             each ± up to {(100 * pm.maxStandardError).toFixed(1)} % (one standard error); conditional on the chosen distributions and the model’s assumptions.
           </>
-        )}{' '}
+        )}
+        {zones.length > 0 && ' Capture zones: steady flow, traced to 100 years of water travel.'}
+        {hc &&
+          ` Lines of equal water level: confined form (saturated thickness held constant), relative to the release, none within ${scaleLabel(hc.clipRadius, unitSystem(c), 1)} of a pumping well.`}{' '}
         North up; basemap not printed.
       </figcaption>
     </figure>
@@ -185,7 +247,27 @@ function KeySymbol({ children }: { children: preact.ComponentChildren }) {
 const STATUS_ORDER = ['reaches-limit', 'not-reached-in-horizon', 'below-limit'];
 
 /** The plan's legend: the release, each kind of receptor and status colour present, the bands and the flow arrow. */
-function PlanKey({ kinds, statuses, bands, multiples, flow, chances }: { kinds: ReceptorKind[]; statuses: string[]; bands: number; multiples: number[]; flow: boolean; chances: { level: number; k: number }[] }) {
+function PlanKey({
+  kinds,
+  statuses,
+  bands,
+  multiples,
+  flow,
+  chances,
+  capture,
+  boundaries,
+  heads,
+}: {
+  kinds: ReceptorKind[];
+  statuses: string[];
+  bands: number;
+  multiples: number[];
+  flow: boolean;
+  chances: { level: number; k: number }[];
+  capture: boolean;
+  boundaries: string[];
+  heads: string | null;
+}) {
   return (
     <ul class="dg-plan-key" data-testid="site-plan-key">
       <li data-key="release">
@@ -236,6 +318,30 @@ function PlanKey({ kinds, statuses, bands, multiples, flow, chances }: { kinds: 
           P(exceeds the limit) {Math.round(100 * level)} %
         </li>
       ))}
+      {capture && (
+        <li data-key="capture">
+          <KeySymbol>
+            <rect x="-13" y="-9" width="26" height="18" class="dg-plan-capture" />
+          </KeySymbol>
+          capture zone
+        </li>
+      )}
+      {boundaries.map((b) => (
+        <li key={b} data-key={`boundary-${b}`}>
+          <KeySymbol>
+            <path d="M-13 0H13" class={`dg-plan-boundary dg-plan-boundary-${b}`} />
+          </KeySymbol>
+          {b === 'constant-head' ? 'river or shore (constant head)' : 'impermeable boundary'}
+        </li>
+      ))}
+      {heads && (
+        <li data-key="heads">
+          <KeySymbol>
+            <path d="M-13 0H13" class="dg-plan-head" />
+          </KeySymbol>
+          {heads}
+        </li>
+      )}
       {flow && (
         <li data-key="flow">
           <KeySymbol>
