@@ -12,13 +12,14 @@
  * - A well a distance d from a stream held at stage H (image well, Ferris et al. 1962, USGS WSP
  *   1536-E): at the well face H² − h_w² = (Q/(πK))·ln(2d/r_w) for r_w ≪ d (the image method applied
  *   to Φ = ½Kh²; derived here).
+ * - confinedHeadLattice: Thiem again (confined form) at lattice nodes, held at the clip radius inside it.
  * - An independent computation: Darcy's law −K·h·∂h/∂s = Q·ŝ (discharge per unit width along a
  *   path) integrated numerically by classical Runge–Kutta along a bent path through a field of a
  *   well, uniform flow and a stream, from the stream's stage; it uses the field's discharge, never
  *   its potential (tolerance 1e-7 relative with 4000 steps).
  */
 import { describe, expect, it } from 'vitest';
-import { confinedHead, dewatered, prepareFlow, unconfinedHead } from '../../../src/core/index';
+import { confinedHead, confinedHeadLattice, dewatered, prepareFlow, unconfinedHead } from '../../../src/core/index';
 import { discharge } from '../../../src/core/flow/field';
 
 describe('Dupuit problem (BYU CE 544 exercise parameters)', () => {
@@ -141,5 +142,38 @@ describe("independent computation: Darcy's law integrated along a path (Runge–
       }
     }
     expect(unconfinedHead(f, K, ref, -40, 30) / h).toBeCloseTo(1, 7);
+  });
+});
+
+describe('confinedHeadLattice: the confined head on a map lattice, clipped at a stated radius around each well', () => {
+  const K = 30;
+  const B = 20;
+  const Q = 1500;
+  const a = Q / (2 * Math.PI * K * B);
+  const f = prepareFlow({ darcyFlux: 0, porosity: 0.25, thickness: B, wells: [{ x: 0, y: 0, rate: Q }] });
+  const ref = { x: 100, y: 0, head: 0 };
+
+  it('outside the clip radius: Thiem, h = (Q/2πKB)·ln(r/r_ref) (1e-12); inside: held at the clip radius; node order values[i·ny + j]', () => {
+    const xs = [-60, -3, 0, 2, 45];
+    const ys = [-30, 0, 1, 80];
+    const clip = 5;
+    const v = confinedHeadLattice(f, K, ref, xs, ys, clip);
+    expect(v.length).toBe(xs.length * ys.length);
+    xs.forEach((x, i) =>
+      ys.forEach((y, j) => {
+        const r = Math.max(Math.hypot(x, y), clip);
+        const want = a * Math.log(r / 100);
+        expect(Number.isFinite(v[i * ys.length + j])).toBe(true);
+        expect(Math.abs(v[i * ys.length + j] - want)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(want)));
+      }),
+    );
+    // the pointwise confinedHead agrees where no clipping applies
+    expect(v[4 * ys.length + 3]).toBeCloseTo(confinedHead(f, K, ref, 45, 80), 12);
+  });
+
+  it('refuses a negative or non-finite clip radius and non-finite coordinates, naming the field', () => {
+    expect(() => confinedHeadLattice(f, K, ref, [0, 1], [0, 1], -1)).toThrow(/clipRadius/);
+    expect(() => confinedHeadLattice(f, K, ref, [0, Number.NaN], [0, 1], 1)).toThrow(/xs\[1\]/);
+    expect(() => confinedHeadLattice(f, K, ref, [0, 1], [Infinity], 1)).toThrow(/ys\[0\]/);
   });
 });
