@@ -6,9 +6,11 @@
  * zones and particles use (saturated thickness B held constant; core flow/heads.ts
  * `confinedHeadLattice`): the regional slope plus every well's cone with its images. Not drawdown:
  * the lines are the water table's (or piezometric surface's) shape, so the flow crosses them at
- * right angles. In the Dupuit–Forchheimer form (unconfined, thickness varying) the lines lie in the
- * same places (both forms are functions of the discharge potential alone), only their values
- * differ; the wells panel lists both at each receptor.
+ * right angles. `unconfined`: the same for an unconfined aquifer by Dupuit–Forchheimer, the water
+ * table relative to the release h − B with h = √(B² + 2B·Δh) (Δh the confined head; both forms are
+ * functions of the discharge potential alone, so its lines lie on the confined ones' lattice, at
+ * its own round levels, converted to confined heads Δh = ((B + d)² − B²)/(2B) and contoured there);
+ * where B² + 2B·Δh ≤ 0 the aquifer would be dewatered and no unconfined level is drawn (`dewatered`).
  *
  * Where: a square lattice around the release, the pumping wells and the nearest point of each
  * boundary line to each well, padded by the larger of 30 % of its span, twice the largest
@@ -50,9 +52,17 @@ export interface HeadLevel {
   readonly lines: Position[][];
 }
 
+/** Lines of one form: their interval (in the unit of HeadContours) and levels. */
+export interface HeadLineSet {
+  readonly step: number;
+  readonly levels: HeadLevel[];
+}
+
 export interface HeadContours {
-  /** the form contoured (see the header) */
+  /** the form of `levels` and `step` (see the header) */
   readonly form: 'confined';
+  /** the water table of an unconfined aquifer (Dupuit–Forchheimer), relative to the release: levels' `head` is h − B, m */
+  readonly unconfined: HeadLineSet & { readonly dewatered: boolean };
   /** the length unit of the labels and the interval */
   readonly unit: 'm' | 'ft';
   /** interval between lines, in `unit` */
@@ -128,17 +138,34 @@ export function mapHeadContours(p: PreparedCase, w: CaseWells, system: UnitSyste
       if (v > hi) hi = v;
     }
   const u = mapLengthUnit(system);
-  if (!(hi - lo > 1e-9)) return { form: 'confined', unit: u.unit, step: 0, clipRadius, heldWithin, levels: [], gridSize: n, halfSide: half };
-  const stepM = gridStep(hi - lo, LINES_WANTED, system);
-  const step = stepM / u.metres;
-  const kLo = Math.ceil(lo / stepM), kHi = Math.floor(hi / stepM);
-  const ks: number[] = [];
-  for (let k = kLo; k <= kHi && ks.length < MAX_LINES; k++) ks.push(k);
-  const sets = contourLines({ values, xs, ys, levels: ks.map((k) => k * stepM) });
-  const levels = sets.map((s, idx): HeadLevel => ({
-    head: s.level,
-    label: levelLabel(ks[idx] * step, step, u.unit),
-    lines: s.lines.flatMap((l) => clipLines(l, halfPlanes, disks)).map((l) => l.map(([x, y]) => p.toMap(x, y))),
-  }));
-  return { form: 'confined', unit: u.unit, step, clipRadius, heldWithin, levels: levels.filter((l) => l.lines.length > 0), gridSize: n, halfSide: half };
+  const B = f.thickness;
+  const empty = { form: 'confined', unit: u.unit, clipRadius, heldWithin, gridSize: n, halfSide: half } as const;
+  if (!(hi - lo > 1e-9)) return { ...empty, step: 0, levels: [], unconfined: { step: 0, levels: [], dewatered: false } };
+  // Dupuit: d = √(B² + 2B·Δh) − B, monotone in Δh; dewatered below Δh = −B/2
+  const dupuit = (dh: number) => Math.sqrt(Math.max(0, B * B + 2 * B * dh)) - B;
+  const lines = (levels: number[], toConfined: (v: number) => number, labelOf: (k: number) => string): HeadLevel[] =>
+    contourLines({ values, xs, ys, levels: levels.map(toConfined) })
+      .map((s, idx): HeadLevel => ({
+        head: levels[idx],
+        label: labelOf(idx),
+        lines: s.lines.flatMap((l) => clipLines(l, halfPlanes, disks)).map((l) => l.map(([x, y]) => p.toMap(x, y))),
+      }))
+      .filter((l) => l.lines.length > 0);
+  const roundLevels = (a: number, b: number, min = -Infinity): { stepM: number; ks: number[] } => {
+    const stepM = gridStep(b - a, LINES_WANTED, system);
+    const ks: number[] = [];
+    for (let k = Math.ceil(a / stepM); k <= Math.floor(b / stepM) && ks.length < MAX_LINES; k++) if (k * stepM > min) ks.push(k);
+    return { stepM, ks };
+  };
+  const c = roundLevels(lo, hi);
+  const step = c.stepM / u.metres;
+  const levels = lines(c.ks.map((k) => k * c.stepM), (v) => v, (i) => levelLabel(c.ks[i] * step, step, u.unit));
+  const d = roundLevels(dupuit(lo), dupuit(hi), -B);
+  const dStep = d.stepM / u.metres;
+  const unconfined = {
+    step: dStep,
+    levels: lines(d.ks.map((k) => k * d.stepM), (v) => ((B + v) ** 2 - B * B) / (2 * B), (i) => levelLabel(d.ks[i] * dStep, dStep, u.unit)),
+    dewatered: B * B + 2 * B * lo <= 0,
+  };
+  return { ...empty, step, levels, unconfined };
 }

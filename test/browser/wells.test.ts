@@ -186,6 +186,13 @@ describe('pumping wells: capture zones and particles', () => {
       await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count()).toBeGreaterThanOrEqual(6);
       await expect.poll(() => page.locator('.dg-head-label').count()).toBeGreaterThanOrEqual(labels);
       if (vp === LANDSCAPE) {
+        // the same lines labelled as the water table of an unconfined aquifer (Dupuit–Forchheimer)
+        await key.getByRole('button', { name: 'unconfined' }).click();
+        await expect.poll(() => key.innerText()).toMatch(/Water table \(Dupuit–Forchheimer\) relative to the release: a line every 0\.2 m/);
+        await expect.poll(() => page.locator('.dg-head-label').count()).toBeGreaterThanOrEqual(labels);
+        await page.screenshot({ path: artifactPath(`wells-head-lines-unconfined-${name}.png`) });
+        await key.getByRole('button', { name: 'confined', exact: true }).click();
+        await expect.poll(() => key.innerText()).toMatch(/^Water level relative to the release/);
         // the dark theme: lines and labels in its own colours (wells.css --heads)
         await page.click('button[aria-label="Dark theme"]');
         await expect.poll(() => page.getAttribute('html', 'data-theme')).toBe('dark');

@@ -180,6 +180,37 @@ describe('head contours of the riverside demo (well beside a river)', () => {
     console.log(`riverside: ${hc.levels.length} lines every ${hc.step} m, clip ${hc.clipRadius.toFixed(1)} m, worst ${worst.toExponential(2)} m (bound ${headTol.toExponential(2)} m)`);
   });
 
+  it('unconfined (Dupuit–Forchheimer) levels: the water table h − B = √(B² + 2B·Δh) − B (Strack 1989 §8, Δh from the same hand formula) at every vertex, at its own round interval', () => {
+    const cell = (2 * hc.halfSide) / (hc.gridSize - 1);
+    const rImage = 470 - 350;
+    // the confined bound (above) carried through dd/dΔh = B/h ≤ B/h_min, h_min ≥ B − 2 m here
+    const headTol = ((cell * cell) / 8) * a * (1 / hc.heldWithin ** 2 + 1 / rImage ** 2) * (B / (B - 2));
+    const u = hc.unconfined;
+    expect(NICE(u.step)).toBe(true);
+    expect(u.dewatered).toBe(false);
+    expect(u.levels.length).toBeGreaterThanOrEqual(6);
+    for (const lv of u.levels) {
+      expect(Math.abs(lv.head / u.step - Math.round(lv.head / u.step))).toBeLessThan(1e-9);
+      expect(lv.label).toMatch(/^-?\d+(\.\d)? m$/);
+      for (const line of lv.lines)
+        line.forEach(([x, y], k) => {
+          if (k === 0 || k === line.length - 1) return;
+          const d = Math.sqrt(B * B + 2 * B * dh(x, y)) - B;
+          expect(Math.abs(d - lv.head)).toBeLessThanOrEqual(headTol);
+        });
+    }
+  });
+
+  it('a well pumping far beyond what the aquifer yields: finite lines in both forms, no unconfined level at or below a dry base (h − B > −B)', () => {
+    const c2 = structuredClone(c);
+    c2.site.receptors[0].pumpingRate = { value: 40_000, unit: 'm3/d' };
+    const s2 = screenCase(c2);
+    const h2 = mapHeadContours(s2.prepared, s2.wells, 'SI')!;
+    expect(h2.levels.length).toBeGreaterThan(0);
+    for (const lv of h2.unconfined.levels) expect(lv.head).toBeGreaterThan(-B);
+    for (const lv of [...h2.levels, ...h2.unconfined.levels]) for (const line of lv.lines) for (const p of line) expect(Number.isFinite(p[0]) && Number.isFinite(p[1])).toBe(true);
+  });
+
   it('the lattice holds no NaN or Infinity even with a node on the well (clipped to the clip radius, as its header says)', () => {
     const f = s.wells.field!;
     const xs = [340, 350, 360], ys = [20, 30, 40];

@@ -6,7 +6,7 @@
  * switch to hide it.
  */
 import { currentCase, currentResults } from '../state';
-import { showHeadLines, travelMarks } from './wellLayers';
+import { headForm, headLevelsOf, showHeadLines, travelMarks } from './wellLayers';
 import { particleCaseKey, particleLayer, particleRun, showParticleLayer } from '../particleState';
 import { fmtTime } from '../format';
 import { scaleLabel, unitSystem } from '../../case/unitSystem';
@@ -17,7 +17,8 @@ export function WellsKey() {
   const layer = particleLayer.value;
   const run = particleRun.value;
   const heads = w?.headContours ?? null;
-  const hasHeads = !!heads && heads.levels.length > 0;
+  const hasHeads = !!heads && (heads.levels.length > 0 || heads.unconfined.levels.length > 0);
+  const form = headForm.value;
   if (!(w && w.zones.length) && !layer && !hasHeads) return null;
   const system = unitSystem(currentCase.value);
   const current = run.caseKey === particleCaseKey(currentCase.value);
@@ -44,10 +45,19 @@ export function WellsKey() {
             <input type="checkbox" data-testid="show-head-lines" checked={showHeadLines.value} onChange={(e) => (showHeadLines.value = (e.target as HTMLInputElement).checked)} />
             <Sample kind="heads" />
             <span>
-              Water level relative to the release: a line every {Number(heads.step.toPrecision(6))} {heads.unit}, none within {scaleLabel(heads.clipRadius, system, 1)} of a
-              pumping well
+              {form === 'confined' ? 'Water level' : 'Water table (Dupuit–Forchheimer)'} relative to the release: a line every{' '}
+              {Number((form === 'confined' ? heads.step : heads.unconfined.step).toPrecision(6))} {heads.unit}, none within {scaleLabel(heads.clipRadius, system, 1)} of a pumping
+              well{form === 'unconfined' && heads.unconfined.dewatered ? '; none where the aquifer would be dewatered' : ''}
+              {headLevelsOf(heads, form).length === 0 ? ' (no line in this form)' : ''}
             </span>
           </label>
+          <span class="dg-seg" role="group" aria-label="Water levels as for an aquifer">
+            {(['confined', 'unconfined'] as const).map((m) => (
+              <button type="button" key={m} class={form === m ? 'dg-on' : ''} aria-pressed={form === m} onClick={() => (headForm.value = m)}>
+                {m === 'confined' ? 'confined' : 'unconfined'}
+              </button>
+            ))}
+          </span>
         </div>
       )}
       {layer && (

@@ -29,7 +29,7 @@ import { attributionHtml } from './attribution';
 import { newHeadReading, newId, newReceptor } from '../../case/defaults';
 import { moveSource, setFootprint } from '../frame';
 import type { Evaluation, PlumeLayer } from '../results';
-import { WellLayers, showHeadLines, travelMarks } from './wellLayers';
+import { WellLayers, headForm, showHeadLines, travelMarks } from './wellLayers';
 import { ParticleLayerView } from './particleLayer';
 import { particleCaseKey, particleLayer, particleRun, showParticleLayer } from '../particleState';
 
@@ -165,7 +165,7 @@ export class SiteMap {
     this.disposers.push(
       effect(() =>
         guarded('head lines', () => {
-          if (this.wells.syncHeads(currentResults.value?.wells?.headContours ?? null, showHeadLines.value)) this.placeLabels();
+          if (this.wells.syncHeads(currentResults.value?.wells?.headContours ?? null, showHeadLines.value, headForm.value)) this.placeLabels();
         }),
       ),
     );

@@ -31,6 +31,14 @@ export type TravelMarks = 'water' | 'contaminant';
 export const travelMarks = signal<TravelMarks>('water');
 /** whether the lines of equal head are drawn (screen-only) */
 export const showHeadLines = signal(true);
+export type HeadForm = 'confined' | 'unconfined';
+/** which form's levels the lines carry: confined (thickness held constant) or unconfined (Dupuit–Forchheimer); screen-only */
+export const headForm = signal<HeadForm>('confined');
+
+/** The levels drawn for a form (headContours.ts: the same lattice, each form at its own round levels). */
+export function headLevelsOf(h: HeadContours, form: HeadForm): HeadContours['levels'] {
+  return form === 'unconfined' ? h.unconfined.levels : h.levels;
+}
 
 /** the label box used for placement: 12 px bold digits about 7.5 px wide, 4 px padding, a 1 px border (wells.css .dg-map-text) */
 const headLabelSize = (text: string) => ({ w: Math.ceil(7.5 * text.length) + 10, h: 18 });
@@ -68,7 +76,7 @@ export class WellLayers {
   private drawnZones: { w: WellsLayer | null; marks: TravelMarks } | null = null;
   private headLines: L.Polyline[] = [];
   private headLabels: L.Marker[] = [];
-  private drawnHeads: { h: HeadContours | null; show: boolean } | null = null;
+  private drawnHeads: { h: HeadContours | null; show: boolean; form: HeadForm } | null = null;
 
   constructor(private readonly map: L.Map) {
     map.createPane('dg-capture').style.zIndex = '390';
@@ -109,16 +117,16 @@ export class WellLayers {
    * The lines of equal head (one polyline per level, its pieces together); their labels are placed
    * by placeHeadLabels, which the site map calls after its own labels (and on every move).
    */
-  syncHeads(h: HeadContours | null, show: boolean): boolean {
-    if (this.drawnHeads && this.drawnHeads.h === h && this.drawnHeads.show === show) return false;
-    this.drawnHeads = { h, show };
+  syncHeads(h: HeadContours | null, show: boolean, form: HeadForm): boolean {
+    if (this.drawnHeads && this.drawnHeads.h === h && this.drawnHeads.show === show && this.drawnHeads.form === form) return false;
+    this.drawnHeads = { h, show, form };
     for (const l of this.headLines) l.remove();
     this.headLines = [];
     if (!h || !show) {
       this.clearHeadLabels();
       return true;
     }
-    for (const lv of h.levels) {
+    for (const lv of headLevelsOf(h, form)) {
       const pieces = lv.lines.filter((p) => p.length >= 2).map((p) => p.map(toLatLng));
       if (!pieces.length) continue;
       this.headLines.push(L.polyline(pieces, { pane: 'dg-capture', className: 'dg-head-line', interactive: false, weight: 1.5 }).addTo(this.map));
@@ -140,6 +148,7 @@ export class WellLayers {
     this.clearHeadLabels();
     const h = this.drawnHeads?.h;
     if (!h || !this.drawnHeads?.show) return;
+    const levels = headLevelsOf(h, this.drawnHeads.form);
     const size = this.map.getSize();
     const box = this.map.getContainer().getBoundingClientRect();
     const own: Rect[] = [];
@@ -148,7 +157,7 @@ export class WellLayers {
       if (r && r.width) own.push({ x: r.left - box.left, y: r.top - box.top, w: r.width, h: r.height });
     }
     const items: { id: string; text: string; points: { x: number; y: number }[]; w: number; h: number }[] = [];
-    h.levels.forEach((lv, k) =>
+    levels.forEach((lv, k) =>
       lv.lines.forEach((piece, j) => {
         // the longest run of the piece inside the view
         let best: { x: number; y: number }[] = [];
