@@ -59,12 +59,10 @@ export function zigguratTables(): { x: Float64Array; f: Float64Array; ratio: Flo
 
 /** xoshiro128** state seeded from one Philox block; next() a double in (0, 1), normal() N(0, 1). */
 export class ParticleStream {
-  /**
-   * The four state words, in an Int32Array rather than four fields: a word outside the 31-bit
-   * small-integer range makes V8 store a field as a boxed double, read and written through a
-   * pointer at every draw (the typed array holds raw 32-bit words; about 20 % off a deviate).
-   */
-  private readonly s = new Int32Array(4);
+  private s0 = 0;
+  private s1 = 0;
+  private s2 = 0;
+  private s3 = 0;
   private readonly block = new Uint32Array(4);
   private readonly zx: Float64Array;
   private readonly zf: Float64Array;
@@ -85,25 +83,22 @@ export class ParticleStream {
 
   /** Sets the xoshiro128** state words (not all zero). */
   setState(s0: number, s1: number, s2: number, s3: number): void {
-    const s = this.s;
-    s[0] = s0;
-    s[1] = s1;
-    s[2] = s2;
-    s[3] = s3;
+    this.s0 = s0 | 0;
+    this.s1 = s1 | 0;
+    this.s2 = s2 | 0;
+    this.s3 = s3 | 0;
   }
 
   /** the next 32-bit word, unsigned */
   u32(): number {
-    const s = this.s;
-    const s0 = s[0];
-    const s1 = s[1];
-    const s2 = s[2] ^ s0;
-    const s3 = s[3] ^ s1;
-    const result = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
-    s[0] = s0 ^ s3;
-    s[1] = s1 ^ s2;
-    s[2] = s2 ^ (s1 << 9);
-    s[3] = rotl(s3, 11);
+    const result = Math.imul(rotl(Math.imul(this.s1, 5), 7), 9) >>> 0;
+    const t = this.s1 << 9;
+    this.s2 ^= this.s0;
+    this.s3 ^= this.s1;
+    this.s1 ^= this.s2;
+    this.s0 ^= this.s3;
+    this.s2 ^= t;
+    this.s3 = rotl(this.s3, 11);
     return result;
   }
 
@@ -126,16 +121,6 @@ export class ParticleStream {
       const fx = Math.exp(-0.5 * x * x);
       if (this.zf[i] + this.next() * (this.zf[i + 1] - this.zf[i]) < fx) return x;
     }
-  }
-
-  /**
-   * Two deviates into z[0] and z[1], in the order two normal() calls give them: the walk's step
-   * takes its pair this way because a double returned from a call the optimiser does not inline
-   * (the walk's loop is past V8's inlining budget) is boxed on the heap, one allocation per deviate.
-   */
-  normalPair(z: Float64Array): void {
-    z[0] = this.normal();
-    z[1] = this.normal();
   }
 
   /** |X| beyond r given that it is (Marsaglia 1964) */

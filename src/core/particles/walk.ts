@@ -290,7 +290,6 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
   const lines = f.lines;
   const rng = new ParticleStream(inp.seed);
   const g: VelocityGradient = { vx: 0, vy: 0, dxx: 0, dxy: 0, dyx: 0, dyy: 0 };
-  const xi = new Float64Array(2); // a step's two normal deviates (ParticleStream.normalPair)
   const obsArea = obs.map((o) => 1 / (Math.PI * o.radius * o.radius));
   const obsR2 = obs.map((o) => o.radius * o.radius);
   const rand = () => rng.next();
@@ -398,9 +397,8 @@ export function walkParticles(p: PreparedWalk, j0: number, j1: number, tally: Wa
         fate = 3;
         break;
       }
-      rng.normalPair(xi);
-      const zL = xi[0] * Math.sqrt(2 * DL * dt);
-      const zT = xi[1] * Math.sqrt(2 * DT * dt);
+      const zL = rng.normal() * Math.sqrt(2 * DL * dt);
+      const zT = rng.normal() * Math.sqrt(2 * DT * dt);
       let nx = x + (ux + driftX) * dt + eLx * zL - eLy * zT;
       let ny = y + (uy + driftY) * dt + eLy * zL + eLx * zT;
       t = dt === times[k] - t ? times[k] : t + dt;
