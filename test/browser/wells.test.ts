@@ -164,15 +164,27 @@ describe('pumping wells: capture zones and particles', () => {
       await expect.poll(() => page.locator('.leaflet-pane path.dg-head-line').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(6);
       await expect.poll(() => page.locator('.dg-head-label').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(labels);
       for (const t of await page.locator('.dg-head-label').allInnerTexts()) expect(t).toMatch(/^-?\d+(\.\d)? m$/);
-      // head labels overlap neither one another nor the marks' labels
-      const boxes = await page.locator('.dg-head-label span, .dg-mark:not(.dg-label-hidden) .dg-mark-label').evaluateAll((els) =>
-        els.map((e) => e.getBoundingClientRect()).filter((r) => r.width > 0).map((r) => ({ x: r.left, y: r.top, w: r.width, h: r.height })),
-      );
+      // head labels and the river's name overlap neither one another nor the marks' labels; the
+      // river's name, on the line where there is room, covers no mark (the flow handle sits where
+      // the river crosses the plume's axis)
+      const rects = (sel: string) =>
+        page.locator(sel).evaluateAll((els) => els.map((e) => e.getBoundingClientRect()).filter((r) => r.width > 0).map((r) => ({ x: r.left, y: r.top, w: r.width, h: r.height })));
+      const hit = (A: { x: number; y: number; w: number; h: number }, B: typeof A) => A.x < B.x + B.w && B.x < A.x + A.w && A.y < B.y + B.h && B.y < A.y + A.h;
+      await expect.poll(() => rects('.dg-boundary-label span').then((r) => r.length)).toBe(1);
+      const boxes = await rects('.dg-head-label span, .dg-boundary-label span, .dg-mark:not(.dg-label-hidden) .dg-mark-label');
       for (let a = 0; a < boxes.length; a++)
-        for (let b = a + 1; b < boxes.length; b++) {
-          const A = boxes[a], B = boxes[b];
-          expect(A.x < B.x + B.w && B.x < A.x + A.w && A.y < B.y + B.h && B.y < A.y + A.h, `labels ${a} and ${b} overlap`).toBe(false);
-        }
+        for (let b = a + 1; b < boxes.length; b++) expect(hit(boxes[a], boxes[b]), `labels ${a} and ${b} overlap`).toBe(false);
+      const [river] = await rects('.dg-boundary-label span');
+      for (const m of await rects('.leaflet-marker-icon.dg-mark > svg')) expect(hit(river, m), 'the river’s name covers a mark').toBe(false);
+      if (vp === PHONE) {
+        // the phone's map keeps its share of the screen however long the keys below it (app.css: it
+        // fell to 165 px with the well field's keys), the time bar straight under it
+        const map = (await page.locator('.dg-map-box').boundingBox())!;
+        const bar = (await page.locator('.dg-timebar').boundingBox())!;
+        expect(map.height).toBeGreaterThanOrEqual(0.45 * PHONE.height);
+        expect(bar.y).toBeGreaterThanOrEqual(map.y + map.height);
+        expect(bar.y).toBeLessThan(map.y + map.height + 20);
+      }
       const key = page.locator('[data-testid=head-lines-key]');
       await expect(key.innerText()).resolves.toMatch(/Water level relative to the release: a line every 0\.2 m, none within 20 m of a pumping well/);
       await page.screenshot({ path: artifactPath(`wells-head-lines-${name}.png`) });

@@ -161,7 +161,14 @@ export class SiteMap {
       if (this.synced && moved.length && !this.innerView().contains(L.latLngBounds(moved))) this.bringIntoView(L.latLngBounds(moved));
     });
     this.disposers.push(effect(() => guarded('capture zones', () => this.wells.syncZones(currentResults.value?.wells ?? null, travelMarks.value))));
-    this.disposers.push(effect(() => guarded('boundary lines', () => this.wells.syncBoundaries(currentCase.value))));
+    this.disposers.push(
+      effect(() =>
+        guarded('boundary lines', () => {
+          this.wells.syncBoundaries(currentCase.value);
+          this.placeLabels();
+        }),
+      ),
+    );
     this.disposers.push(
       effect(() =>
         guarded('head lines', () => {
@@ -397,7 +404,7 @@ export class SiteMap {
         const r = rectOf(el);
         if (r) taken.push(r);
       }
-      guarded('head labels', () => this.wells.placeHeadLabels(taken));
+      guarded('well-field labels', () => this.wells.placeLabels(taken));
     });
   }
 

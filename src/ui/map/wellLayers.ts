@@ -13,6 +13,8 @@
  *   zones, each labelled with its level where a label fits (declutter.ts placeOnLines: clear of the
  *   marks, their labels, the map's controls and notices, and each other); shown or hidden from the
  *   well-field legend (showHeadLines).
+ * Each boundary line's name sits on the line where it finds room in the view, placed like the head
+ * levels (placeLabels, after the marks' labels).
  * Own panes, so the zones and head lines lie under the plume bands and the boundary lines and
  * labels over them.
  */
@@ -53,6 +55,23 @@ function handleIcon(kind: string, label: string): L.DivIcon {
     iconSize: [44, 44],
     iconAnchor: [22, 22],
   });
+}
+
+/** The drawn continuation of a boundary line beyond its point p: three times the stretch q→p (the model's line is unbounded). */
+const extend = (p: L.LatLng, q: L.LatLng): L.LatLng => L.latLng(p.lat + 3 * (p.lat - q.lat), p.lng + 3 * (p.lng - q.lng));
+
+/** The longest run of consecutive points of a line inside the view (0..width × 0..height, container pixels). */
+function longestRunInView(points: readonly { x: number; y: number }[], width: number, height: number): { x: number; y: number }[] {
+  let best: { x: number; y: number }[] = [];
+  let run: { x: number; y: number }[] = [];
+  for (const c of points) {
+    if (c.x >= 0 && c.y >= 0 && c.x <= width && c.y <= height) run.push({ x: c.x, y: c.y });
+    else {
+      if (run.length > best.length) best = run;
+      run = [];
+    }
+  }
+  return run.length > best.length ? run : best;
 }
 
 function labelIcon(text: string, className: string): L.DivIcon {
@@ -115,7 +134,7 @@ export class WellLayers {
 
   /**
    * The lines of equal head (one polyline per level, its pieces together); their labels are placed
-   * by placeHeadLabels, which the site map calls after its own labels (and on every move).
+   * by placeLabels, which the site map calls after its own labels (and on every move).
    */
   syncHeads(h: HeadContours | null, show: boolean, form: HeadForm): boolean {
     if (this.drawnHeads && this.drawnHeads.h === h && this.drawnHeads.show === show && this.drawnHeads.form === form) return false;
@@ -144,7 +163,39 @@ export class WellLayers {
    * where placeOnLines finds room (clear of `blocked`, the travel-time and boundary labels and each
    * other), else none. Rects in the map container's pixels.
    */
-  placeHeadLabels(blocked: Rect[]): void {
+  /**
+   * The well field's labels for the view as it is, after the marks' own (`blocked`: the marks, their
+   * labels, the controls and notices, in the map container's pixels): each boundary line's name on
+   * the line where it finds room in the view (not at its two points' middle, which on a river across
+   * the flow is where the plume, the flow handle and the receptors crowd), then the head levels.
+   */
+  placeLabels(blocked: Rect[]): void {
+    this.placeBoundaryLabels(blocked);
+    this.placeHeadLabels(blocked);
+  }
+
+  private placeBoundaryLabels(blocked: Rect[]): void {
+    const size = this.map.getSize();
+    const items: { id: string; text: string; points: { x: number; y: number }[]; w: number; h: number }[] = [];
+    for (const [id, d] of this.lines) {
+      const r = d.label.getElement()?.firstElementChild?.getBoundingClientRect();
+      const [a, z] = d.line.getLatLngs() as L.LatLng[];
+      // the line as the model takes it (the drawn stretch and its continuation), sampled evenly
+      const far = [extend(a, z), extend(z, a)].map((p) => this.map.latLngToContainerPoint(p));
+      const points = Array.from({ length: 97 }, (_, k) => ({ x: far[0].x + ((far[1].x - far[0].x) * k) / 96, y: far[0].y + ((far[1].y - far[0].y) * k) / 96 }));
+      const run = longestRunInView(points, size.x, size.y);
+      if (r?.width && run.length >= 2) items.push({ id, text: '', points: run, w: r.width, h: r.height });
+    }
+    const placed = placeOnLines(items, blocked, size.x, size.y);
+    for (const [id, d] of this.lines) {
+      const at = placed.get(id);
+      // no room in the view: at the middle of its two points, as drawn first
+      const [a, z] = d.line.getLatLngs() as L.LatLng[];
+      d.label.setLatLng(at ? this.map.containerPointToLatLng(L.point(at.x, at.y)) : L.latLng((a.lat + z.lat) / 2, (a.lng + z.lng) / 2));
+    }
+  }
+
+  private placeHeadLabels(blocked: Rect[]): void {
     this.clearHeadLabels();
     const h = this.drawnHeads?.h;
     if (!h || !this.drawnHeads?.show) return;
@@ -159,18 +210,11 @@ export class WellLayers {
     const items: { id: string; text: string; points: { x: number; y: number }[]; w: number; h: number }[] = [];
     levels.forEach((lv, k) =>
       lv.lines.forEach((piece, j) => {
-        // the longest run of the piece inside the view
-        let best: { x: number; y: number }[] = [];
-        let run: { x: number; y: number }[] = [];
-        for (const p of piece) {
-          const c = this.map.latLngToContainerPoint(toLatLng(p));
-          if (c.x >= 0 && c.y >= 0 && c.x <= size.x && c.y <= size.y) run.push({ x: c.x, y: c.y });
-          else {
-            if (run.length > best.length) best = run;
-            run = [];
-          }
-        }
-        if (run.length > best.length) best = run;
+        const best = longestRunInView(
+          piece.map((p) => this.map.latLngToContainerPoint(toLatLng(p))),
+          size.x,
+          size.y,
+        );
         if (best.length >= 2) items.push({ id: `${k}:${j}`, text: lv.label, points: best, ...headLabelSize(lv.label) });
       }),
     );
@@ -195,12 +239,10 @@ export class WellLayers {
       if (old) this.removeLine(old);
       const a = toLatLng(b.points[0]);
       const z = toLatLng(b.points[1]);
-      // the continuation: three times the drawn stretch each way (the model's line is unbounded)
-      const ext = (p: L.LatLng, q: L.LatLng) => L.latLng(p.lat + 3 * (p.lat - q.lat), p.lng + 3 * (p.lng - q.lng));
       const name = b.name || `Boundary ${i + 1}`;
       const cls = `dg-boundary dg-boundary-${b.kind}`;
       const line = L.polyline([a, z], { pane: 'dg-boundaries', interactive: false, weight: 5, className: cls });
-      const beyond = L.polyline([[ext(a, z), a], [z, ext(z, a)]], { pane: 'dg-boundaries', interactive: false, weight: 3, dashArray: '8 8', className: cls });
+      const beyond = L.polyline([[extend(a, z), a], [z, extend(z, a)]], { pane: 'dg-boundaries', interactive: false, weight: 3, dashArray: '8 8', className: cls });
       const label = L.marker(L.latLng((a.lat + z.lat) / 2, (a.lng + z.lng) / 2), {
         interactive: false,
         keyboard: false,
