@@ -347,6 +347,18 @@ function startWithin(c: Case, input: UncertainInput, d: UncertainValue, t: { low
 }
 
 /**
+ * Each uncertain input checked as the screen shows it (in the case's units, shownDistribution):
+ * throws the first refusal, its figures in those units (a bound in ft/d in a US customary case, as
+ * the input's row says it), before planUncertainty checks the stored values themselves.
+ */
+export function checkInputsAsShown(c: Case): void {
+  for (const input of UNCERTAIN_INPUTS) {
+    const d = c.uncertainty.inputs[input];
+    if (d) planInput(c, input, shownDistribution(c, input, d));
+  }
+}
+
+/**
  * Check a case's uncertain inputs and prepare a run. Throws ValidationError naming the input
  * (`uncertainty.inputs.<name>…`) or the run settings (`uncertainty.runs`, `uncertainty.seed`).
  */

@@ -7,7 +7,7 @@
  * for, so an edit marks it out of date instead of silently keeping it.
  */
 import type { Case } from '../case/schema';
-import { breakthroughBands, exceedanceMapOf, joinBlocks, monitoringWellBands, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
+import { breakthroughBands, checkInputsAsShown, exceedanceMapOf, joinBlocks, monitoringWellBands, planUncertainty, summariseRun, type RealisationBlock, type UncertaintyPlan } from '../case/uncertainty';
 import { caseKeyOf, uncertaintyRun, type RunState } from './uncertaintyState';
 
 export { caseKeyOf, uncertaintyRun, type RunState };
@@ -24,6 +24,8 @@ export function startUncertainty(c: Case): void {
   cancelUncertainty();
   let plan: UncertaintyPlan;
   try {
+    // a refusal in the units on screen (as the input's row words it), then the stored values' own check
+    checkInputsAsShown(c);
     plan = planUncertainty(c, { curves: true, map: true, wells: true });
   } catch (e) {
     uncertaintyRun.value = { ...uncertaintyRun.peek(), status: 'failed', error: e instanceof Error ? e.message : String(e) };

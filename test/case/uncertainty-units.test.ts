@@ -13,7 +13,7 @@ import { describe, expect, test } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { migrateCase } from '../../src/case/migrate';
 import type { Case, UncertainValue } from '../../src/case/schema';
-import { describeShown, distributionIn, planInput, runUncertainty, shownDistribution } from '../../src/case/uncertainty';
+import { checkInputsAsShown, describeShown, distributionIn, planInput, runUncertainty, shownDistribution } from '../../src/case/uncertainty';
 import { defaultDistribution, noteAfterEdit } from '../../src/case/uncertaintyDefaults';
 import { withFieldUnit, withUnitSystem } from '../../src/case/unitSystem';
 import { uncertaintyCsv } from '../../src/case/export-uncertainty';
@@ -120,3 +120,31 @@ describe('distributions in a US customary case', () => {
     expect(us.split('\r\n').slice(6, 9)).toEqual(si.split('\r\n').slice(6, 9));
   });
 });
+
+describe('a refused distribution at the start of a run', () => {
+  test('is worded in the units on screen, as its row says it (a US case: the truncation bounds in ft/d)', () => {
+    const bad: UncertainValue = { kind: 'lognormal', median: 40, gsd: 3, unit: 'K:m/d', truncate: { low: 30, high: 10 } };
+    const c = inUS(nitrate());
+    c.uncertainty.inputs.hydraulicConductivity = bad;
+    const message = (f: () => unknown) => {
+      try {
+        f();
+      } catch (e) {
+        return (e as Error).message;
+      }
+      return null;
+    };
+    const stored = message(() => planInput(c, 'hydraulicConductivity', bad));
+    const shown = message(() => checkInputsAsShown(c));
+    // the row's own check (DistributionEditor: planInput on the shown distribution) and the run's agree
+    expect(shown).toBe(message(() => planInput(c, 'hydraulicConductivity', shownDistribution(c, 'hydraulicConductivity', bad))));
+    expect(stored).toMatch(/\(30\).*\(10\)/);
+    // 30 and 10 m/d are 98.43 and 32.81 ft/d (NIST SP 811: 1 ft = 0.3048 m), to 4 significant digits
+    expect(shown).toMatch(/\(98\.43\).*\(32\.81\)/);
+    // an SI case words it as stored
+    const si = nitrate();
+    si.uncertainty.inputs.hydraulicConductivity = bad;
+    expect(message(() => checkInputsAsShown(si))).toBe(stored);
+  });
+});
+
